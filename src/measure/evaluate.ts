@@ -1,0 +1,112 @@
+import type { Piece, Term } from '../simulate/result.js';
+
+/**
+ * Exact evaluation of a closed-form signal (a list of pieces) and of its time derivative.
+ * Impulses (`impulseArea`) carry no finite value and are left out: these functions give the
+ * ordinary part of the signal.
+ */
+
+/** Value of one term at τ (time since the start of its piece). */
+export function termValue(term: Term, tau: number): number {
+  switch (term.kind) {
+    case 'exp':
+      return term.lambda === 0 ? term.coef : term.coef * Math.exp(term.lambda * tau);
+    case 'osc': {
+      const w = term.omega * tau;
+      const env = term.sigma === 0 ? 1 : Math.exp(term.sigma * tau);
+      return env * (term.cosCoef * Math.cos(w) + term.sinCoef * Math.sin(w));
+    }
+    case 'poly-exp': {
+      let p = 0;
+      const c = term.polyCoefs;
+      for (let k = c.length - 1; k >= 0; k--) p = p * tau + c[k]!;
+      return term.lambda === 0 ? p : p * Math.exp(term.lambda * tau);
+    }
+  }
+}
+
+/** d/dτ of one term at τ. */
+export function termDerivative(term: Term, tau: number): number {
+  switch (term.kind) {
+    case 'exp':
+      return term.lambda === 0 ? 0 : term.coef * term.lambda * Math.exp(term.lambda * tau);
+    case 'osc': {
+      const { sigma, omega, cosCoef, sinCoef } = term;
+      const w = omega * tau;
+      const env = sigma === 0 ? 1 : Math.exp(sigma * tau);
+      return env * ((sigma * cosCoef + omega * sinCoef) * Math.cos(w) + (sigma * sinCoef - omega * cosCoef) * Math.sin(w));
+    }
+    case 'poly-exp': {
+      // d/dτ [p(τ)e^(λτ)] = (p'(τ) + λp(τ))e^(λτ)
+      const c = term.polyCoefs;
+      const n = c.length;
+      let q = 0;
+      for (let k = n - 1; k >= 0; k--) {
+        const next = k + 1 < n ? (k + 1) * c[k + 1]! : 0;
+        q = q * tau + (term.lambda * c[k]! + next);
+      }
+      return term.lambda === 0 ? q : q * Math.exp(term.lambda * tau);
+    }
+  }
+}
+
+/** Value of a piece at absolute time t (no check that t lies inside it). */
+export function pieceValue(piece: Piece, t: number): number {
+  const tau = t - piece.t0;
+  let sum = 0;
+  for (const term of piece.terms) sum += termValue(term, tau);
+  return sum;
+}
+
+/** Time derivative of a piece at absolute time t. */
+export function pieceDerivative(piece: Piece, t: number): number {
+  const tau = t - piece.t0;
+  let sum = 0;
+  for (const term of piece.terms) sum += termDerivative(term, tau);
+  return sum;
+}
+
+/**
+ * Index of the piece that holds t: the last piece with t0 ≤ t (so a time on a boundary belongs
+ * to the later piece; times past the end use the last piece, times before the start the first).
+ * -1 when there are no pieces.
+ */
+export function pieceIndexAt(pieces: readonly Piece[], t: number): number {
+  if (pieces.length === 0) return -1;
+  let lo = 0;
+  let hi = pieces.length - 1;
+  if (t < pieces[0]!.t0) return 0;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (pieces[mid]!.t0 <= t) lo = mid;
+    else hi = mid - 1;
+  }
+  return lo;
+}
+
+/** The signal at time t (the right-hand value at a piece boundary). 0 when there are no pieces. */
+export function evaluatePieces(pieces: readonly Piece[], t: number): number {
+  const i = pieceIndexAt(pieces, t);
+  return i < 0 ? 0 : pieceValue(pieces[i]!, t);
+}
+
+/** The time derivative of the signal at t (right-hand derivative at a boundary). */
+export function evaluatePiecesDerivative(pieces: readonly Piece[], t: number): number {
+  const i = pieceIndexAt(pieces, t);
+  return i < 0 ? 0 : pieceDerivative(pieces[i]!, t);
+}
+
+/** The left-hand limit of the signal at t: at a boundary, the value the earlier piece approaches. */
+export function evaluatePiecesBefore(pieces: readonly Piece[], t: number): number {
+  let i = pieceIndexAt(pieces, t);
+  if (i < 0) return 0;
+  while (i > 0 && pieces[i]!.t0 >= t) i--;
+  return pieceValue(pieces[i]!, t);
+}
+
+/** Largest angular frequency among the oscillatory terms of a piece (0 if none). */
+export function maxOmega(piece: Piece): number {
+  let w = 0;
+  for (const term of piece.terms) if (term.kind === 'osc') w = Math.max(w, Math.abs(term.omega));
+  return w;
+}

@@ -1,0 +1,28 @@
+import type { Track } from './track.js';
+
+export interface Extremum {
+  value: number;
+  time: number;
+}
+
+/** Largest and smallest value over the span (the earliest time wins a tie). */
+export function findPeakAndValley(track: Track): { peak: Extremum; valley: Extremum } {
+  const peak: Extremum = { value: -Infinity, time: track.start };
+  const valley: Extremum = { value: Infinity, time: track.start };
+  for (const s of track.stretches) {
+    for (let k = 0; k < s.ts.length; k++) {
+      const y = s.ys[k]!;
+      if (y > peak.value) {
+        peak.value = y;
+        peak.time = s.ts[k]!;
+      }
+      if (y < valley.value) {
+        valley.value = y;
+        valley.time = s.ts[k]!;
+      }
+    }
+  }
+  if (peak.value === -Infinity) peak.value = NaN;
+  if (valley.value === Infinity) valley.value = NaN;
+  return { peak, valley };
+}

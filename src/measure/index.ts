@@ -1,0 +1,18 @@
+/** Waveform measurements on exact closed forms. */
+export { computeMetrics } from './metrics.js';
+export {
+  evaluatePieces,
+  evaluatePiecesDerivative,
+  evaluatePiecesBefore,
+  pieceValue,
+  pieceDerivative,
+  termValue,
+  termDerivative,
+} from './evaluate.js';
+export { findRoot } from './root.js';
+export { buildTrack, type Track, type Stretch } from './track.js';
+export { findPeakAndValley, type Extremum } from './extrema.js';
+export { firstReach } from './crossing.js';
+export { riseTime, type RiseTime } from './rise.js';
+export { overshootPercent } from './overshoot.js';
+export { settlingTime, bandHalfWidth } from './settling.js';

@@ -1,0 +1,34 @@
+import type { SettleBand } from '../circuit/circuit.js';
+import { findRoot } from './root.js';
+import type { Track } from './track.js';
+
+/** Half-width of the settling band; null when a relative band has no transition to be relative to. */
+export function bandHalfWidth(band: SettleBand, initial: number, final: number): number | null {
+  if (band.kind === 'absolute') return Math.abs(band.value);
+  const w = Math.abs(band.fraction) * Math.abs(final - initial);
+  return w > 0 && Number.isFinite(w) ? w : null;
+}
+
+/**
+ * The last time the signal is outside final ± halfWidth (the moment it enters the band for
+ * good). The start of the span when it never leaves the band.
+ */
+export function settlingTime(track: Track, final: number, halfWidth: number): number {
+  const outside = (y: number) => Math.abs(y - final) > halfWidth;
+  const ss = track.stretches;
+  for (let i = ss.length - 1; i >= 0; i--) {
+    const s = ss[i]!;
+    for (let k = s.ts.length - 1; k >= 0; k--) {
+      const y = s.ys[k]!;
+      if (!outside(y)) continue;
+      const t = s.ts[k]!;
+      // Last outside knot of a stretch: the signal jumps into the band at the boundary,
+      // or is still outside at the end of the span.
+      if (k === s.ts.length - 1) return t;
+      const edge = y > final ? final + halfWidth : final - halfWidth;
+      const h = (u: number) => s.f(u) - edge;
+      return findRoot(h, t, s.ts[k + 1]!, 1e-14, y - edge, s.ys[k + 1]! - edge);
+    }
+  }
+  return track.start;
+}

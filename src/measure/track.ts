@@ -1,0 +1,121 @@
+import type { Piece } from '../simulate/result.js';
+import { maxOmega, pieceDerivative, pieceValue } from './evaluate.js';
+import { findRoot } from './root.js';
+
+/**
+ * A signal prepared for measurement: a list of continuous stretches (one per piece of the closed
+ * form, clipped to the analysed span), each with knots placed so that the signal is monotone
+ * between neighbouring knots. Knots include every local extremum, located by root-finding the
+ * exact derivative, so peaks between sample points are not missed.
+ */
+export interface Stretch {
+  /** The signal inside the stretch (continuous). */
+  f: (t: number) => number;
+  /** Knot times, increasing; ts[0] and ts[last] are the stretch ends. */
+  ts: number[];
+  /** Signal values at the knots. */
+  ys: number[];
+}
+
+export interface Track {
+  stretches: Stretch[];
+  start: number;
+  end: number;
+}
+
+/** Fewest grid intervals per piece when looking for extrema. */
+const MIN_INTERVALS = 64;
+/** Grid step is at most this fraction of an oscillation period (π/4 rad). */
+const PHASE_STEP = Math.PI / 4;
+/** Safety cap on the extremum search grid of one piece. */
+const MAX_INTERVALS = 200_000;
+
+/** Builds the measurement track from the exact pieces, or from the samples when there are none. */
+export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[]): Track {
+  const n = times.length;
+  if (n === 0) return { stretches: [], start: 0, end: 0 };
+  const start = times[0]!;
+  const end = times[n - 1]!;
+  if (pieces.length === 0) return sampledTrack(times, values);
+
+  const stretches: Stretch[] = [];
+  for (let i = 0; i < pieces.length; i++) {
+    const piece = pieces[i]!;
+    const next = pieces[i + 1];
+    const lo = Math.max(piece.t0, start);
+    const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
+    if (hi < lo || (hi === lo && stretches.length > 0)) continue;
+    stretches.push(pieceStretch(piece, lo, hi, times));
+  }
+  if (stretches.length === 0) {
+    // Every piece lies outside the span: measure the last piece over the span.
+    stretches.push(pieceStretch(pieces[pieces.length - 1]!, start, end, times));
+  }
+  return { stretches, start, end };
+}
+
+function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array): Stretch {
+  const f = (t: number) => pieceValue(piece, t);
+  if (hi === lo) return { f, ts: [lo], ys: [f(lo)] };
+  const df = (t: number) => pieceDerivative(piece, t);
+
+  const width = hi - lo;
+  const wanted = Math.max(MIN_INTERVALS, Math.ceil((width * maxOmega(piece)) / PHASE_STEP));
+  const m = Math.min(MAX_INTERVALS, wanted);
+  const grid: number[] = [];
+  for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
+  for (let k = 0; k < times.length; k++) {
+    const t = times[k]!;
+    if (t > lo && t < hi) grid.push(t);
+  }
+  grid.sort((x, y) => x - y);
+
+  const ts: number[] = [];
+  let prevT = grid[0]!;
+  let prevD = df(prevT);
+  ts.push(prevT);
+  for (let k = 1; k < grid.length; k++) {
+    const t = grid[k]!;
+    if (t === prevT) continue;
+    const d = df(t);
+    if (prevD !== 0 && d !== 0 && Math.sign(prevD) !== Math.sign(d)) {
+      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
+      if (r > prevT && r < t) ts.push(r);
+    }
+    ts.push(t);
+    prevT = t;
+    prevD = d;
+  }
+  return { f, ts, ys: ts.map(f) };
+}
+
+function sampledTrack(times: Float64Array, values: Float64Array): Track {
+  const ts = Array.from(times);
+  const ys = Array.from(values);
+  const f = (t: number): number => {
+    let lo = 0;
+    let hi = ts.length - 1;
+    if (t <= ts[0]!) return ys[0]!;
+    if (t >= ts[hi]!) return ys[hi]!;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (ts[mid]! <= t) lo = mid;
+      else hi = mid;
+    }
+    const u = (t - ts[lo]!) / (ts[hi]! - ts[lo]!);
+    return ys[lo]! + u * (ys[hi]! - ys[lo]!);
+  };
+  return { stretches: [{ f, ts, ys }], start: ts[0]!, end: ts[ts.length - 1]! };
+}
+
+/** Value at the very end of the track (the left-hand limit at the end of the span). */
+export function endValue(track: Track): number {
+  const last = track.stretches[track.stretches.length - 1];
+  return last ? last.ys[last.ys.length - 1]! : NaN;
+}
+
+/** Value at the start of the track (t = start, right-hand value). */
+export function startValue(track: Track): number {
+  const first = track.stretches[0];
+  return first ? first.ys[0]! : NaN;
+}
