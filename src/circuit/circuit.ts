@@ -1,3 +1,4 @@
+import type { Diagnostic } from '../diagnostics.js';
 import type { SourceLocation } from '../netlist/location.js';
 
 /**
@@ -69,4 +70,6 @@ export interface Circuit {
   watches: Watch[];
   analysis: Analysis;
   params: Record<string, number>;
+  /** Problems worth mentioning that do not stop the run (e.g. a node with one connection). */
+  warnings?: Diagnostic[];
 }

@@ -1,0 +1,60 @@
+import type { Statement } from '../netlist/ast.js';
+import { raise } from '../netlist/errors.js';
+import { GROUND, type Part } from './circuit.js';
+import { evaluateFor, type EvalContext } from './evaluate.js';
+import { PLACES } from './units.js';
+import { elaborateWaveform } from './waveform.js';
+
+type PartStatement = Extract<Statement, { kind: 'part' }>;
+
+const VALUE_PLACE = {
+  resistor: PLACES.resistance,
+  capacitor: PLACES.capacitance,
+  inductor: PLACES.inductance,
+} as const;
+
+/**
+ * Checks one part statement against the parts seen so far and converts it. Returns undefined when
+ * the part is unusable; errors are already raised.
+ */
+export function elaboratePart(st: PartStatement, earlier: ReadonlyMap<string, Part>, ctx: EvalContext): Part | undefined {
+  const name = st.name.name;
+  let ok = true;
+  const first = earlier.get(name);
+  if (first) {
+    raise(ctx.sink, 'error', st.name.loc, `designator '${name}' is already used by the ${first.kind} on line ${first.loc.line}`, {
+      hint: `line ${first.loc.line}, column ${first.loc.col} declares ${name} first; give one of them another name`,
+    });
+    ok = false;
+  }
+  if (st.a.name === st.b.name) {
+    const where = st.a.name === GROUND ? 'ground' : `node '${st.a.name}'`;
+    raise(ctx.sink, 'error', { ...st.a.loc, length: st.b.loc.col + st.b.loc.length - st.a.loc.col }, `both terminals of ${name} are on ${where}`, {
+      hint: 'a part must connect two different nodes',
+    });
+    ok = false;
+  }
+
+  const part: Part = { kind: st.part, name, a: st.a.name, b: st.b.name, value: 0, loc: st.loc };
+  if (st.part === 'voltage-source' || st.part === 'current-source') {
+    const waveform = st.waveform && elaborateWaveform(st.waveform, st.part, name, ctx);
+    if (!waveform) return undefined;
+    part.waveform = waveform;
+  } else if (st.value) {
+    const value = evaluateFor(st.value, VALUE_PLACE[st.part], `the value of ${name}`, ctx);
+    if (value === undefined) ok = false;
+    else if (!(value > 0)) {
+      raise(ctx.sink, 'error', st.value.loc, `the value of ${st.part} ${name} must be positive, got ${value}`, {
+        expected: `${VALUE_PLACE[st.part].what} greater than zero, such as ${VALUE_PLACE[st.part].example}`,
+      });
+      ok = false;
+    } else part.value = value;
+    if (st.initial) {
+      const place = st.part === 'capacitor' ? PLACES.voltage : PLACES.current;
+      const initial = evaluateFor(st.initial, place, `the initial ${place.what.replace(/^an? /, '')} of ${name}`, ctx);
+      if (initial === undefined) ok = false;
+      else part.initial = initial;
+    }
+  }
+  return ok ? part : undefined;
+}

@@ -1,0 +1,146 @@
+import type { SourceLocation } from './location.js';
+import { raise, type DiagnosticSink } from './errors.js';
+
+/**
+ * Splits one line into tokens. Statements never span lines, so tokenizing line by line lets a
+ * bad character spoil only its own line.
+ */
+
+export type TokenKind = 'word' | 'quantity' | 'arrow' | 'plus' | 'equals' | 'string' | 'expr';
+
+export interface Token {
+  kind: TokenKind;
+  /** Exactly as written (a string keeps its quotes, an expression its parentheses). */
+  text: string;
+  /** String contents without quotes, or an expression's text inside the outer parentheses. */
+  inner?: string;
+  loc: SourceLocation;
+}
+
+const WORD_START = /[A-Za-z_]/;
+const WORD_PART = /[A-Za-z0-9_]/;
+/** Characters that may follow a number to form one literal: digits, prefixes, unit symbols. */
+const QUANTITY_PART = /[A-Za-z0-9_.%\u00b5\u03bc\u03a9\u2126\u00b7]/;
+
+export function tokenizeLine(
+  line: string,
+  lineNo: number,
+  file: string,
+  sink: DiagnosticSink,
+): Token[] | undefined {
+  const tokens: Token[] = [];
+  const at = (start: number, end: number): SourceLocation => ({
+    file,
+    line: lineNo,
+    col: start + 1,
+    length: Math.max(1, end - start),
+  });
+  const push = (kind: TokenKind, start: number, end: number, inner?: string): void => {
+    const tok: Token = { kind, text: line.slice(start, end), loc: at(start, end) };
+    if (inner !== undefined) tok.inner = inner;
+    tokens.push(tok);
+  };
+
+  let i = 0;
+  while (i < line.length) {
+    const c = line[i]!;
+    const next = line[i + 1] ?? '';
+    if (c === '#') break;
+    if (c === ' ' || c === '\t' || c === '\r') {
+      i++;
+    } else if (WORD_START.test(c)) {
+      const end = scanWord(line, i);
+      push('word', i, end);
+      i = end;
+    } else if (/[0-9]/.test(c) || (c === '.' && /[0-9]/.test(next)) || (c === '-' && /[0-9.]/.test(next))) {
+      const end = scanQuantity(line, i);
+      push('quantity', i, end);
+      i = end;
+    } else if (c === '-' && next === '>') {
+      push('arrow', i, i + 2);
+      i += 2;
+    } else if (c === '+') {
+      push('plus', i, i + 1);
+      i++;
+    } else if (c === '=') {
+      push('equals', i, i + 1);
+      i++;
+    } else if (c === '"') {
+      const close = line.indexOf('"', i + 1);
+      if (close < 0) {
+        raise(sink, 'error', at(i, line.trimEnd().length), 'this text has no closing quote', {
+          hint: 'put a " at the end of the text',
+        });
+        return undefined;
+      }
+      push('string', i, close + 1, line.slice(i + 1, close));
+      i = close + 1;
+    } else if (c === '(') {
+      const close = matchParen(line, i);
+      if (close < 0) {
+        raise(sink, 'error', at(i, i + 1), "this '(' is never closed on the same line", {
+          hint: 'expressions must fit on one line; add the missing )',
+        });
+        return undefined;
+      }
+      push('expr', i, close + 1, line.slice(i + 1, close));
+      i = close + 1;
+    } else if (c === ')') {
+      raise(sink, 'error', at(i, i + 1), "this ')' has no matching '('");
+      return undefined;
+    } else {
+      const ch = String.fromCodePoint(line.codePointAt(i)!);
+      raise(sink, 'error', at(i, i + ch.length), `unexpected character '${ch}'`);
+      return undefined;
+    }
+  }
+  return tokens;
+}
+
+/** Identifiers, with hyphens allowed between parts so `voltage-source` is one word. */
+function scanWord(line: string, start: number): number {
+  let i = start + 1;
+  for (;;) {
+    while (i < line.length && WORD_PART.test(line[i]!)) i++;
+    if (line[i] === '-' && WORD_START.test(line[i + 1] ?? '')) {
+      i++;
+      continue;
+    }
+    return i;
+  }
+}
+
+/** Number plus attached prefix/unit; takes an exponent sign and the `*` of `V*s` / `A*s`. */
+function scanQuantity(line: string, start: number): number {
+  let i = start + 1;
+  while (i < line.length) {
+    const c = line[i]!;
+    const prev = line[i - 1]!;
+    const next = line[i + 1] ?? '';
+    if (QUANTITY_PART.test(c)) {
+      i++;
+    } else if ((c === '+' || c === '-') && /[eE]/.test(prev) && /[0-9]/.test(line[i - 2] ?? '') && /[0-9]/.test(next)) {
+      i++;
+    } else if (c === '*' && /[VA]/.test(prev) && next === 's') {
+      i++;
+    } else {
+      break;
+    }
+  }
+  return i;
+}
+
+/** Index of the ')' closing the '(' at `open`, or -1; stops at a comment. */
+function matchParen(line: string, open: number): number {
+  let depth = 0;
+  for (let i = open; i < line.length; i++) {
+    const c = line[i];
+    if (c === '#') return -1;
+    if (c === '(') depth++;
+    else if (c === ')') {
+      depth--;
+      if (depth === 0) return i;
+    }
+  }
+  return -1;
+}
