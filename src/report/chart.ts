@@ -1,0 +1,133 @@
+import asciichart from 'asciichart';
+import { paint, visibleWidth } from './color.js';
+import { formatSI } from './si.js';
+import { niceTicks } from './ticks.js';
+
+/**
+ * Terminal line chart of one or more signals against time: SI-labelled value axis on the left, a
+ * time axis with SI-labelled ticks below, a legend, at most `width` columns (default 80).
+ */
+export interface ChartTrace {
+  label: string;
+  /** The signal at time t (seconds). */
+  sample: (t: number) => number;
+}
+
+export interface ChartOptions {
+  start: number;
+  end: number;
+  /** Unit of the value axis ('V', 'A' or '' when traces mix units). */
+  unit: string;
+  /** Total width in columns (default 80). */
+  width?: number;
+  /** Number of rows between the lowest and highest label (default 12). */
+  height?: number;
+  color?: boolean;
+}
+
+const TRACE_COLORS = [asciichart.cyan, asciichart.magenta, asciichart.yellow, asciichart.green, asciichart.blue, asciichart.red];
+const LINE = '───';
+
+export function renderChart(traces: readonly ChartTrace[], options: ChartOptions): string {
+  const totalWidth = options.width ?? 80;
+  const height = options.height ?? 12;
+  const color = options.color ?? false;
+  const { start, end, unit } = options;
+  if (traces.length === 0) return '';
+
+  // First pass at a provisional width to find the value range and label width.
+  const probe = sampleAll(traces, start, end, 64);
+  let lo = Infinity;
+  let hi = -Infinity;
+  const widen = (rows: number[][]) => {
+    for (const r of rows)
+      for (const v of r) {
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+      }
+  };
+  widen(probe);
+  const flat = !(hi > lo) || hi - lo <= 1e-12 * Math.max(Math.abs(hi), Math.abs(lo));
+  const labelAt = (x: number) => formatSI(flat ? lo : lo + (x / height) * (hi - lo), unit, { digits: 3 });
+  // label width: try the extremes and a middle row; pad generously for sign and prefix changes
+  const labelWidth = () => Math.max(...[0, height / 2, height].map((x) => labelAt(x).length));
+
+  let labelW = labelWidth();
+  let cols = Math.max(8, totalWidth - labelW - 2);
+  const series = sampleAll(traces, start, end, cols);
+  widen(series);
+  labelW = labelWidth();
+  cols = Math.max(8, Math.min(cols, totalWidth - labelW - 2));
+  const data = sampleAll(traces, start, end, cols);
+
+  const norm = data.map((row) => row.map((v) => (flat ? 0 : ((v - lo) / (hi - lo)) * height)));
+  const plot = asciichart.plot(norm, {
+    min: 0,
+    max: flat ? 0 : height,
+    height: flat ? 0 : height,
+    offset: 3,
+    colors: color ? traces.map((_, i) => TRACE_COLORS[i % TRACE_COLORS.length]!) : undefined,
+    format: (x: number) => labelAt(x).padStart(labelW),
+  });
+
+  const lines = plot.split('\n').map((l) => l.replace(/\s+$/, ''));
+  const axisCol = labelW + 1; // label, one space, axis
+  lines.push(...timeAxis(start, end, cols, axisCol, totalWidth));
+  lines.push(legend(traces, axisCol, color));
+  return lines.map((l) => l.replace(/\s+$/, '')).join('\n');
+}
+
+/** Samples every trace at `n` evenly spaced times over [start, end]; non-finite values are patched. */
+function sampleAll(traces: readonly ChartTrace[], start: number, end: number, n: number): number[][] {
+  return traces.map((tr) => {
+    const row: number[] = [];
+    for (let k = 0; k < n; k++) row.push(tr.sample(n === 1 ? start : start + ((end - start) * k) / (n - 1)));
+    patchNonFinite(row);
+    return row;
+  });
+}
+
+function patchNonFinite(row: number[]): void {
+  let last = NaN;
+  for (let k = 0; k < row.length; k++) {
+    if (Number.isFinite(row[k]!)) last = row[k]!;
+    else row[k] = last;
+  }
+  let next = NaN;
+  for (let k = row.length - 1; k >= 0; k--) {
+    if (Number.isFinite(row[k]!)) next = row[k]!;
+    else row[k] = next;
+  }
+  for (let k = 0; k < row.length; k++) if (!Number.isFinite(row[k]!)) row[k] = 0;
+}
+
+/** The time axis: a rule with tick marks, then the tick labels centred under the marks. */
+function timeAxis(start: number, end: number, cols: number, axisCol: number, totalWidth: number): string[] {
+  const rule = [...' '.repeat(axisCol) + '└' + '─'.repeat(cols - 1)];
+  const labels = [...' '.repeat(totalWidth)];
+  const span = end - start;
+  const ticks = span > 0 ? niceTicks(start, end, Math.max(1, Math.floor(cols / 11))) : [start];
+  let freeFrom = 0;
+  for (const t of ticks) {
+    const k = span > 0 ? Math.round(((t - start) / span) * (cols - 1)) : 0;
+    const col = axisCol + k;
+    if (k > 0) rule[col] = '┬';
+    const text = formatSI(t, 's', { digits: 3, trim: true });
+    let at = col - Math.floor(text.length / 2);
+    at = Math.min(Math.max(at, 0), totalWidth - text.length);
+    if (at < freeFrom) continue;
+    for (let i = 0; i < text.length; i++) labels[at + i] = text[i]!;
+    freeFrom = at + text.length + 1;
+  }
+  return [rule.join(''), labels.join('')];
+}
+
+function legend(traces: readonly ChartTrace[], indent: number, color: boolean): string {
+  const items = traces.map((tr, i) => `${paint(LINE, TRACE_COLORS[i % TRACE_COLORS.length]!, color)} ${tr.label}`);
+  return ' '.repeat(indent) + items.join('   ');
+}
+
+/** Widest line of a chart as shown on a terminal. */
+export function chartWidth(chart: string): number {
+  return Math.max(0, ...chart.split('\n').map(visibleWidth));
+}
