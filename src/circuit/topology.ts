@@ -63,7 +63,8 @@ function checkSourceLoops(parts: readonly Part[], sink: DiagnosticSink): void {
       edges.push(p);
       continue;
     }
-    const loop = [...pathBetween(edges, p.a, p.b), p];
+    const order = (q: Part): number => parts.indexOf(q);
+    const loop = [...pathBetween(edges, p.a, p.b), p].sort((x, y) => order(x) - order(y));
     const names = loop.map((q) => q.name);
     raise(sink, 'error', p.loc, `voltage sources ${list(names)} form a loop with no other part in it`, {
       hint: 'ideal voltage sources in a loop fight each other; put a resistor in series with one of them',

@@ -236,7 +236,7 @@ class LineParser {
     const as = this.peek();
     if (as) {
       if (as.kind !== 'word' || as.text !== 'as') {
-        this.fail(as.loc, `unexpected ${DESCRIBE[as.kind]} after the watch target`, {
+        this.fail(as.loc, `unexpected '${as.text}' after the watch target`, {
           expected: 'end of line, or as "label"',
           hint: as.kind === 'word' ? didYouMean(as.text, ['as']) : undefined,
         });
@@ -294,7 +294,7 @@ class LineParser {
     const extra = this.peek();
     if (extra) {
       const last = this.tokens[this.tokens.length - 1]!;
-      this.fail(this.spanBetween(extra.loc, last.loc), `unexpected ${DESCRIBE[extra.kind]} at the end of the statement`, {
+      this.fail(this.spanBetween(extra.loc, last.loc), `unexpected '${extra.text}' after the end of the statement`, {
         hint: 'each statement goes on its own line',
       });
     }
