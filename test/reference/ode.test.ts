@@ -158,7 +158,35 @@ const seriesRlc: OdeCase = {
   outputs: [(x) => x[1]!],
 };
 
-const CASES = [rcLadder, lcLadder, twoLoop, seriesRlc];
+// Hot-plug inrush scenario: 24 V step; cable Rc = 30 mΩ, Lc = 2 µH; Cb = 470 µF behind ESR 10 mΩ;
+// 24 Ω load at the board input node vin. KCL at vin: iL = (vin − vC)/ESR + vin/Rload.
+//     Lc iL' = u − Rc·iL − vin;  Cb vC' = (vin − vC)/ESR
+const hotplugVin = ([iL, vC]: number[]) => (iL! + vC! / 10e-3) / (1 / 10e-3 + 1 / 24);
+const hotplug: OdeCase = {
+  name: 'hotplug-inrush',
+  rdn: 'circuits/hotplug-inrush.rdn',
+  span: 2e-3,
+  samples: 2001,
+  x0: [0, 0],
+  input: (t) => (t >= 0 ? 24 : 0),
+  f: (x, u) => [(u - 30e-3 * x[0]! - hotplugVin(x)) / 2e-6, (hotplugVin(x) - x[1]!) / 10e-3 / 470e-6],
+  outputs: [(x) => x[0]!, hotplugVin, (x) => x[1]!],
+};
+
+// LC input filter scenario: 0 → 12 V in 50 µs; Lf = 10 µH, Cf = 22 µF, damping leg Rd = 1 Ω + Cd = 100 µF,
+// load 6 Ω.  Lf iL' = u − vout;  Cf vout' = iL − (vout − vd)/Rd − vout/Rload;  Cd vd' = (vout − vd)/Rd
+const lcFilter: OdeCase = {
+  name: 'lc-input-filter',
+  rdn: 'circuits/lc-input-filter.rdn',
+  span: 1e-3,
+  samples: 1001,
+  x0: [0, 0, 0],
+  input: (t) => (t <= 0 ? 0 : t < 50e-6 ? (12 * t) / 50e-6 : 12),
+  f: ([iL, vo, vd], u) => [(u - vo!) / 10e-6, (iL! - (vo! - vd!) / 1 - vo! / 6) / 22e-6, (vo! - vd!) / 1 / 100e-6],
+  outputs: [(x) => x[1]!, (x) => x[0]!, (x) => (x[1]! - x[2]!) / 1],
+};
+
+const CASES = [rcLadder, lcLadder, twoLoop, seriesRlc, hotplug, lcFilter];
 const cache = new Map<string, number[][]>();
 const odeSolution = (c: OdeCase) => {
   if (!cache.has(c.name)) cache.set(c.name, integrate(c));
