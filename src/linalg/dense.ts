@@ -1,0 +1,97 @@
+/**
+ * Small dense-matrix helpers on plain row-major arrays (number[][]).
+ * The model and LTI stages use these for bookkeeping; heavy factorizations go through ml-matrix.
+ */
+export type Mat = number[][];
+export type Vec = number[];
+
+export function zeros(rows: number, cols: number): Mat {
+  return Array.from({ length: rows }, () => new Array<number>(cols).fill(0));
+}
+
+export function identity(n: number): Mat {
+  const m = zeros(n, n);
+  for (let i = 0; i < n; i++) m[i][i] = 1;
+  return m;
+}
+
+export function cols(m: Mat, fallback = 0): number {
+  return m.length ? m[0].length : fallback;
+}
+
+export function matmul(a: Mat, b: Mat, bCols = cols(b)): Mat {
+  const n = a.length;
+  const k = b.length;
+  const out = zeros(n, bCols);
+  for (let i = 0; i < n; i++) {
+    const ai = a[i];
+    const oi = out[i];
+    for (let p = 0; p < k; p++) {
+      const aip = ai[p];
+      if (aip === 0) continue;
+      const bp = b[p];
+      for (let j = 0; j < bCols; j++) oi[j] += aip * bp[j];
+    }
+  }
+  return out;
+}
+
+export function matvec(a: Mat, x: Vec): Vec {
+  return a.map((row) => {
+    let s = 0;
+    for (let j = 0; j < row.length; j++) s += row[j] * x[j];
+    return s;
+  });
+}
+
+export function add(a: Mat, b: Mat, scaleB = 1): Mat {
+  return a.map((row, i) => row.map((v, j) => v + scaleB * b[i][j]));
+}
+
+export function scale(a: Mat, s: number): Mat {
+  return a.map((row) => row.map((v) => v * s));
+}
+
+export function transpose(a: Mat, aCols = cols(a)): Mat {
+  const out = zeros(aCols, a.length);
+  for (let i = 0; i < a.length; i++) for (let j = 0; j < aCols; j++) out[j][i] = a[i][j];
+  return out;
+}
+
+export function column(a: Mat, j: number): Vec {
+  return a.map((row) => row[j]);
+}
+
+export function dot(a: Vec, b: Vec): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
+  return s;
+}
+
+/** Largest absolute entry (a cheap scale for tolerances). */
+export function maxAbs(a: Mat): number {
+  let m = 0;
+  for (const row of a) for (const v of row) m = Math.max(m, Math.abs(v));
+  return m;
+}
+
+export function norm1(a: Mat): number {
+  let best = 0;
+  const c = cols(a);
+  for (let j = 0; j < c; j++) {
+    let s = 0;
+    for (let i = 0; i < a.length; i++) s += Math.abs(a[i][j]);
+    best = Math.max(best, s);
+  }
+  return best;
+}
+
+/** Rows `idx` of a. */
+export function pickRows(a: Mat, idx: number[]): Mat {
+  return idx.map((i) => a[i].slice());
+}
+
+export function hstack(...ms: Mat[]): Mat {
+  const rows = ms.find((m) => m.length)?.length ?? 0;
+  return Array.from({ length: rows }, (_, i) => ms.flatMap((m) => (m.length ? m[i] : [])));
+}

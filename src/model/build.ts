@@ -1,0 +1,241 @@
+import type { Circuit, Part } from '../circuit/circuit.js';
+import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, zeros } from '../linalg/dense.js';
+import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
+import { type Descriptor, type Probe, buildDescriptor, currentProbe, voltageProbe } from './descriptor.js';
+import { ReductionError, independentRows, reduceDescriptor } from './reduce.js';
+import type { Readout, StateSpace, StateVariable } from './state-space.js';
+
+/**
+ * From the validated circuit to the explicit state-space model (see state-space.ts), plus what is
+ * needed to turn per-part initial values into a consistent initial state.
+ */
+export interface Model {
+  ss: StateSpace;
+  /** read-out rows for arbitrary probes (watches, part stresses) */
+  readout(probe: Probe): Readout;
+  descriptor: Descriptor;
+  /** consistent x(0+) from the parts' values at 0− and the inputs (and their slopes) at 0+ */
+  initialState(u0: Vec, du0: Vec): InitialState;
+}
+
+export interface InitialState {
+  x: Vec;
+  /** per capacitor/inductor: value before and after, where the state had to jump */
+  jumps: { part: string; kind: StateVariable['kind']; before: number; after: number }[];
+  /** residual of the charge/flux balance at t = 0 (should be ~0) */
+  residual: number;
+}
+
+export { ReductionError };
+
+export function buildModel(circuit: Circuit): Model {
+  const d = buildDescriptor(circuit);
+  const m = d.inputs.length;
+  const s = variableScales(d);
+  // Scaled descriptor: z = S·z̃, rows multiplied by S as well (symmetric equilibration).
+  const Es = d.E.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
+  const As = d.A.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
+  const Bs = d.B.map((row, i) => row.map((v) => v * s[i]));
+  const red = reduceDescriptor(Es, As, Bs, d.nz, m);
+  const np = cols(red.Zp, 0);
+  // z = S·Zp·p + Σ S·Zu[j]·u^(j)
+  const SZp = red.Zp.map((row, i) => row.map((v) => v * s[i]));
+  const SZu = red.Zu.map((Z) => Z.map((row, i) => row.map((v) => v * s[i])));
+
+  const physical = physicalQuantities(circuit, d);
+  const Xall = physical.map((q) => rowTimes(q.probe.cz, SZp, np));
+  const chosen = independentRows(Xall, np);
+  if (chosen.length !== np) throw new ReductionError('could not choose independent capacitor voltages and inductor currents as states');
+  const X = pickRows(Xall, chosen);
+  const Xu = SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
+  const Xinv = np ? solveSquare(X, identityOf(np)) : [];
+  const F = red.F;
+  const Ax = np ? matmul(matmul(X, F, np), Xinv, np) : [];
+  // Bx[j] = X·G[j] − Ax·Xu[j] + Xu[j−1]
+  const order = Math.max(red.G.length, Xu.length + 1);
+  const Bx: Mat[] = [];
+  for (let j = 0; j < order; j++) {
+    let b = j < red.G.length ? matmul(X, red.G[j], m) : zeros(np, m);
+    if (j < Xu.length) b = add(b, matmul(Ax, Xu[j], m), -1);
+    if (j > 0 && j - 1 < Xu.length) b = add(b, Xu[j - 1]);
+    Bx.push(b);
+  }
+  for (let j = 2; j < Bx.length; j++) {
+    if (maxAbsMat(Bx[j]) > 1e-12 * (1 + maxAbsMat(Bx[0]))) {
+      throw new ReductionError('a state would depend on the second derivative of a source (not supported)');
+    }
+  }
+  const Bx0 = Bx[0] ?? zeros(np, m);
+  const Bx1 = Bx[1] ?? zeros(np, m);
+  const B = add(matmul(Ax, Bx1, m), Bx0);
+  const states: StateVariable[] = chosen.map((i) => ({
+    part: physical[i].part.name,
+    kind: physical[i].kind,
+    name: physical[i].kind === 'capacitor-voltage' ? `v(${physical[i].part.name})` : `i(${physical[i].part.name})`,
+  }));
+  const ss: StateSpace = { n: np, m, A: Ax, B, Bx1, states, inputs: d.inputs.map((p) => p.name) };
+
+  const readout = (probe: Probe): Readout => {
+    // y = cz·z + cd·z' + du·u in p and u^(j), then p = Xinv·(x − Σ Xu[j]·u^(j)), x = ξ + Bx1·u.
+    const cp = add([rowTimes(probe.cz, SZp, np)], matmul([rowTimes(probe.cd, SZp, np)], F, np))[0] ?? [];
+    const dp: Vec[] = [];
+    for (let j = 0; j < order + 1; j++) {
+      const v = new Array<number>(m).fill(0);
+      if (j < SZu.length) addInto(v, rowTimes(probe.cz, SZu[j], m));
+      if (j < red.G.length) addInto(v, vecMat(rowTimes(probe.cd, SZp, np), red.G[j], m));
+      if (j > 0 && j - 1 < SZu.length) addInto(v, rowTimes(probe.cd, SZu[j - 1], m));
+      if (j === 0) addInto(v, probe.du);
+      dp.push(v);
+    }
+    const C = np ? vecMat(cp, Xinv, np) : [];
+    const dx = dp.map((v, j) => (j < Xu.length ? addVec(v, vecMat(C, Xu[j], m), -1) : v));
+    for (let j = 2; j < dx.length; j++) {
+      if (dx[j].some((v) => Math.abs(v) > 1e-12 * (1 + Math.max(0, ...dx[0].map(Math.abs), ...C.map(Math.abs))))) {
+        throw new ReductionError('a watched quantity would depend on the second derivative of a source (not supported)');
+      }
+    }
+    const D = addVec(dx[0], np ? vecMat(C, Bx1, m) : new Array(m).fill(0));
+    return { C, D, D1: dx[1] ?? new Array(m).fill(0) };
+  };
+
+  const initialState = (u0: Vec, du0: Vec): InitialState =>
+    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, u0, du0);
+
+  return { ss, readout, descriptor: d, initialState };
+}
+
+interface PhysicalQuantity {
+  part: Part;
+  kind: StateVariable['kind'];
+  probe: Probe;
+}
+
+function physicalQuantities(circuit: Circuit, d: Descriptor): PhysicalQuantity[] {
+  const out: PhysicalQuantity[] = [];
+  for (const p of circuit.parts) {
+    if (p.kind === 'capacitor') out.push({ part: p, kind: 'capacitor-voltage', probe: voltageProbe(d, p.a, p.b) });
+    if (p.kind === 'inductor') out.push({ part: p, kind: 'inductor-current', probe: currentProbe(d, p) });
+  }
+  return out;
+}
+
+/**
+ * Symmetric scaling of the unknowns so that capacitances of picofarads and farads, or
+ * conductances of nanosiemens and kilosiemens, meet rank decisions on equal terms.
+ */
+function variableScales(d: Descriptor): number[] {
+  return Array.from({ length: d.nz }, (_, i) => {
+    const e = Math.abs(d.E[i][i]);
+    if (e > 0) return 1 / Math.sqrt(e);
+    const a = Math.abs(d.A[i][i]);
+    return a > 0 ? 1 / Math.sqrt(a) : 1;
+  });
+}
+
+/**
+ * x(0+) from the stored charges and fluxes at 0−. Where the circuit forces a jump (capacitors
+ * switched onto each other or onto a source), charge and flux are conserved except for what the
+ * algebraic branches can carry as an impulse:  E·(z+ − z−) = A·z_imp  with z_imp in the null
+ * space of E and consistent with the algebraic rows.
+ */
+function consistentInitial(
+  circuit: Circuit,
+  d: Descriptor,
+  s: number[],
+  Es: Mat,
+  As: Mat,
+  Zp: Mat,
+  Zu: Mat[],
+  np: number,
+  X: Mat,
+  Xu: Mat[],
+  chosen: number[],
+  physical: PhysicalQuantity[],
+  u0: Vec,
+  du0: Vec,
+): InitialState {
+  const nz = d.nz;
+  // stored charge/flux E·z− from the parts' initial values, in scaled rows
+  const q = new Array<number>(nz).fill(0);
+  const node = (n: string) => d.nodes.indexOf(n);
+  for (const p of circuit.parts) {
+    const v0 = p.initial ?? 0;
+    if (p.kind === 'capacitor') {
+      const a = node(p.a);
+      const b = node(p.b);
+      if (a >= 0) q[a] += p.value * v0;
+      if (b >= 0) q[b] -= p.value * v0;
+    } else if (p.kind === 'inductor') {
+      const k = d.branchIndex.get(p.name)!;
+      q[k] += p.value * v0;
+    }
+  }
+  const qs = q.map((v, i) => v * s[i]);
+  const derivs = [u0, du0];
+  const zu = new Array<number>(nz).fill(0);
+  Zu.forEach((Z, j) => {
+    if (j < derivs.length) addInto(zu, matvec(Z, derivs[j]));
+  });
+  const rhs = addVec(qs, matvec(Es, zu), -1);
+  const eSplit = rankSplit(Es, nz);
+  const NE = eSplit.nullSpace;
+  const kNE = cols(NE, 0);
+  const U2t = transposeOf(eSplit.leftNull);
+  const cons = matmul(U2t, matmul(As, NE, kNE), kNE);
+  const N2 = rankSplit(cons, kNE, 1e-10, 1).nullSpace;
+  const imp = matmul(matmul(As, NE, kNE), N2, cols(N2, 0)).map((row) => row.map((v) => -v));
+  const lhs = Es.length ? matmul(Es, Zp, np).map((row, i) => [...row, ...imp[i]]) : [];
+  const sol = pinvSolve(lhs, rhs.map((v) => [v]), np + cols(N2, 0));
+  const p = sol.slice(0, np).map((r) => r[0]);
+  const fitted = matvec(lhs, sol.map((r) => r[0]));
+  const residual = Math.max(0, ...fitted.map((v, i) => Math.abs(v - rhs[i]))) / Math.max(1e-300, ...rhs.map(Math.abs), 1e-300);
+  const x = np ? matvec(X, p) : [];
+  Xu.forEach((Z, j) => {
+    if (j < derivs.length) addInto(x, matvec(Z, derivs[j]));
+  });
+  // report every capacitor/inductor whose value had to change
+  const zPlus = addVec(matvec(Zp, p), zu).map((v, i) => v * s[i]);
+  const jumps: InitialState['jumps'] = [];
+  for (const ph of physical) {
+    const before = ph.part.initial ?? 0;
+    const after = ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0);
+    if (Math.abs(after - before) > 1e-9 * Math.max(Math.abs(before), Math.abs(after), 1e-12)) {
+      jumps.push({ part: ph.part.name, kind: ph.kind, before, after });
+    }
+  }
+  void chosen;
+  return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
+}
+
+function rowTimes(row: Vec, M: Mat, c: number): Vec {
+  const out = new Array<number>(c).fill(0);
+  for (let i = 0; i < row.length; i++) {
+    const r = row[i];
+    if (r === 0) continue;
+    for (let j = 0; j < c; j++) out[j] += r * M[i][j];
+  }
+  return out;
+}
+
+const vecMat = rowTimes;
+
+function addInto(a: Vec, b: Vec): void {
+  for (let i = 0; i < a.length; i++) a[i] += b[i];
+}
+
+function addVec(a: Vec, b: Vec, k = 1): Vec {
+  return a.map((v, i) => v + k * b[i]);
+}
+
+function identityOf(n: number): Mat {
+  return Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+}
+
+function maxAbsMat(M: Mat): number {
+  return Math.max(0, ...M.flat().map(Math.abs));
+}
+
+function transposeOf(M: Mat): Mat {
+  const c = cols(M, 0);
+  return Array.from({ length: c }, (_, j) => M.map((row) => row[j]));
+}

@@ -1,0 +1,126 @@
+import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, transpose, zeros } from '../linalg/dense.js';
+import { orthonormalize, pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
+
+/**
+ * Reduce a descriptor system  E·z' = A·z + B·u  to an explicit ODE on a minimal set of
+ * coordinates p:
+ *
+ *   z = Zp·p + Σ_j Zu[j]·u^(j)          p' = F·p + Σ_j G[j]·u^(j)
+ *
+ * Method: split the equations into differential rows (range of E·Zp) and algebraic rows (its left
+ * null space); solve the algebraic rows for as many coordinates as they fix and substitute; repeat
+ * until E·Zp has full column rank. Each substitution may bring in the derivative of an input: that
+ * is how a capacitor across a voltage source (or an inductor in series with a current source)
+ * ends up with a state that follows the source instead of a state of its own.
+ */
+export interface Reduction {
+  Zp: Mat;
+  Zu: Mat[];
+  F: Mat;
+  G: Mat[];
+}
+
+export class ReductionError extends Error {}
+
+export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number): Reduction {
+  let Zp: Mat = Array.from({ length: nz }, (_, i) => Array.from({ length: nz }, (_, j) => (i === j ? 1 : 0)));
+  let np = nz;
+  let Zu: Mat[] = [zeros(nz, m)];
+  const scaleA = Math.max(1e-300, ...A.flat().map(Math.abs));
+  for (let iter = 0; iter <= nz + 1; iter++) {
+    const M = matmul(E, Zp, np);
+    const R = residualInputs(E, A, B, Zu, m);
+    const split = rankSplit(M, np);
+    const U2t = transpose(split.leftNull, nz - split.rank);
+    const AZp = matmul(A, Zp, np);
+    const Kalg = matmul(U2t, AZp, np);
+    const ks = rankSplit(Kalg, np, 1e-10, scaleA);
+    if (ks.rank === 0) {
+      requireZero(R.map((Rj) => matmul(U2t, Rj, m)), 'the circuit equations constrain the sources themselves');
+      if (split.rank !== np) throw new ReductionError('the circuit equations do not determine every voltage and current');
+      const U1t = transpose(split.range, split.rank);
+      const square = matmul(U1t, M, np);
+      const left = (X: Mat) => solveSquare(square, matmul(U1t, X, cols(X, m)));
+      const F = left(AZp);
+      const G = R.map((Rj) => left(Rj));
+      return { Zp, Zu, F, G };
+    }
+    // Keep the q independent combinations of the algebraic rows; the others must involve sources only.
+    const Qt = transpose(ks.range, ks.rank);
+    const rest = transpose(ks.leftNull, Kalg.length - ks.rank);
+    requireZero(R.map((Rj) => matmul(rest, matmul(U2t, Rj, m), m)), 'the circuit equations constrain the sources themselves');
+    const Kq = matmul(Qt, Kalg, np);
+    const Rq = R.map((Rj) => matmul(Qt, matmul(U2t, Rj, m), m));
+    // Kq·p + Σ Rq[j]·u^(j) = 0  ⇒  p = Nk·p' − Kq⁺·Σ Rq[j]·u^(j)
+    const newZu: Mat[] = [];
+    for (let j = 0; j < R.length; j++) {
+      const part = matmul(Zp, pinvSolve(Kq, Rq[j], np), m).map((row) => row.map((v) => -v));
+      newZu.push(j < Zu.length ? add(Zu[j], part) : part);
+    }
+    Zu = trimTrailingZero(newZu);
+    const Nk = ks.nullSpace;
+    np = np - ks.rank;
+    Zp = matmul(Zp, Nk, np);
+    if (np === 0) {
+      return { Zp, Zu, F: [], G: Zu.map(() => []) };
+    }
+  }
+  throw new ReductionError('the reduction of the circuit equations did not terminate');
+}
+
+/**
+ * Input terms of E·z' − A·z − B·u = 0 after substituting z = Zp·p + Σ Zu[j]·u^(j):
+ * the equation reads  E·Zp·p' = A·Zp·p + Σ_j R[j]·u^(j)  with
+ * R[0] = A·Zu[0] + B,  R[j] = A·Zu[j] − E·Zu[j−1].
+ */
+function residualInputs(E: Mat, A: Mat, B: Mat, Zu: Mat[], m: number): Mat[] {
+  const R: Mat[] = [];
+  for (let j = 0; j <= Zu.length; j++) {
+    let Rj = j < Zu.length ? matmul(A, Zu[j], m) : zeros(A.length, m);
+    if (j === 0) Rj = add(Rj, B);
+    if (j > 0) Rj = add(Rj, matmul(E, Zu[j - 1], m), -1);
+    R.push(Rj);
+  }
+  return trimTrailingZero(R);
+}
+
+function trimTrailingZero(list: Mat[]): Mat[] {
+  const out = list.slice();
+  while (out.length > 1 && out[out.length - 1].every((row) => row.every((v) => Math.abs(v) < 1e-300))) out.pop();
+  return out;
+}
+
+function requireZero(blocks: Mat[], why: string): void {
+  for (const b of blocks) {
+    const big = Math.max(0, ...b.flat().map(Math.abs));
+    if (big > 1e-9) throw new ReductionError(why);
+  }
+}
+
+/**
+ * Choose, in the given order of preference, rows of X (each row: one physical quantity as a linear
+ * function of p) that are linearly independent; returns their indices (as many as X has columns).
+ */
+export function independentRows(X: Mat, np: number): number[] {
+  const basis: Vec[] = [];
+  const chosen: number[] = [];
+  for (let i = 0; i < X.length && chosen.length < np; i++) {
+    const v = X[i].slice();
+    const nrm0 = Math.hypot(...v);
+    if (nrm0 === 0) continue;
+    for (let pass = 0; pass < 2; pass++) {
+      for (const q of basis) {
+        let d = 0;
+        for (let k = 0; k < np; k++) d += q[k] * v[k];
+        for (let k = 0; k < np; k++) v[k] -= d * q[k];
+      }
+    }
+    const nrm = Math.hypot(...v);
+    if (nrm <= 1e-8 * nrm0) continue;
+    basis.push(v.map((x) => x / nrm));
+    chosen.push(i);
+  }
+  return chosen;
+}
+
+export { matvec, pickRows, orthonormalize };

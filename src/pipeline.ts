@@ -1,0 +1,49 @@
+import type { Circuit } from './circuit/circuit.js';
+import { loadCircuit } from './circuit/load.js';
+import { InputError } from './diagnostics.js';
+import { computeMetrics } from './measure/metrics.js';
+import { ReductionError, buildModel } from './model/build.js';
+import type { RunResult } from './simulate/result.js';
+import { simulate } from './simulate/run.js';
+
+export interface AnalyzeOptions {
+  samples?: number;
+  span?: number;
+}
+
+/** circuit → model → exact solution → metrics: the whole run as one value. */
+export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): RunResult {
+  let model;
+  try {
+    model = buildModel(circuit);
+  } catch (e) {
+    if (e instanceof ReductionError) {
+      throw new InputError([{ severity: 'error', message: `the circuit has no unique solution: ${e.message}`, loc: { file: circuit.file, line: 1, col: 1, length: 0 } }]);
+    }
+    throw e;
+  }
+  const sim = simulate(circuit, model, opts);
+  const traces = sim.signals.map((s) => ({
+    label: s.watch.label,
+    unit: s.watch.unit,
+    values: s.values,
+    pieces: s.pieces,
+    paths: s.paths,
+    metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle),
+  }));
+  return {
+    circuit,
+    states: sim.states,
+    modes: sim.modes,
+    span: sim.span,
+    spanChosen: sim.spanChosen,
+    times: sim.times,
+    traces,
+    crossCheck: sim.crossCheck,
+    notices: sim.notices,
+  };
+}
+
+export function analyzeText(text: string, file: string, opts: AnalyzeOptions = {}): RunResult {
+  return analyzeCircuit(loadCircuit(text, file), opts);
+}
