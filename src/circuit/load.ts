@@ -62,7 +62,7 @@ export function loadCircuit(text: string, file: string): Circuit {
   }
 
   // Watches may name parts declared further down, so they are resolved after all parts.
-  const watches = watchStatements.flatMap((st) => elaborateWatch(st, nodes, declaredParts, sink) ?? []);
+  const watches = watchStatements.flatMap((st) => elaborateWatch(st, nodes, declaredParts, sink, netlist.brokenPartLines.length > 0) ?? []);
   const analysis = elaborateAnalysis(analysisStatements, ctx);
 
   const partsBroken = netlist.brokenPartLines.length > 0 || parts.size < declaredParts.size;

@@ -12,9 +12,12 @@ export function elaborateWatch(
   /** Every designator declared, including parts whose values had errors. */
   parts: ReadonlySet<string>,
   sink: DiagnosticSink,
+  /** Some part lines failed to parse: an unknown name may be on one of them, so stay quiet. */
+  incomplete = false,
 ): Watch | undefined {
   const knownNode = (n: Name): boolean => {
     if (n.name === GROUND || nodes.includes(n.name)) return true;
+    if (incomplete) return false;
     raise(sink, 'error', n.loc, `no part connects to a node named '${n.name}'`, {
       hint: didYouMean(n.name, [...nodes, GROUND]),
     });
@@ -22,6 +25,7 @@ export function elaborateWatch(
   };
   const knownPart = (n: Name): boolean => {
     if (parts.has(n.name)) return true;
+    if (incomplete) return false;
     raise(sink, 'error', n.loc, `there is no part named '${n.name}'`, { hint: didYouMean(n.name, parts) });
     return false;
   };
