@@ -32,6 +32,8 @@ export function loadCircuit(text: string, file: string): Circuit {
   const declaredParts = new Set<string>();
   const nodes: string[] = [];
   const terminals = new Map<string, readonly [SourceLocation, SourceLocation]>();
+  // Shape only (kind, name, nodes): topology is checked even when a value had an error.
+  const structure: Part[] = [];
   const watchStatements: Of<'watch'>[] = [];
   const analysisStatements: Of<'span' | 'samples' | 'settle'>[] = [];
 
@@ -48,7 +50,10 @@ export function loadCircuit(text: string, file: string): Circuit {
       case 'part': {
         for (const n of [st.a, st.b]) if (n.name !== GROUND && !nodes.includes(n.name)) nodes.push(n.name);
         const part = elaboratePart(st, parts, ctx);
-        if (!declaredParts.has(st.name.name)) terminals.set(st.name.name, [st.a.loc, st.b.loc]);
+        if (!declaredParts.has(st.name.name) && st.a.name !== st.b.name) {
+          terminals.set(st.name.name, [st.a.loc, st.b.loc]);
+          structure.push({ kind: st.part, name: st.name.name, a: st.a.name, b: st.b.name, value: 0, loc: st.loc });
+        }
         declaredParts.add(st.name.name);
         if (part) parts.set(part.name, part);
         break;
@@ -65,14 +70,14 @@ export function loadCircuit(text: string, file: string): Circuit {
   const watches = watchStatements.flatMap((st) => elaborateWatch(st, nodes, declaredParts, sink, netlist.brokenPartLines.length > 0) ?? []);
   const analysis = elaborateAnalysis(analysisStatements, ctx);
 
-  const partsBroken = netlist.brokenPartLines.length > 0 || parts.size < declaredParts.size;
+  const partsBroken = netlist.brokenPartLines.length > 0;
   if (declaredParts.size === 0 && !partsBroken) {
     raise(sink, 'error', undefined, `${file} describes no parts`, {
       expected: 'part lines such as: resistor R1 in -> out 1k',
     });
   } else if (!partsBroken) {
     // Only on a complete part list: a missing part would make every check below misfire.
-    checkTopology([...parts.values()], sink, terminals);
+    checkTopology(structure, sink, terminals);
   }
   if (watchStatements.length === 0) {
     raise(sink, 'error', undefined, `${file} has nothing to watch, so there would be nothing to report`, {
