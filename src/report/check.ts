@@ -1,0 +1,82 @@
+import type { Circuit, Watch, WatchTarget } from '../circuit/circuit.js';
+import { formatPlain, formatSI, formatSIExact } from './si.js';
+import { heading, table } from './table.js';
+import { warningLine } from './text.js';
+import { describeWaveform, kindName, partUnit } from './waveform.js';
+
+function targetText(t: WatchTarget): string {
+  switch (t.kind) {
+    case 'node':
+      return `voltage of node ${t.node} against ground`;
+    case 'between':
+      return `voltage of ${t.a} minus ${t.b}`;
+    case 'part-voltage':
+      return `voltage across ${t.part}`;
+    case 'part-current':
+      return `current through ${t.part}`;
+  }
+}
+
+function watchRow(w: Watch): string[] {
+  return [w.label, `(${w.unit})`, targetText(w.target)];
+}
+
+/** Reference direction of a part in words. */
+function direction(kind: Circuit['parts'][number]['kind'], a: string, b: string): string {
+  if (kind === 'voltage-source') return `value is v(${a}) − v(${b})`;
+  if (kind === 'current-source') return `drives current from ${a} through itself to ${b}`;
+  return `v = v(${a}) − v(${b}), i flows ${a} → ${b}`;
+}
+
+/** What `ringdown check` prints: the elaborated circuit with every value in SI. */
+export function formatCheck(circuit: Circuit): string {
+  const out: string[] = [];
+  const title = `ringdown check: ${circuit.file}${circuit.title ? ` (${circuit.title})` : ''}`;
+  out.push(title, '═'.repeat([...title].length), '');
+
+  out.push(...heading('Nodes'));
+  out.push(`  ${[...circuit.nodes, 'gnd (ground, 0 V)'].join(', ')}`, '');
+
+  const passives = circuit.parts.filter((p) => p.kind !== 'voltage-source' && p.kind !== 'current-source');
+  const sources = circuit.parts.filter((p) => p.kind === 'voltage-source' || p.kind === 'current-source');
+  out.push(...heading('Parts'));
+  if (passives.length === 0) out.push('  (none)');
+  out.push(
+    ...table(
+      passives.map((p) => [
+        p.name,
+        kindName(p),
+        `${p.a} -> ${p.b}`,
+        formatSIExact(p.value, partUnit(p)),
+        p.initial !== undefined ? `initial ${formatSIExact(p.initial, p.kind === 'capacitor' ? 'V' : 'A')}` : '',
+        direction(p.kind, p.a, p.b),
+      ]),
+    ),
+  );
+  out.push('');
+
+  out.push(...heading('Sources'));
+  if (sources.length === 0) out.push('  (none)');
+  for (const s of sources) {
+    out.push(`  ${s.name}  ${kindName(s)}  ${s.a} -> ${s.b}  (${direction(s.kind, s.a, s.b)})`);
+    for (const term of s.waveform?.terms ?? []) out.push(`      + ${describeWaveform({ terms: [term] }, partUnit(s))}`);
+  }
+  out.push('');
+
+  out.push(...heading('Watches'));
+  out.push(...(circuit.watches.length > 0 ? table(circuit.watches.map(watchRow)) : ['  (none)']), '');
+
+  const a = circuit.analysis;
+  out.push(...heading('Analysis'));
+  out.push(`  span: ${a.span === undefined ? 'chosen from the slowest mode' : formatSI(a.span, 's', { digits: 6, trim: true })}`);
+  out.push(`  samples: ${a.samples}`);
+  out.push(`  settling band: ${a.settle.kind === 'relative' ? `±${formatPlain(a.settle.fraction * 100, 6)} % of the transition` : `±${formatSIExact(a.settle.value, '')} (same unit as each signal)`}`);
+  const params = Object.entries(circuit.params);
+  if (params.length > 0) out.push(`  parameters: ${params.map(([k, v]) => `${k} = ${formatSIExact(v, '')}`).join(', ')}`);
+  out.push('');
+
+  const warnings = circuit.warnings ?? [];
+  out.push(...heading('Warnings'));
+  out.push(...(warnings.length > 0 ? warnings.map((w) => `  - ${warningLine(w)}`) : ['  none']));
+  return out.join('\n') + '\n';
+}

@@ -1,0 +1,21 @@
+import type { CrossCheck } from '../simulate/result.js';
+import { BOLD, GREEN, RED, paint } from './color.js';
+import { formatPlain } from './si.js';
+
+const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : formatPlain(x));
+
+/** The in-run cross-check: one line when it passes, a loud block when it fails. */
+export function crossCheckLines(c: CrossCheck, color: boolean): string[] {
+  const what = `${c.method}, ${c.times.length} time point${c.times.length === 1 ? '' : 's'}`;
+  const numbers = `max relative error ${sci(c.maxRelError)}, limit ${sci(c.tolerance)}`;
+  if (c.passed) return [`Cross-check: ${what}: ${numbers}: ${paint('PASS', GREEN, color)}`];
+  const bar = '!'.repeat(72);
+  return [
+    paint(bar, RED + BOLD, color),
+    paint('CROSS-CHECK FAILED', RED + BOLD, color),
+    `The closed-form answer disagrees with an independent calculation (${what}):`,
+    `${numbers}.`,
+    'Do not rely on the numbers in this report. Please report this circuit file as a ringdown bug.',
+    paint(bar, RED + BOLD, color),
+  ];
+}

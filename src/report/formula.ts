@@ -1,0 +1,145 @@
+import type { Piece, Term } from '../simulate/result.js';
+import { formatPlain, formatSI } from './si.js';
+
+/**
+ * Closed forms written for people: `12 V − 12 V·e^(−t/1.00 ms)`.
+ * Exponentials show their time constant, oscillations their frequency in Hz and phase in degrees,
+ * repeated poles a polynomial in t/τ. Coefficients are rounded to 4 significant digits.
+ */
+
+/** Formats a coefficient magnitude; `power` is the power of t it multiplies (unit per s^power). */
+export type CoefFormat = (magnitude: number, power: number) => string;
+
+/** Coefficients carrying `unit` (V, A, Ω, S …); a power of t adds a per-second unit. */
+export function unitCoefs(unit: string): CoefFormat {
+  if (unit === '') {
+    return (x, power) => formatPlain(x) + (power === 0 ? '' : power === 1 ? '/s' : `/s${superscript(power)}`);
+  }
+  return (x, power) => formatSI(x, power === 0 ? unit : power === 1 ? `${unit}/s` : `${unit}/s${superscript(power)}`, { digits: 4, trim: true });
+}
+
+const SUPERSCRIPT = '⁰¹²³⁴⁵⁶⁷⁸⁹';
+export function superscript(n: number): string {
+  return String(n)
+    .split('')
+    .map((d) => SUPERSCRIPT[Number(d)] ?? d)
+    .join('');
+}
+
+interface Item {
+  negative: boolean;
+  body: string;
+}
+
+const MINUS = '−';
+const tauText = (lambda: number) => formatSI(-1 / lambda, 's', { digits: 3 });
+
+/** `e^(−t/1.00 ms)`, with `v` the time variable text. */
+function expFactor(lambda: number, v: string): string {
+  const num = v === 't' ? 't' : v;
+  return lambda < 0 ? `e^(${MINUS}${num}/${tauText(lambda)})` : `e^(${num}/${formatSI(1 / lambda, 's', { digits: 3 })})`;
+}
+
+/** Terms smaller than this fraction of the largest one are left out. */
+const NEGLIGIBLE = 1e-12;
+
+function termScale(term: Term): number {
+  switch (term.kind) {
+    case 'exp':
+      return Math.abs(term.coef);
+    case 'osc':
+      return Math.hypot(term.cosCoef, term.sinCoef);
+    case 'poly-exp':
+      return Math.max(0, ...term.polyCoefs.map(Math.abs));
+  }
+}
+
+function termItems(term: Term, v: string, coef: CoefFormat): Item[] {
+  switch (term.kind) {
+    case 'exp': {
+      const mag = coef(Math.abs(term.coef), 0);
+      if (term.lambda === 0) return [{ negative: term.coef < 0, body: mag }];
+      return [{ negative: term.coef < 0, body: `${mag === '1' ? '' : `${mag}·`}${expFactor(term.lambda, v)}` }];
+    }
+    case 'osc': {
+      const amp = Math.hypot(term.cosCoef, term.sinCoef);
+      const phi = Math.atan2(term.sinCoef, term.cosCoef); // c·cos x + s·sin x = amp·cos(x − phi)
+      const deg = (-phi * 180) / Math.PI;
+      const phase = Math.abs(deg) < 0.05 ? '' : ` ${deg < 0 ? MINUS : '+'} ${formatPlain(Math.abs(deg), 4)}°`;
+      const f = formatSI(term.omega / (2 * Math.PI), 'Hz', { digits: 4 });
+      const env = term.sigma === 0 ? '' : `·${expFactor(term.sigma, v)}`;
+      return [{ negative: false, body: `${coef(amp, 0)}${env}·cos(2π·${f}·${v}${phase})` }];
+    }
+    case 'poly-exp': {
+      if (term.lambda === 0) {
+        return term.polyCoefs
+          .map((c, k) => ({ c, k }))
+          .filter(({ c }) => c !== 0)
+          .map(({ c, k }) => ({
+            negative: c < 0,
+            body: k === 0 ? coef(Math.abs(c), 0) : `${coef(Math.abs(c), k)}·${v}${k > 1 ? superscript(k) : ''}`,
+          }));
+      }
+      const tau = -1 / term.lambda;
+      const tauS = formatSI(tau, 's', { digits: 3 });
+      const ratio = `(${v}/${tauS})`;
+      const scale = Math.max(0, ...term.polyCoefs.map((c, k) => Math.abs(c * tau ** k)));
+      const inner: Item[] = term.polyCoefs
+        .map((c, k) => ({ a: c * tau ** k, k }))
+        .filter(({ a }) => Math.abs(a) > NEGLIGIBLE * scale)
+        .map(({ a, k }) => ({
+          negative: a < 0,
+          body: k === 0 ? coef(Math.abs(a), 0) : `${coef(Math.abs(a), 0)}·${ratio}${k > 1 ? superscript(k) : ''}`,
+        }));
+      if (inner.length === 0) return [];
+      if (inner.length === 1) return [{ negative: inner[0]!.negative, body: `${inner[0]!.body}·${expFactor(term.lambda, v)}` }];
+      return [{ negative: false, body: `(${joinItems(inner)})·${expFactor(term.lambda, v)}` }];
+    }
+  }
+}
+
+function joinItems(items: Item[]): string {
+  return items
+    .map((it, i) => (i === 0 ? (it.negative ? MINUS : '') + it.body : ` ${it.negative ? MINUS : '+'} ${it.body}`))
+    .join('');
+}
+
+/** A sum of terms in the time variable text `v` (`t` or `(t − 1.00 ms)`); "0" pieces print as zero. */
+export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = []): string {
+  const scale = Math.max(0, ...terms.map(termScale));
+  const items = terms.filter((t) => termScale(t) > NEGLIGIBLE * scale).flatMap((t) => termItems(t, v, coef));
+  items.push(...extra);
+  return items.length === 0 ? coef(0, 0) : joinItems(items);
+}
+
+/** The time variable of a piece starting at t0. */
+export function timeVariable(t0: number): string {
+  return t0 === 0 ? 't' : `(t ${t0 < 0 ? '+' : MINUS} ${formatSI(Math.abs(t0), 's', { digits: 4, trim: true })})`;
+}
+
+/** `δ(t − 1 ms)` with an area. */
+export function impulseItem(area: number, t0: number, unit: string): Item {
+  const v = t0 === 0 ? 't' : timeVariable(t0).slice(1, -1);
+  return { negative: area < 0, body: `${formatSI(Math.abs(area), unit === '' ? 's' : `${unit}·s`, { digits: 4, trim: true })}·δ(${v})` };
+}
+
+/**
+ * The closed form of a signal, one line per piece inside [0, span]:
+ *   v(out) = 12 V − 12 V·e^(−t/1.00 ms)                       (a single piece from 0)
+ *   v(out) = … for 1.000 ms ≤ t < 2.000 ms                     (several pieces)
+ */
+export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number): string[] {
+  const coef = unitCoefs(unit);
+  const shown = pieces.filter((p, i) => p.t0 < span || i === 0);
+  if (shown.length === 0) return [`${label} = ${coef(0, 0)}`];
+  return shown.map((p, i) => {
+    const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit)] : [];
+    const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra);
+    if (shown.length === 1 && p.t0 <= 0) return `${label} = ${body}`;
+    const from = formatSI(p.t0, 's', { digits: 4, trim: true });
+    const last = i === shown.length - 1;
+    const to = last ? '' : ` < ${formatSI(p.t1, 's', { digits: 4, trim: true })}`;
+    const range = last ? `t ≥ ${from}` : `${from} ≤ t${to}`;
+    return `${label} = ${body}    for ${range}`;
+  });
+}

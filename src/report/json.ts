@@ -1,0 +1,21 @@
+import type { RunResult } from '../simulate/result.js';
+
+/** Identifies the layout of the JSON output; see doc/OUTPUT.md. */
+export const JSON_SCHEMA = 'ringdown-result/1';
+
+/** Typed arrays become plain arrays; Infinity and NaN become null. */
+function replacer(_key: string, value: unknown): unknown {
+  if (value instanceof Float64Array) return Array.from(value, (x) => (Number.isFinite(x) ? x : null));
+  if (typeof value === 'number' && !Number.isFinite(value)) return null;
+  return value;
+}
+
+/** The run result as a plain JSON-compatible value, `schema` first. */
+export function resultToJSONValue(result: RunResult): Record<string, unknown> {
+  return JSON.parse(formatJSON(result)) as Record<string, unknown>;
+}
+
+/** The whole run result as JSON text (two-space indent, trailing newline). */
+export function formatJSON(result: RunResult): string {
+  return JSON.stringify({ schema: JSON_SCHEMA, ...result }, replacer, 2) + '\n';
+}

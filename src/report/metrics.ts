@@ -1,0 +1,22 @@
+import type { SettleBand } from '../circuit/circuit.js';
+import type { Metrics } from '../simulate/result.js';
+import { formatPlain, formatSI } from './si.js';
+import { table } from './table.js';
+
+/** The metrics of one signal as a two-column block. */
+export function metricsLines(m: Metrics, unit: string, band: SettleBand): string[] {
+  const v = (x: number) => formatSI(x, unit);
+  const t = (x: number) => formatSI(x, 's');
+  const none = 'none (no transition)';
+  const bandText = band.kind === 'relative' ? `±${formatPlain(band.fraction * 100, 4)} %` : `±${formatSI(band.value, unit, { digits: 4, trim: true })}`;
+  const rows: string[][] = [
+    ['initial (t = 0+)', v(m.initial)],
+    [m.finalIsLimit ? 'final (steady state)' : 'final (end of span)', v(m.final)],
+    ['peak', `${v(m.peak.value)} at t = ${t(m.peak.time)}`],
+    ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
+    ['overshoot', m.overshootPct === null ? none : `${formatPlain(m.overshootPct, 4)} %`],
+    ['rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
+    [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
+  ];
+  return table(rows, '    ');
+}

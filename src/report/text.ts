@@ -1,0 +1,58 @@
+import type { Diagnostic } from '../diagnostics.js';
+import type { RunResult } from '../simulate/result.js';
+import { crossCheckLines } from './crosscheck.js';
+import { modesSection } from './modes.js';
+import { SAFETY_NOTICE } from './safety.js';
+import { formatSI } from './si.js';
+import { signalSection } from './signal.js';
+import { circuitSection } from './summary.js';
+import { heading } from './table.js';
+
+export interface TextReportOptions {
+  /** Draw a chart for each watched signal (default true). */
+  chart?: boolean;
+  /** ANSI colors (default false). */
+  color?: boolean;
+  /** Chart width in columns (default 80). */
+  width?: number;
+}
+
+/** A warning as one line: `line 4: message (hint)`. */
+export function warningLine(d: Diagnostic): string {
+  const where = d.loc ? `line ${d.loc.line}: ` : '';
+  return `${where}${d.message}${d.hint ? ` (${d.hint})` : ''}`;
+}
+
+/** The full human-readable report of a run. */
+export function formatTextReport(result: RunResult, options: TextReportOptions = {}): string {
+  const opts = { chart: options.chart ?? true, color: options.color ?? false, width: options.width ?? 80 };
+  const { circuit } = result;
+  const title = `ringdown report: ${circuit.title ?? circuit.file}`;
+  const out: string[] = [title, '═'.repeat([...title].length), ''];
+
+  out.push(...crossCheckLines(result.crossCheck, opts.color), '');
+  out.push(...circuitSection(circuit, result.states), '');
+
+  const spanText = `${formatSI(result.span, 's')}${result.spanChosen ? ' (chosen from the slowest mode)' : ''}`;
+  out.push(...heading('Analysis'));
+  out.push(`  step response from t = 0 to ${spanText}, ${result.times.length} samples`);
+  out.push('');
+
+  out.push(...modesSection(result.modes), '');
+
+  for (const trace of result.traces) {
+    out.push(...signalSection(trace, circuit, result.times, result.span, opts), '');
+  }
+
+  const warnings = circuit.warnings ?? [];
+  if (warnings.length + result.notices.length > 0) {
+    out.push(...heading('Notices'));
+    for (const w of warnings) out.push(`  - warning: ${warningLine(w)}`);
+    for (const n of result.notices) out.push(`  - ${n}`);
+    out.push('');
+  }
+
+  if (!result.crossCheck.passed) out.push(...crossCheckLines(result.crossCheck, opts.color), '');
+  out.push(...SAFETY_NOTICE);
+  return out.join('\n') + '\n';
+}

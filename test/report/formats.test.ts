@@ -1,0 +1,83 @@
+import { describe, expect, it } from 'vitest';
+import { csvNumber, formatCSV } from '../../src/report/csv.js';
+import { JSON_SCHEMA, formatJSON } from '../../src/report/json.js';
+import { formatTextReport } from '../../src/report/text.js';
+import { formatCheck } from '../../src/report/check.js';
+import { chartWidth } from '../../src/report/chart.js';
+import { rcResult } from './fixture.js';
+
+describe('CSV', () => {
+  const csv = formatCSV(rcResult());
+  const lines = csv.trimEnd().split('\n');
+
+  it('has a time column and one column per watch, in declaration order, labels quoted when needed', () => {
+    expect(lines[0]).toBe('time_s,v(out) (V),"i(R1), ""charge"" (A)"');
+    expect(lines.length).toBe(102);
+  });
+
+  it('keeps at least 12 significant digits', () => {
+    const r = rcResult();
+    lines.slice(1).forEach((line, i) => {
+      const [t, v] = line.split(',').map(Number);
+      expect(Math.abs(t! - r.times[i]!)).toBeLessThanOrEqual(1e-12 * Math.abs(r.times[i]!));
+      expect(Math.abs(v! - r.traces[0]!.values[i]!)).toBeLessThanOrEqual(1e-12 * Math.abs(r.traces[0]!.values[i]!));
+    });
+    expect(csvNumber(Math.PI)).toBe('3.14159265358979');
+    expect(csvNumber(0.1 + 0.2)).toBe('0.3');
+    expect(csvNumber(1.234567890123456e-9)).toBe('1.23456789012346e-9');
+    expect(csvNumber(NaN)).toBe('');
+  });
+});
+
+describe('JSON', () => {
+  it('round-trips: schema tag, typed arrays as arrays, non-finite as null', () => {
+    const r = rcResult();
+    r.traces[0]!.paths[0]!.dcGain = Infinity;
+    const back = JSON.parse(formatJSON(r));
+    expect(back.schema).toBe(JSON_SCHEMA);
+    expect(Object.keys(back)[0]).toBe('schema');
+    expect(back.times).toEqual(Array.from(r.times));
+    expect(back.traces[1].values).toEqual(Array.from(r.traces[1]!.values));
+    expect(back.traces[0].pieces[0].t1).toBeNull();
+    expect(back.traces[0].paths[0].dcGain).toBeNull();
+    expect(back.traces[0].metrics.riseTime).toBeCloseTo(r.traces[0]!.metrics.riseTime!, 15);
+    expect(back.circuit.parts[2].value).toBe(1e-6);
+    expect(back.crossCheck.passed).toBe(true);
+  });
+});
+
+describe('text report', () => {
+  const text = formatTextReport(rcResult());
+
+  it('writes the closed form readably', () => {
+    expect(text).toContain('v(out) = 12 V − 12 V·e^(−t/1.00 ms)');
+    expect(text).toContain('s(t) = 1 − e^(−t/1.00 ms)');
+  });
+
+  it('has every section, the cross-check and the safety notice, within 80 columns', () => {
+    for (const s of ['Circuit (rc.rdn)', 'Natural modes', 'Signal v(out) (V)', 'rise time', 'Cross-check', 'PASS', 'Safety', 'ESR', 'kickback']) {
+      expect(text).toContain(s);
+    }
+    expect(text).toContain('1 kΩ');
+    expect(text).toContain('12 mA·e^(−t/1.00 ms)');
+    expect(text).toMatch(/rise time \(10 → 90 %\) +2\.\d{3} ms/);
+    expect(chartWidth(text.split('Signal v(out)')[1]!.split('measurements')[1]!)).toBeLessThanOrEqual(80);
+  });
+
+  it('makes a failed cross-check loud', () => {
+    const r = rcResult();
+    r.crossCheck = { ...r.crossCheck, maxRelError: 2e-3, passed: false };
+    const t = formatTextReport(r, { chart: false });
+    expect(t).toContain('CROSS-CHECK FAILED');
+    expect(t).not.toContain('└');
+  });
+});
+
+describe('check printout', () => {
+  it('lists nodes, parts in SI with directions, sources with terms, watches and settings', () => {
+    const t = formatCheck(rcResult().circuit);
+    for (const s of ['in, out, gnd', '1 kΩ', '1 µF', 'initial 0 V', 'step 0 V → 12 V at 0 s', 'current through R1', 'span: 5 ms', 'samples: 101', '±2 %']) {
+      expect(t).toContain(s);
+    }
+  });
+});
