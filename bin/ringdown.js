@@ -1,0 +1,13 @@
+#!/usr/bin/env node
+import { main } from '../dist/cli/main.js';
+
+main(process.argv).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (error) => {
+    process.stderr.write(`ringdown: internal error: ${error instanceof Error ? error.message : String(error)}\n`);
+    if (process.argv.includes('--debug') && error instanceof Error && error.stack) process.stderr.write(error.stack + '\n');
+    process.exitCode = 1;
+  },
+);

@@ -1,0 +1,24 @@
+/** Example sections shown by --help. */
+export const PROGRAM_EXAMPLES = `
+Examples:
+  ringdown run circuits/reset-delay.rdn            full text report with charts
+  ringdown run filter.rdn --format csv --out v.csv samples for a spreadsheet
+  ringdown check filter.rdn                        show the circuit as ringdown reads it
+
+Exit codes: 0 ok, 1 internal error, 2 problems in the input, 3 the in-run cross-check failed.
+`;
+
+export const RUN_EXAMPLES = `
+Examples:
+  ringdown run snubber.rdn
+  ringdown run snubber.rdn --span 2ms --samples 4001
+  ringdown run snubber.rdn --format json --out result.json
+  ringdown run snubber.rdn --format csv > samples.csv
+  cat snubber.rdn | ringdown run - --no-chart
+`;
+
+export const CHECK_EXAMPLES = `
+Examples:
+  ringdown check snubber.rdn
+  cat snubber.rdn | ringdown check -
+`;

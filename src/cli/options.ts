@@ -1,0 +1,22 @@
+import { InvalidArgumentError } from 'commander';
+import { parseQuantity } from '../netlist/quantity.js';
+
+/** `--span 2ms`: a positive time, SI prefix allowed, unit `s` optional. */
+export function parseSpanOption(text: string): number {
+  const q = parseQuantity(text.trim());
+  if (typeof q === 'string') throw new InvalidArgumentError(`'${text}' is not a time (${q}); write it like 2ms or 500us`);
+  if (q.unit !== null && q.unit !== 's') throw new InvalidArgumentError(`'${text}' is not a time; write it like 2ms or 500us`);
+  if (!(q.value > 0) || !Number.isFinite(q.value)) throw new InvalidArgumentError(`the span must be a positive time, got '${text}'`);
+  return q.value;
+}
+
+/** `--samples N`: a whole number of at least 2. */
+export function parseSamplesOption(text: string): number {
+  const n = Number(text.trim());
+  if (!Number.isInteger(n) || n < 2) throw new InvalidArgumentError(`the number of samples must be a whole number of at least 2, got '${text}'`);
+  if (n > 10_000_000) throw new InvalidArgumentError(`${text} samples is more than ringdown will compute (at most 10000000)`);
+  return n;
+}
+
+export type Format = 'text' | 'json' | 'csv';
+export const FORMATS: readonly Format[] = ['text', 'json', 'csv'];

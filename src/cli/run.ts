@@ -1,0 +1,71 @@
+import { writeFile } from 'node:fs/promises';
+import { analyzeText } from '../pipeline.js';
+import { colorEnabled } from '../report/color.js';
+import { formatCSV } from '../report/csv.js';
+import { formatJSON } from '../report/json.js';
+import { formatTextReport } from '../report/text.js';
+import type { RunResult } from '../simulate/result.js';
+import { EXIT_CROSS_CHECK, EXIT_INPUT, EXIT_OK } from './exit.js';
+import { printWarnings, reportFailure } from './failure.js';
+import { readCircuitText } from './input.js';
+import type { CliIO } from './io.js';
+import type { Format } from './options.js';
+
+export interface RunOptions {
+  format: Format;
+  out?: string;
+  samples?: number;
+  span?: number;
+  chart: boolean;
+  debug?: boolean;
+}
+
+function render(result: RunResult, opts: RunOptions, color: boolean): string {
+  switch (opts.format) {
+    case 'json':
+      return formatJSON(result);
+    case 'csv':
+      return formatCSV(result);
+    case 'text':
+      return formatTextReport(result, { chart: opts.chart, color });
+  }
+}
+
+/** `ringdown run FILE`: analyse, write the report, return the exit code. */
+export async function runCommand(file: string, opts: RunOptions, io: CliIO): Promise<number> {
+  let source = '';
+  try {
+    const { text, name } = await readCircuitText(file, io);
+    source = text;
+    const analyzeOpts: { samples?: number; span?: number } = {};
+    if (opts.samples !== undefined) analyzeOpts.samples = opts.samples;
+    if (opts.span !== undefined) analyzeOpts.span = opts.span;
+    const result = analyzeText(text, name, analyzeOpts);
+
+    const toTerminal = opts.out === undefined;
+    // The text report lists warnings itself; elsewhere they go to standard error.
+    if (!(opts.format === 'text' && toTerminal)) printWarnings(result.circuit.warnings ?? [], source, io);
+    const output = render(result, opts, toTerminal && colorEnabled(io.stdout, io.env));
+    if (opts.out !== undefined) {
+      try {
+        await writeFile(opts.out, output, 'utf8');
+      } catch (e) {
+        io.stderr.write(`ringdown: cannot write ${opts.out}: ${(e as Error).message}\n`);
+        return EXIT_INPUT;
+      }
+    } else {
+      io.stdout.write(output);
+    }
+
+    if (!result.crossCheck.passed) {
+      const c = result.crossCheck;
+      io.stderr.write(
+        `ringdown: CROSS-CHECK FAILED: the closed form and ${c.method} differ by ${c.maxRelError.toExponential(1)} (limit ${c.tolerance.toExponential(1)}); do not rely on these results\n`,
+      );
+      return EXIT_CROSS_CHECK;
+    }
+    return EXIT_OK;
+  } catch (e) {
+    return reportFailure(e, source, io, opts.debug === true);
+  }
+}
