@@ -31,7 +31,8 @@ const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 export function parseNetlist(text: string, file: string, sink: DiagnosticSink): Netlist {
   const statements: Statement[] = [];
   const brokenPartLines: number[] = [];
-  const lines = text.split('\n');
+  // A byte-order mark some editors add is not part of the first statement.
+  const lines = text.replace(/^\uFEFF/, '').split('\n');
   lines.forEach((line, index) => {
     const lineNo = index + 1;
     const tokens = tokenizeLine(line, lineNo, file, sink);
