@@ -47,3 +47,11 @@ describe('diagnostic locations', () => {
     expect(e!.loc).toMatchObject({ line: 5, col: 23, length: 2 });
   });
 });
+
+describe('file encodings', () => {
+  it('accepts CRLF line ends and a leading byte-order mark with unchanged columns', () => {
+    const text = '\uFEFF' + [...RC, 'capacitor C2 out -> gnd 10mH'].join('\r\n') + '\r\n';
+    const [e] = errors(text);
+    expect(e!.loc).toMatchObject({ line: 5, col: 25, length: 4 });
+  });
+});
