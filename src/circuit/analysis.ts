@@ -13,7 +13,7 @@ export const DEFAULT_SETTLE_FRACTION = 0.02;
 
 /** Applies span / samples / settle statements (each at most once) over the defaults. */
 export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx: EvalContext): Analysis {
-  const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION } };
+  const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION }, start: 'settled' };
   const seen = new Map<string, AnalysisStatement>();
   for (const st of statements) {
     const first = seen.get(st.kind);

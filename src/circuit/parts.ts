@@ -40,6 +40,9 @@ export function elaboratePart(st: PartStatement, earlier: ReadonlyMap<string, Pa
     const waveform = st.waveform && elaborateWaveform(st.waveform, st.part, name, ctx);
     if (!waveform) return undefined;
     part.waveform = waveform;
+  } else if (st.part === 'switch') {
+    // Switch lines are not parsed yet; the language gains them next.
+    return undefined;
   } else if (st.value) {
     const value = evaluateFor(st.value, VALUE_PLACE[st.part], `the value of ${name}`, ctx);
     if (value === undefined) ok = false;

@@ -330,5 +330,5 @@ class LineParser {
 }
 
 function designatorExample(kind: PartKind): string {
-  return { resistor: 'R1', capacitor: 'C1', inductor: 'L1', 'voltage-source': 'Vin', 'current-source': 'Iload' }[kind];
+  return { resistor: 'R1', capacitor: 'C1', inductor: 'L1', 'voltage-source': 'Vin', 'current-source': 'Iload', switch: 'S1' }[kind];
 }
