@@ -12,7 +12,9 @@ import type { CliIO } from './io.js';
 export function reportFailure(error: unknown, sourceText: string, io: CliIO, debug: boolean): number {
   const color = colorEnabled(io.stderr, io.env);
   if (error instanceof InputError) {
-    const parts = error.diagnostics.map((d) => formatDiagnostic(d, sourceText, color));
+    // Errors first: they are why nothing was computed; warnings follow.
+    const ordered = [...error.diagnostics.filter((d) => d.severity === 'error'), ...error.diagnostics.filter((d) => d.severity !== 'error')];
+    const parts = ordered.map((d) => formatDiagnostic(d, sourceText, color));
     const errors = error.diagnostics.filter((d) => d.severity === 'error').length;
     io.stderr.write(parts.join('\n\n') + '\n');
     io.stderr.write(`ringdown: ${errors} error${errors === 1 ? '' : 's'} in the input; nothing was computed\n`);

@@ -2,7 +2,7 @@ import type { Circuit, Watch, WatchTarget } from '../circuit/circuit.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { heading, table } from './table.js';
 import { warningLine } from './text.js';
-import { describeWaveform, kindName, partUnit } from './waveform.js';
+import { describeSwitching, describeWaveform, isSource, kindName, partUnit } from './waveform.js';
 
 function targetText(t: WatchTarget): string {
   switch (t.kind) {
@@ -37,8 +37,8 @@ export function formatCheck(circuit: Circuit): string {
   out.push(...heading('Nodes'));
   out.push(`  ${[...circuit.nodes, 'gnd (ground, 0 V)'].join(', ')}`, '');
 
-  const passives = circuit.parts.filter((p) => p.kind !== 'voltage-source' && p.kind !== 'current-source');
-  const sources = circuit.parts.filter((p) => p.kind === 'voltage-source' || p.kind === 'current-source');
+  const passives = circuit.parts.filter((p) => !isSource(p));
+  const sources = circuit.parts.filter(isSource);
   out.push(...heading('Parts'));
   if (passives.length === 0) out.push('  (none)');
   out.push(
@@ -47,7 +47,7 @@ export function formatCheck(circuit: Circuit): string {
         p.name,
         kindName(p),
         `${p.a} -> ${p.b}`,
-        formatSIExact(p.value, partUnit(p)),
+        p.kind === 'switch' ? describeSwitching(p) : formatSIExact(p.value, partUnit(p)),
         p.initial !== undefined ? `initial ${formatSIExact(p.initial, p.kind === 'capacitor' ? 'V' : 'A')}` : '',
         direction(p.kind, p.a, p.b),
       ]),
@@ -70,6 +70,7 @@ export function formatCheck(circuit: Circuit): string {
   out.push(...heading('Analysis'));
   out.push(`  span: ${a.span === undefined ? 'chosen from the slowest mode' : formatSI(a.span, 's', { digits: 6, trim: true })}`);
   out.push(`  samples: ${a.samples}`);
+  out.push(`  before t = 0: ${a.start === 'rest' ? 'every capacitor and inductor at zero' : 'settled at the DC operating point'} (a part's own initial value overrides)`);
   out.push(`  settling band: ${a.settle.kind === 'relative' ? `±${formatPlain(a.settle.fraction * 100, 6)} % of the transition` : `±${formatSIExact(a.settle.value, '')} (same unit as each signal)`}`);
   const params = Object.entries(circuit.params);
   if (params.length > 0) out.push(`  parameters: ${params.map(([k, v]) => `${k} = ${formatSIExact(v, '')}`).join(', ')}`);

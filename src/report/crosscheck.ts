@@ -8,7 +8,7 @@ const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : formatPlai
 export function crossCheckLines(c: CrossCheck, color: boolean): string[] {
   const what = `${c.method}, ${c.times.length} time point${c.times.length === 1 ? '' : 's'}`;
   const numbers = `max relative error ${sci(c.maxRelError)}, limit ${sci(c.tolerance)}`;
-  if (c.passed) return [`Cross-check: ${what}: ${numbers}: ${paint('PASS', GREEN, color)}`];
+  if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, `  against ${what}`];
   const bar = '!'.repeat(72);
   return [
     paint(bar, RED + BOLD, color),

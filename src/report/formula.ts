@@ -54,12 +54,15 @@ function termScale(term: Term): number {
   }
 }
 
-function termItems(term: Term, v: string, coef: CoefFormat): Item[] {
+/** `12 V·` as a multiplier; a bare 1 disappears. */
+const one = (mag: string) => (mag === '1' ? '' : `${mag}·`);
+
+function termItems(term: Term, v: string, coef: CoefFormat, floor: number): Item[] {
   switch (term.kind) {
     case 'exp': {
       const mag = coef(Math.abs(term.coef), 0);
       if (term.lambda === 0) return [{ negative: term.coef < 0, body: mag }];
-      return [{ negative: term.coef < 0, body: `${mag === '1' ? '' : `${mag}·`}${expFactor(term.lambda, v)}` }];
+      return [{ negative: term.coef < 0, body: `${one(mag)}${expFactor(term.lambda, v)}` }];
     }
     case 'osc': {
       const amp = Math.hypot(term.cosCoef, term.sinCoef);
@@ -67,17 +70,18 @@ function termItems(term: Term, v: string, coef: CoefFormat): Item[] {
       const deg = (-phi * 180) / Math.PI;
       const phase = Math.abs(deg) < 0.05 ? '' : ` ${deg < 0 ? MINUS : '+'} ${formatPlain(Math.abs(deg), 4)}°`;
       const f = formatSI(term.omega / (2 * Math.PI), 'Hz', { digits: 4 });
-      const env = term.sigma === 0 ? '' : `·${expFactor(term.sigma, v)}`;
-      return [{ negative: false, body: `${coef(amp, 0)}${env}·cos(2π·${f}·${v}${phase})` }];
+      const mag = coef(amp, 0);
+      const factors = [mag === '1' ? '' : mag, term.sigma === 0 ? '' : expFactor(term.sigma, v), `cos(2π·${f}·${v}${phase})`];
+      return [{ negative: false, body: factors.filter((x) => x !== '').join('·') }];
     }
     case 'poly-exp': {
       if (term.lambda === 0) {
         return term.polyCoefs
           .map((c, k) => ({ c, k }))
-          .filter(({ c }) => c !== 0)
+          .filter(({ c, k }) => c !== 0 && !(k === 0 && Math.abs(c) <= floor))
           .map(({ c, k }) => ({
             negative: c < 0,
-            body: k === 0 ? coef(Math.abs(c), 0) : `${coef(Math.abs(c), k)}·${v}${k > 1 ? superscript(k) : ''}`,
+            body: k === 0 ? coef(Math.abs(c), 0) : `${one(coef(Math.abs(c), k))}${v}${k > 1 ? superscript(k) : ''}`,
           }));
       }
       const tau = -1 / term.lambda;
@@ -89,7 +93,7 @@ function termItems(term: Term, v: string, coef: CoefFormat): Item[] {
         .filter(({ a }) => Math.abs(a) > NEGLIGIBLE * scale)
         .map(({ a, k }) => ({
           negative: a < 0,
-          body: k === 0 ? coef(Math.abs(a), 0) : `${coef(Math.abs(a), 0)}·${ratio}${k > 1 ? superscript(k) : ''}`,
+          body: k === 0 ? coef(Math.abs(a), 0) : `${one(coef(Math.abs(a), 0))}${ratio}${k > 1 ? superscript(k) : ''}`,
         }));
       if (inner.length === 0) return [];
       if (inner.length === 1) return [{ negative: inner[0]!.negative, body: `${inner[0]!.body}·${expFactor(term.lambda, v)}` }];
@@ -104,10 +108,14 @@ function joinItems(items: Item[]): string {
     .join('');
 }
 
-/** A sum of terms in the time variable text `v` (`t` or `(t − 1.00 ms)`); "0" pieces print as zero. */
-export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = []): string {
+/**
+ * A sum of terms in the time variable text `v` (`t` or `(t − 1.00 ms)`); an empty sum prints as zero.
+ * Terms below 1e-12 of the largest one, or below the absolute `floor`, are rounding noise and left out.
+ */
+export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = [], floor = 0): string {
   const scale = Math.max(0, ...terms.map(termScale));
-  const items = terms.filter((t) => termScale(t) > NEGLIGIBLE * scale).flatMap((t) => termItems(t, v, coef));
+  const keep = (t: Term) => termScale(t) > Math.max(NEGLIGIBLE * scale, floor);
+  const items = terms.filter(keep).flatMap((t) => termItems(t, v, coef, floor));
   items.push(...extra);
   return items.length === 0 ? coef(0, 0) : joinItems(items);
 }
@@ -128,13 +136,13 @@ export function impulseItem(area: number, t0: number, unit: string): Item {
  *   v(out) = 12 V − 12 V·e^(−t/1.00 ms)                       (a single piece from 0)
  *   v(out) = … for 1.000 ms ≤ t < 2.000 ms                     (several pieces)
  */
-export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number): string[] {
+export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, floor = 0): string[] {
   const coef = unitCoefs(unit);
   const shown = pieces.filter((p, i) => p.t0 < span || i === 0);
   if (shown.length === 0) return [`${label} = ${coef(0, 0)}`];
   return shown.map((p, i) => {
     const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit)] : [];
-    const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra);
+    const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra, floor);
     if (shown.length === 1 && p.t0 <= 0) return `${label} = ${body}`;
     const from = formatSI(p.t0, 's', { digits: 4, trim: true });
     const last = i === shown.length - 1;

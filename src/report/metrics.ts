@@ -5,7 +5,9 @@ import { table } from './table.js';
 
 /** The metrics of one signal as a two-column block. */
 export function metricsLines(m: Metrics, unit: string, band: SettleBand): string[] {
-  const v = (x: number) => formatSI(x, unit);
+  // Values this far below the signal's size are rounding noise: show them as 0.
+  const scale = Math.max(Math.abs(m.peak.value), Math.abs(m.valley.value), Math.abs(m.initial), Math.abs(m.final));
+  const v = (x: number) => formatSI(Math.abs(x) <= 1e-12 * scale ? 0 : x, unit);
   const t = (x: number) => formatSI(x, 's');
   const none = 'none (no transition)';
   const bandText = band.kind === 'relative' ? `±${formatPlain(band.fraction * 100, 4)} %` : `±${formatSI(band.value, unit, { digits: 4, trim: true })}`;
@@ -15,7 +17,7 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand): string
     ['peak', `${v(m.peak.value)} at t = ${t(m.peak.time)}`],
     ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
     ['overshoot', m.overshootPct === null ? none : `${formatPlain(m.overshootPct, 4)} %`],
-    ['rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
+    [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];
   return table(rows, '    ');

@@ -6,6 +6,7 @@ import { formatPieces, formatTerms, impulseItem, unitCoefs } from './formula.js'
 import { metricsLines } from './metrics.js';
 import { formatPlain, formatSI } from './si.js';
 import { heading } from './table.js';
+import { termLevels } from './waveform.js';
 
 export interface SignalSectionOptions {
   chart: boolean;
@@ -19,6 +20,23 @@ export function gainUnit(out: 'V' | 'A', source: 'V' | 'A'): { coef: string; lab
   return out === 'A' ? { coef: 'S', label: 'S' } : { coef: 'Ω', label: 'Ω' };
 }
 
+/** Relative size below which a coefficient counts as rounding noise. */
+const NOISE = 1e-12;
+
+/** Largest magnitude a source's waveform reaches (its levels and impulse areas); 0 when unknown. */
+function sourceAmplitude(circuit: Circuit, name: string): number {
+  const part = circuit.parts.find((p) => p.name === name);
+  let amp = 0;
+  for (const term of part?.waveform?.terms ?? []) for (const x of termLevels(term)) if (Number.isFinite(x)) amp += Math.abs(x);
+  return amp;
+}
+
+function maxAbs(values: Float64Array): number {
+  let m = 0;
+  for (const x of values) if (Number.isFinite(x) && Math.abs(x) > m) m = Math.abs(x);
+  return m;
+}
+
 function sourceUnit(circuit: Circuit, name: string): 'V' | 'A' {
   const part = circuit.parts.find((p) => p.name === name);
   return part?.kind === 'current-source' ? 'A' : 'V';
@@ -28,11 +46,15 @@ function pathLines(trace: Trace, path: PathResponse, circuit: Circuit): string[]
   const su = sourceUnit(circuit, path.source);
   const g = gainUnit(trace.unit, su);
   const extra = path.step.stepImpulseArea !== 0 ? [impulseItem(path.step.stepImpulseArea, 0, g.coef)] : [];
-  const formula = formatTerms(path.step.terms, 't', unitCoefs(g.coef), extra);
-  const dc = Number.isFinite(path.dcGain)
+  // A path coefficient times the source's size that is far below the signal itself is noise.
+  const amp = sourceAmplitude(circuit, path.source);
+  const floor = amp > 0 ? (NOISE * maxAbs(trace.values)) / amp : 0;
+  const formula = formatTerms(path.step.terms, 't', unitCoefs(g.coef), extra, floor);
+  const dcGain = Math.abs(path.dcGain) <= floor ? 0 : path.dcGain;
+  const dc = Number.isFinite(dcGain)
     ? g.coef === ''
-      ? `${formatPlain(path.dcGain, 4)} ${g.label}`
-      : formatSI(path.dcGain, g.coef, { digits: 4, trim: true })
+      ? `${formatPlain(dcGain, 4)} ${g.label}`
+      : formatSI(dcGain, g.coef, { digits: 4, trim: true })
     : 'unbounded (the path integrates)';
   return [`    from ${path.source}, per 1 ${su} step: s(t) = ${formula}   (t > 0)`, `      DC gain ${dc}`];
 }
@@ -41,7 +63,7 @@ function pathLines(trace: Trace, path: PathResponse, circuit: Circuit): string[]
 export function signalSection(trace: Trace, circuit: Circuit, times: Float64Array, span: number, opts: SignalSectionOptions): string[] {
   const lines = heading(`Signal ${trace.label} (${trace.unit})`);
   lines.push('  closed form:');
-  for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span)) lines.push(`    ${l}`);
+  for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values))) lines.push(`    ${l}`);
   if (trace.paths.length > 0) {
     lines.push('  step response from each source (that source alone, stepping from 0 at t = 0):');
     for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit));
