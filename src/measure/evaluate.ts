@@ -22,7 +22,26 @@ export function termValue(term: Term, tau: number): number {
       for (let k = c.length - 1; k >= 0; k--) p = p * tau + c[k]!;
       return term.lambda === 0 ? p : p * Math.exp(term.lambda * tau);
     }
+    case 'quasi': {
+      const w = term.omega * tau;
+      const env = term.sigma === 0 ? 1 : Math.exp(term.sigma * tau);
+      return env * (poly(term.cosPoly, tau) * Math.cos(w) + poly(term.sinPoly, tau) * Math.sin(w));
+    }
   }
+}
+
+/** p(τ) by Horner's rule. */
+function poly(c: readonly number[], tau: number): number {
+  let p = 0;
+  for (let k = c.length - 1; k >= 0; k--) p = p * tau + c[k]!;
+  return p;
+}
+
+/** p'(τ). */
+function polyDerivative(c: readonly number[], tau: number): number {
+  let p = 0;
+  for (let k = c.length - 1; k >= 1; k--) p = p * tau + k * c[k]!;
+  return p;
 }
 
 /** d/dτ of one term at τ. */
@@ -46,6 +65,17 @@ export function termDerivative(term: Term, tau: number): number {
         q = q * tau + (term.lambda * c[k]! + next);
       }
       return term.lambda === 0 ? q : q * Math.exp(term.lambda * tau);
+    }
+    case 'quasi': {
+      // d/dτ [e^(στ)(P cos ωτ + S sin ωτ)] = e^(στ)[(σP + P' + ωS) cos ωτ + (σS + S' − ωP) sin ωτ]
+      const { sigma, omega } = term;
+      const P = poly(term.cosPoly, tau);
+      const S = poly(term.sinPoly, tau);
+      const w = omega * tau;
+      const env = sigma === 0 ? 1 : Math.exp(sigma * tau);
+      const c = sigma * P + polyDerivative(term.cosPoly, tau) + omega * S;
+      const d = sigma * S + polyDerivative(term.sinPoly, tau) - omega * P;
+      return env * (c * Math.cos(w) + d * Math.sin(w));
     }
   }
 }
@@ -107,6 +137,6 @@ export function evaluatePiecesBefore(pieces: readonly Piece[], t: number): numbe
 /** Largest angular frequency among the oscillatory terms of a piece (0 if none). */
 export function maxOmega(piece: Piece): number {
   let w = 0;
-  for (const term of piece.terms) if (term.kind === 'osc') w = Math.max(w, Math.abs(term.omega));
+  for (const term of piece.terms) if (term.kind === 'osc' || term.kind === 'quasi') w = Math.max(w, Math.abs(term.omega));
   return w;
 }

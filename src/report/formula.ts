@@ -51,7 +51,22 @@ function termScale(term: Term): number {
       return Math.hypot(term.cosCoef, term.sinCoef);
     case 'poly-exp':
       return Math.max(0, ...term.polyCoefs.map(Math.abs));
+    case 'quasi':
+      return Math.max(0, ...term.cosPoly.map(Math.abs), ...term.sinPoly.map(Math.abs));
   }
+}
+
+/** A polynomial in v with per-second units: `(1 V + 2 kV/s·t)`; null when all zero. */
+function polyText(c: readonly number[], v: string, coef: CoefFormat, floor: number): string | null {
+  const items: Item[] = c
+    .map((x, k) => ({ x, k }))
+    .filter(({ x, k }) => x !== 0 && !(k === 0 && Math.abs(x) <= floor))
+    .map(({ x, k }) => ({
+      negative: x < 0,
+      body: k === 0 ? coef(Math.abs(x), 0) : `${one(coef(Math.abs(x), k))}${v}${k > 1 ? superscript(k) : ''}`,
+    }));
+  if (items.length === 0) return null;
+  return items.length === 1 && !items[0]!.negative ? items[0]!.body : `(${joinItems(items)})`;
 }
 
 /** `12 V·` as a multiplier; a bare 1 disappears. */
@@ -73,6 +88,18 @@ function termItems(term: Term, v: string, coef: CoefFormat, floor: number): Item
       const mag = coef(amp, 0);
       const factors = [mag === '1' ? '' : mag, term.sigma === 0 ? '' : expFactor(term.sigma, v), `cos(2π·${f}·${v}${phase})`];
       return [{ negative: false, body: factors.filter((x) => x !== '').join('·') }];
+    }
+    case 'quasi': {
+      const f = formatSI(term.omega / (2 * Math.PI), 'Hz', { digits: 4 });
+      const env = term.sigma === 0 ? '' : expFactor(term.sigma, v);
+      const parts: string[] = [];
+      const cp = polyText(term.cosPoly, v, coef, floor);
+      const sp = polyText(term.sinPoly, v, coef, floor);
+      if (cp !== null) parts.push(term.omega === 0 ? cp : `${cp}·cos(2π·${f}·${v})`);
+      if (sp !== null && term.omega !== 0) parts.push(`${sp}·sin(2π·${f}·${v})`);
+      if (parts.length === 0) return [];
+      const inner = parts.length === 1 ? parts[0]! : `[${parts.join(' + ')}]`;
+      return [{ negative: false, body: env === '' ? inner : `${env}·${inner}` }];
     }
     case 'poly-exp': {
       if (term.lambda === 0) {

@@ -54,3 +54,20 @@ describe('piece selection', () => {
     expect(evaluatePiecesBefore(pieces, 1e-3)).toBe(1);
   });
 });
+
+describe('quasi terms (a mode driven by a ramp or a sinusoid)', () => {
+  const q: Term = { kind: 'quasi', sigma: -300, omega: 5e3, cosPoly: [1, 200, -4e4], sinPoly: [0.5, -100] };
+  it('value is e^(στ)(P(τ)cos ωτ + S(τ)sin ωτ)', () => {
+    const tau = 4.1e-4;
+    const P = 1 + 200 * tau - 4e4 * tau * tau;
+    const S = 0.5 - 100 * tau;
+    const expected = Math.exp(-300 * tau) * (P * Math.cos(5e3 * tau) + S * Math.sin(5e3 * tau));
+    expect(termValue(q, tau)).toBeCloseTo(expected, 14);
+  });
+  it('derivative agrees with a central difference', () => {
+    const tau = 7.7e-4;
+    const h = 1e-9;
+    const fd = (termValue(q, tau + h) - termValue(q, tau - h)) / (2 * h);
+    expect(Math.abs(termDerivative(q, tau) - fd)).toBeLessThan(1e-5 * Math.abs(fd));
+  });
+});
