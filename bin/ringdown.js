@@ -1,6 +1,12 @@
 #!/usr/bin/env node
 import { main } from '../dist/cli/main.js';
 
+// A reader that stops early (`ringdown run x | head`) is not an error.
+process.stdout.on('error', (error) => {
+  if (error && error.code === 'EPIPE') process.exit(0);
+  throw error;
+});
+
 main(process.argv).then(
   (code) => {
     process.exitCode = code;
