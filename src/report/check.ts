@@ -32,7 +32,7 @@ function direction(kind: Circuit['parts'][number]['kind'], a: string, b: string)
 export function formatCheck(circuit: Circuit): string {
   const out: string[] = [];
   const title = `ringdown check: ${circuit.file}${circuit.title ? ` (${circuit.title})` : ''}`;
-  out.push(title, '═'.repeat([...title].length), '');
+  out.push(title, '═'.repeat(Math.min(80, [...title].length)), '');
 
   out.push(...heading('Nodes'));
   out.push(`  ${[...circuit.nodes, 'gnd (ground, 0 V)'].join(', ')}`, '');

@@ -28,7 +28,7 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   const opts = { chart: options.chart ?? true, color: options.color ?? false, width: options.width ?? 80 };
   const { circuit } = result;
   const title = `ringdown report: ${circuit.title ?? circuit.file}`;
-  const out: string[] = [title, '═'.repeat([...title].length), ''];
+  const out: string[] = [title, '═'.repeat(Math.min(80, [...title].length)), ''];
 
   out.push(...crossCheckLines(result.crossCheck, opts.color), '');
   out.push(...circuitSection(circuit, result.states), '');
