@@ -13,7 +13,8 @@ import { hasTransition } from './transition.js';
  * - initial: value at the first sample time (t = 0+);
  * - final: value at the end of the span (left-hand limit there);
  * - peak / valley: largest / smallest value, extrema located on the closed form;
- * - overshootPct, riseTime (10 → 90 %): relative to the transition initial → final, null without one;
+ * - overshootPct, riseTime (10 → 90 %): relative to the transition initial → final, null without one
+ *   (no transition: final − initial is rounding noise, or under 0.1 % of the peak-to-valley excursion);
  * - settlingTime: last time outside the band around final; null for a relative band without a
  *   transition.
  *
@@ -25,7 +26,7 @@ export function computeMetrics(times: Float64Array, values: Float64Array, pieces
   const final = endValue(track);
   const { peak, valley } = findPeakAndValley(track);
   const scale = Math.max(Math.abs(peak.value), Math.abs(valley.value));
-  const moving = hasTransition(initial, final, scale);
+  const moving = hasTransition(initial, final, scale, peak.value - valley.value);
 
   const rise = moving ? riseTime(track, initial, final) : null;
   const half = bandHalfWidth(band, initial, final);

@@ -48,7 +48,11 @@ export function renderChart(traces: readonly ChartTrace[], options: ChartOptions
   };
   widen(probe);
   const flat = !(hi > lo) || hi - lo <= 1e-12 * Math.max(Math.abs(hi), Math.abs(lo));
-  const labelAt = (x: number) => formatSI(flat ? lo : lo + (x / height) * (hi - lo), unit, { digits: 3 });
+  const labelAt = (x: number) => {
+    const v = flat ? lo : lo + (x / height) * (hi - lo);
+    // a label within rounding noise of zero is zero
+    return formatSI(Math.abs(v) <= 1e-9 * Math.max(Math.abs(lo), Math.abs(hi)) ? 0 : v, unit, { digits: 3 });
+  };
   // label width: try the extremes and a middle row; pad generously for sign and prefix changes
   const labelWidth = () => Math.max(...[0, height / 2, height].map((x) => labelAt(x).length));
 

@@ -57,10 +57,10 @@ function termScale(term: Term): number {
 }
 
 /** A polynomial in v with per-second units: `(1 V + 2 kV/s·t)`; null when all zero. */
-function polyText(c: readonly number[], v: string, coef: CoefFormat, floor: number): string | null {
+function polyText(c: readonly number[], v: string, coef: CoefFormat, floor: Floor): string | null {
   const items: Item[] = c
     .map((x, k) => ({ x, k }))
-    .filter(({ x, k }) => x !== 0 && !(k === 0 && Math.abs(x) <= floor))
+    .filter(({ x, k }) => !negligibleCoef(x, k, floor))
     .map(({ x, k }) => ({
       negative: x < 0,
       body: k === 0 ? coef(Math.abs(x), 0) : `${one(coef(Math.abs(x), k))}${v}${k > 1 ? superscript(k) : ''}`,
@@ -72,7 +72,22 @@ function polyText(c: readonly number[], v: string, coef: CoefFormat, floor: numb
 /** `12 V·` as a multiplier; a bare 1 disappears. */
 const one = (mag: string) => (mag === '1' ? '' : `${mag}·`);
 
-function termItems(term: Term, v: string, coef: CoefFormat, floor: number): Item[] {
+/**
+ * What counts as rounding noise: a term or coefficient whose size over `timeScale` seconds stays
+ * at or below `value` (units of the signal).
+ */
+export interface Floor {
+  value: number;
+  timeScale: number;
+}
+
+/** Whether c·τ^k stays within the noise floor over the floor's time scale (k = 0: |c| alone). */
+function negligibleCoef(c: number, k: number, floor: Floor): boolean {
+  if (c === 0) return true;
+  return Math.abs(c) * (k === 0 ? 1 : floor.timeScale ** k) <= floor.value && (k === 0 || floor.timeScale > 0);
+}
+
+function termItems(term: Term, v: string, coef: CoefFormat, floor: Floor): Item[] {
   switch (term.kind) {
     case 'exp': {
       const mag = coef(Math.abs(term.coef), 0);
@@ -105,7 +120,7 @@ function termItems(term: Term, v: string, coef: CoefFormat, floor: number): Item
       if (term.lambda === 0) {
         return term.polyCoefs
           .map((c, k) => ({ c, k }))
-          .filter(({ c, k }) => c !== 0 && !(k === 0 && Math.abs(c) <= floor))
+          .filter(({ c, k }) => !negligibleCoef(c, k, floor))
           .map(({ c, k }) => ({
             negative: c < 0,
             body: k === 0 ? coef(Math.abs(c), 0) : `${one(coef(Math.abs(c), k))}${v}${k > 1 ? superscript(k) : ''}`,
@@ -137,11 +152,12 @@ function joinItems(items: Item[]): string {
 
 /**
  * A sum of terms in the time variable text `v` (`t` or `(t − 1.00 ms)`); an empty sum prints as zero.
- * Terms below 1e-12 of the largest one, or below the absolute `floor`, are rounding noise and left out.
+ * Terms below 1e-12 of the largest one, or within the absolute `floor`, are rounding noise and left out.
  */
-export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = [], floor = 0): string {
+export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = [], floor: Floor = { value: 0, timeScale: 0 }): string {
   const scale = Math.max(0, ...terms.map(termScale));
-  const keep = (t: Term) => termScale(t) > Math.max(NEGLIGIBLE * scale, floor);
+  const polynomial = (t: Term) => (t.kind === 'poly-exp' && t.lambda === 0) || (t.kind === 'quasi' && t.sigma === 0);
+  const keep = (t: Term) => termScale(t) > NEGLIGIBLE * scale && (polynomial(t) || termScale(t) > floor.value);
   const items = terms.filter(keep).flatMap((t) => termItems(t, v, coef, floor));
   items.push(...extra);
   return items.length === 0 ? coef(0, 0) : joinItems(items);
@@ -163,18 +179,18 @@ export function impulseItem(area: number, t0: number, unit: string): Item {
  *   v(out) = 12 V − 12 V·e^(−t/1.00 ms)                       (a single piece from 0)
  *   v(out) = … for 1.000 ms ≤ t < 2.000 ms                     (several pieces)
  */
-export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, floor = 0): string[] {
+export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, noise = 0): string[] {
   const coef = unitCoefs(unit);
   const shown = pieces.filter((p, i) => p.t0 < span || i === 0);
   if (shown.length === 0) return [`${label} = ${coef(0, 0)}`];
-  return shown.map((p, i) => {
+  return shown.flatMap((p, i) => {
     const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit)] : [];
+    const floor = { value: noise, timeScale: Math.max(0, Math.min(p.t1, span) - p.t0) };
     const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra, floor);
-    if (shown.length === 1 && p.t0 <= 0) return `${label} = ${body}`;
+    if (shown.length === 1 && p.t0 <= 0) return [`${label} = ${body}`];
     const from = formatSI(p.t0, 's', { digits: 4, trim: true });
     const last = i === shown.length - 1;
-    const to = last ? '' : ` < ${formatSI(p.t1, 's', { digits: 4, trim: true })}`;
-    const range = last ? `t ≥ ${from}` : `${from} ≤ t${to}`;
-    return `${label} = ${body}    for ${range}`;
+    const range = last ? `t ≥ ${from}` : `${from} ≤ t < ${formatSI(p.t1, 's', { digits: 4, trim: true })}`;
+    return [`for ${range}:`, `  ${label} = ${body}`];
   });
 }

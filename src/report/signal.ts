@@ -42,15 +42,15 @@ function sourceUnit(circuit: Circuit, name: string): 'V' | 'A' {
   return part?.kind === 'current-source' ? 'A' : 'V';
 }
 
-function pathLines(trace: Trace, path: PathResponse, circuit: Circuit): string[] {
+function pathLines(trace: Trace, path: PathResponse, circuit: Circuit, span: number): string[] {
   const su = sourceUnit(circuit, path.source);
   const g = gainUnit(trace.unit, su);
   const extra = path.step.stepImpulseArea !== 0 ? [impulseItem(path.step.stepImpulseArea, 0, g.coef)] : [];
   // A path coefficient times the source's size that is far below the signal itself is noise.
   const amp = sourceAmplitude(circuit, path.source);
-  const floor = amp > 0 ? (NOISE * maxAbs(trace.values)) / amp : 0;
+  const floor = { value: amp > 0 ? (NOISE * maxAbs(trace.values)) / amp : 0, timeScale: span };
   const formula = formatTerms(path.step.terms, 't', unitCoefs(g.coef), extra, floor);
-  const dcGain = Math.abs(path.dcGain) <= floor ? 0 : path.dcGain;
+  const dcGain = Math.abs(path.dcGain) <= floor.value ? 0 : path.dcGain;
   const dc = Number.isFinite(dcGain)
     ? g.coef === ''
       ? `${formatPlain(dcGain, 4)} ${g.label}`
@@ -66,7 +66,7 @@ export function signalSection(trace: Trace, circuit: Circuit, times: Float64Arra
   for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values))) lines.push(`    ${l}`);
   if (trace.paths.length > 0) {
     lines.push('  step response from each source (that source alone, stepping from 0 at t = 0):');
-    for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit));
+    for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit, span));
   }
   lines.push('  measurements:');
   lines.push(...metricsLines(trace.metrics, trace.unit, circuit.analysis.settle));

@@ -165,3 +165,15 @@ describe('sampled fallback (no pieces)', () => {
     expect(m.settlingTime).toBeCloseTo(4.9, 12);
   });
 });
+
+describe('a pulse that has nearly returned by the end of the span', () => {
+  it('is not a transition: no overshoot of millions of percent', () => {
+    const tau = 1e-4;
+    const pulse = [piece(0, Infinity, [{ kind: 'poly-exp', lambda: -1 / tau, polyCoefs: [0, 1 / tau] }])];
+    // at 12 τ the pulse is at 12·e^(−12) ≈ 7.4e-5, below 0.1 % of its excursion 1/e
+    const m = metricsOf(pulse, 12 * tau);
+    expect(m.overshootPct).toBeNull();
+    expect(m.riseTime).toBeNull();
+    expect(m.settlingTime).toBeNull();
+  });
+});

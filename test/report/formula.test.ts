@@ -21,8 +21,9 @@ describe('closed forms in words', () => {
   });
 
   it('writes a ramp with a per-second unit and leaves out rounding noise', () => {
-    const text = formatTerms([{ kind: 'poly-exp', lambda: 0, polyCoefs: [1e-17, 16.5e3] }], 't', V, [], 1e-12);
-    expect(text).toBe('16.5 kV/s·t');
+    const floor = { value: 1e-12, timeScale: 1e-3 };
+    expect(formatTerms([{ kind: 'poly-exp', lambda: 0, polyCoefs: [1e-17, 16.5e3] }], 't', V, [], floor)).toBe('16.5 kV/s·t');
+    expect(formatTerms([{ kind: 'exp', lambda: 0, coef: 24 }, { kind: 'poly-exp', lambda: 0, polyCoefs: [0, 2e-10] }], 't', V, [], floor)).toBe('24 V');
   });
 
   it('measures later pieces from their start and names the interval', () => {
@@ -32,8 +33,10 @@ describe('closed forms in words', () => {
       { t0: 1e-3, t1: Infinity, terms: [{ kind: 'exp', lambda: -1000, coef: 5 }], impulseArea: 2e-6 },
     ];
     expect(formatPieces('v(x)', 'V', pieces, 5e-3)).toEqual([
-      'v(x) = 0 V    for 0 s ≤ t < 1 ms',
-      'v(x) = 5 V·e^(−(t − 1 ms)/1.00 ms) + 2 µV·s·δ(t − 1 ms)    for t ≥ 1 ms',
+      'for 0 s ≤ t < 1 ms:',
+      '  v(x) = 0 V',
+      'for t ≥ 1 ms:',
+      '  v(x) = 5 V·e^(−(t − 1 ms)/1.00 ms) + 2 µV·s·δ(t − 1 ms)',
     ]);
   });
 });
