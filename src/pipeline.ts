@@ -2,7 +2,7 @@ import type { Circuit } from './circuit/circuit.js';
 import { loadCircuit } from './circuit/load.js';
 import { InputError } from './diagnostics.js';
 import { computeMetrics } from './measure/metrics.js';
-import { ReductionError, buildModel } from './model/build.js';
+import { ReductionError } from './model/build.js';
 import type { RunResult } from './simulate/result.js';
 import { simulate } from './simulate/run.js';
 
@@ -13,16 +13,15 @@ export interface AnalyzeOptions {
 
 /** circuit → model → exact solution → metrics: the whole run as one value. */
 export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): RunResult {
-  let model;
+  let sim;
   try {
-    model = buildModel(circuit);
+    sim = simulate(circuit, opts);
   } catch (e) {
     if (e instanceof ReductionError) {
       throw new InputError([{ severity: 'error', message: `the circuit has no unique solution: ${e.message}`, loc: { file: circuit.file, line: 1, col: 1, length: 0 } }]);
     }
     throw e;
   }
-  const sim = simulate(circuit, model, opts);
   const traces = sim.signals.map((s) => ({
     label: s.watch.label,
     unit: s.watch.unit,
@@ -39,6 +38,8 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     spanChosen: sim.spanChosen,
     times: sim.times,
     traces,
+    start: sim.start,
+    events: sim.events,
     crossCheck: sim.crossCheck,
     notices: sim.notices,
   };

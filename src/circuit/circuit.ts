@@ -8,7 +8,7 @@ import type { SourceLocation } from '../netlist/location.js';
 
 export const GROUND = 'gnd';
 
-export type PartKind = 'resistor' | 'capacitor' | 'inductor' | 'voltage-source' | 'current-source';
+export type PartKind = 'resistor' | 'capacitor' | 'inductor' | 'voltage-source' | 'current-source' | 'switch';
 
 /** One additive term of a source waveform, all values SI. */
 export type WaveTerm =
@@ -16,10 +16,36 @@ export type WaveTerm =
   /** from `from` to `to`, starting at `at`, linear over `rise` seconds (0: ideal jump). */
   | { kind: 'step'; from: number; to: number; at: number; rise: number }
   /** Dirac impulse of area `area` (V·s or A·s) at time `at`. */
-  | { kind: 'impulse'; area: number; at: number };
+  | { kind: 'impulse'; area: number; at: number }
+  /** 0 before `at`, then slope·(t − at) until `until` (Infinity: no end), constant after. */
+  | { kind: 'ramp'; at: number; slope: number; until: number }
+  /** `from` before `at`, then to + (from − to)·e^(−(t − at)/tau). */
+  | { kind: 'approach'; from: number; to: number; at: number; tau: number }
+  /** 0 before `at`, then amplitude·e^(−(t − at)/decay)·sin(2π·freq·(t − at) + phase); decay Infinity: none. */
+  | { kind: 'sine'; amplitude: number; freq: number; phase: number; at: number; decay: number }
+  /**
+   * Repeating pulses: `low` before `start`; each period rises linearly over `rise`, stays at `high`
+   * for `width`, falls over `fall`, stays `low` for the rest of the period. `cycles` Infinity: unending.
+   */
+  | { kind: 'pulse'; low: number; high: number; period: number; width: number; rise: number; fall: number; start: number; cycles: number }
+  /** Linear interpolation through (t, v) points (sorted by t); first value before, last value after. */
+  | { kind: 'table'; points: { t: number; v: number }[] }
+  /** A function of time given as an expression (the last resort: sampled adaptively, error reported). */
+  | { kind: 'expression'; text: string; fn: (t: number) => number };
 
 export interface Waveform {
   terms: WaveTerm[];
+}
+
+/**
+ * A switch: `onResistance` while closed; while open `offResistance` (Infinity: truly open).
+ * It starts in `initiallyClosed` and changes state at each event (sorted by time, t > 0).
+ */
+export interface Switching {
+  onResistance: number;
+  offResistance: number;
+  initiallyClosed: boolean;
+  events: { t: number; closed: boolean }[];
 }
 
 export interface Part {
@@ -35,6 +61,8 @@ export interface Part {
   initial?: number;
   /** Sources only. */
   waveform?: Waveform;
+  /** Switches only: a resistor whose resistance follows a schedule. */
+  switching?: Switching;
   loc: SourceLocation;
 }
 
@@ -59,6 +87,12 @@ export interface Analysis {
   span?: number;
   samples: number;
   settle: SettleBand;
+  /**
+   * State before t = 0: 'settled' (the DC operating point with the sources at their t = 0− values
+   * and the switches in their initial state), or 'rest' (every capacitor and inductor at zero).
+   * A part's own `initial` value overrides either.
+   */
+  start: 'settled' | 'rest';
 }
 
 export interface Circuit {

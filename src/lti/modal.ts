@@ -54,10 +54,6 @@ export function modalDecomposition(A: Mat): Modal {
   const colSine = (a: number[], b: number[]) => subspaceSine(V, a, b);
   for (let g = 0; g < groups.length; g++) {
     const G = groups[g];
-    if (G.length === 2 && colSine([G[0]], [G[1]]) < PARALLEL && Math.abs(im[G[0]]) < CLOSE * scaleOf(G[0])) {
-      // a near-real complex pair whose Re/Im directions collapse: treat as a cluster of its own
-      parent[g] = g;
-    }
     for (let h = 0; h < g; h++) {
       const H = groups[h];
       const dist = Math.min(...G.flatMap((i) => H.map((j) => Math.hypot(re[i] - re[j], im[i] - im[j]))));
@@ -76,7 +72,9 @@ export function modalDecomposition(A: Mat): Modal {
   for (const gs of members.values()) {
     const idx = gs.flatMap((g) => groups[g]);
     const eig = idx.map((i) => ({ re: re[i], im: im[i] }));
-    const nearRealPair = gs.length === 1 && idx.length === 2 && colSine([idx[0]], [idx[1]]) < PARALLEL && Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]);
+    // a complex pair this close to the real axis has nearly parallel complex eigenvectors:
+    // evaluate it as a cluster (series around its mean) rather than as two complex modes
+    const nearRealPair = gs.length === 1 && idx.length === 2 && Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]);
     const isCluster = gs.length > 1 || nearRealPair;
     const kind: Block['kind'] = isCluster ? 'cluster' : idx.length === 2 ? 'pair' : 'real';
     const basis = isCluster ? invariantSubspace(A, eig) : idx.map((i) => V.map((row) => row[i]));

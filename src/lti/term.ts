@@ -14,7 +14,23 @@ export function termValue(term: Term, tau: number): number {
       for (let k = term.polyCoefs.length - 1; k >= 0; k--) p = p * tau + term.polyCoefs[k];
       return term.lambda === 0 ? p : p * Math.exp(term.lambda * tau);
     }
+    case 'quasi': {
+      const wt = term.omega * tau;
+      return Math.exp(term.sigma * tau) * (horner(term.cosPoly, tau) * Math.cos(wt) + horner(term.sinPoly, tau) * Math.sin(wt));
+    }
   }
+}
+
+function horner(p: number[], x: number): number {
+  let v = 0;
+  for (let k = p.length - 1; k >= 0; k--) v = v * x + p[k];
+  return v;
+}
+
+function hornerSlope(p: number[], x: number): number {
+  let v = 0;
+  for (let k = p.length - 1; k >= 1; k--) v = v * x + k * p[k];
+  return v;
 }
 
 /** Time derivative of a term at τ. */
@@ -37,6 +53,18 @@ export function termSlope(term: Term, tau: number): number {
         p = p * tau + term.polyCoefs[k];
       }
       return term.lambda === 0 ? dp : (dp + term.lambda * p) * Math.exp(term.lambda * tau);
+    }
+    case 'quasi': {
+      const wt = term.omega * tau;
+      const cw = Math.cos(wt);
+      const sw = Math.sin(wt);
+      const P = horner(term.cosPoly, tau);
+      const Q = horner(term.sinPoly, tau);
+      const dP = hornerSlope(term.cosPoly, tau);
+      const dQ = hornerSlope(term.sinPoly, tau);
+      const v = P * cw + Q * sw;
+      const dv = dP * cw - P * term.omega * sw + dQ * sw + Q * term.omega * cw;
+      return Math.exp(term.sigma * tau) * (term.sigma * v + dv);
     }
   }
 }

@@ -14,8 +14,14 @@ export interface Model {
   /** read-out rows for arbitrary probes (watches, part stresses) */
   readout(probe: Probe): Readout;
   descriptor: Descriptor;
-  /** consistent x(0+) from the parts' values at 0− and the inputs (and their slopes) at 0+ */
-  initialState(u0: Vec, du0: Vec): InitialState;
+  /**
+   * Consistent state just after an instant (t = 0, or a switching event) from every capacitor's
+   * voltage and inductor's current just before it (`before`, by part name; missing: 0) and the
+   * inputs (and their slopes) just after it.
+   */
+  initialState(before: Map<string, number>, u0: Vec, du0: Vec): InitialState;
+  /** every capacitor voltage and inductor current, as read-outs (for state hand-over) */
+  storage: { part: Part; kind: StateVariable['kind']; readout: Readout }[];
 }
 
 export interface InitialState {
@@ -98,10 +104,11 @@ export function buildModel(circuit: Circuit): Model {
     return { C, D, D1: dx[1] ?? new Array(m).fill(0) };
   };
 
-  const initialState = (u0: Vec, du0: Vec): InitialState =>
-    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, u0, du0);
+  const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
+    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, physical, before, u0, du0);
+  const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
 
-  return { ss, readout, descriptor: d, initialState };
+  return { ss, readout, descriptor: d, initialState, storage };
 }
 
 interface PhysicalQuantity {
@@ -149,8 +156,8 @@ function consistentInitial(
   np: number,
   X: Mat,
   Xu: Mat[],
-  chosen: number[],
   physical: PhysicalQuantity[],
+  beforeValues: Map<string, number>,
   u0: Vec,
   du0: Vec,
 ): InitialState {
@@ -159,7 +166,7 @@ function consistentInitial(
   const q = new Array<number>(nz).fill(0);
   const node = (n: string) => d.nodes.indexOf(n);
   for (const p of circuit.parts) {
-    const v0 = p.initial ?? 0;
+    const v0 = beforeValues.get(p.name) ?? 0;
     if (p.kind === 'capacitor') {
       const a = node(p.a);
       const b = node(p.b);
@@ -197,13 +204,12 @@ function consistentInitial(
   const zPlus = addVec(matvec(Zp, p), zu).map((v, i) => v * s[i]);
   const jumps: InitialState['jumps'] = [];
   for (const ph of physical) {
-    const before = ph.part.initial ?? 0;
+    const before = beforeValues.get(ph.part.name) ?? 0;
     const after = ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0);
     if (Math.abs(after - before) > 1e-9 * Math.max(Math.abs(before), Math.abs(after), 1e-12)) {
       jumps.push({ part: ph.part.name, kind: ph.kind, before, after });
     }
   }
-  void chosen;
   return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
 }
 

@@ -71,6 +71,7 @@ function fail(msg: string): never {
 /** Read-out of v(a) − v(b). */
 export function voltageProbe(d: Descriptor, a: string, b: string): Probe {
   const p = emptyProbe(d);
+  // a node absent from this configuration (cut off by an open switch) reads as 0 V
   const ia = a === GROUND ? -1 : d.nodes.indexOf(a);
   const ib = b === GROUND ? -1 : d.nodes.indexOf(b);
   if (ia >= 0) p.cz[ia] += 1;
@@ -96,6 +97,8 @@ export function currentProbe(d: Descriptor, part: Part): Probe {
     case 'current-source':
       p.du[d.inputs.indexOf(part)] = 1;
       break;
+    case 'switch':
+      break; // an open switch without off-resistance carries no current
   }
   return p;
 }

@@ -21,7 +21,9 @@ export type Term =
   /** e^(στ)·(cosCoef·cos(ωτ) + sinCoef·sin(ωτ)) */
   | { kind: 'osc'; sigma: number; omega: number; cosCoef: number; sinCoef: number }
   /** polyCoefs[k]·τ^k·e^(λτ), k = 0.. (a repeated pole; λ = 0 gives a plain polynomial) */
-  | { kind: 'poly-exp'; lambda: number; polyCoefs: number[] };
+  | { kind: 'poly-exp'; lambda: number; polyCoefs: number[] }
+  /** e^(στ)·(Σ cosPoly[k]·τ^k·cos(ωτ) + Σ sinPoly[k]·τ^k·sin(ωτ)): the general form (a mode driven by a ramp or sinusoid) */
+  | { kind: 'quasi'; sigma: number; omega: number; cosPoly: number[]; sinPoly: number[] };
 
 /** y(t) = Σ terms(t − t0) for t0 ≤ t < t1, plus a Dirac impulse of area `impulseArea` at t0 when nonzero. */
 export interface Piece {
@@ -85,6 +87,15 @@ export interface RunResult {
   spanChosen: boolean;   // true when the span came from the slowest mode
   times: Float64Array;
   traces: Trace[];
+  /** how the state before t = 0 was chosen */
+  start?: 'settled' | 'rest';
+  /** switching instants (and t = 0 when the state had to jump there) */
+  events?: {
+    t: number;
+    closed: string[];
+    jumps: { part: string; kind: 'capacitor-voltage' | 'inductor-current'; before: number; after: number }[];
+    energyLost: number;
+  }[];
   crossCheck: CrossCheck;
   notices: string[];     // non-fatal remarks (state jumps at t = 0, inconsistent initial values, ...)
 }

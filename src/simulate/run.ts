@@ -1,19 +1,31 @@
-import type { Circuit, Watch } from '../circuit/circuit.js';
-import { currentProbe, voltageProbe } from '../model/descriptor.js';
-import type { Model } from '../model/build.js';
+import type { Circuit, Part, Watch, Waveform } from '../circuit/circuit.js';
+import { GROUND } from '../circuit/circuit.js';
+import { currentProbe, emptyProbe, voltageProbe } from '../model/descriptor.js';
+import { type Model, buildModel } from '../model/build.js';
 import type { Readout } from '../model/state-space.js';
-import { matvec } from '../linalg/dense.js';
-import { modalDecomposition } from '../lti/modal.js';
+import { type Vec, matvec } from '../linalg/dense.js';
+import { type Modal, modalDecomposition } from '../lti/modal.js';
 import { chooseSpan, modesOf } from '../lti/modes.js';
 import { termsValue } from '../lti/term.js';
-import { breakpointsOf, buildSchedule } from '../waveform/schedule.js';
+import { type InputSchedule, buildSchedule, inputSlopes, inputValues, lastEventOf } from '../waveform/schedule.js';
+import { epochs, initialConfiguration, switchesOf } from './configure.js';
 import { checkTimes, referenceValues } from './crosscheck.js';
 import type { CrossCheck, Mode, PathResponse, Piece, StateInfo } from './result.js';
+import { valuesBeforeStart } from './settled.js';
 import { pathResponses, solveExact } from './solve.js';
 
 export interface SimulateOptions {
   span?: number;
   samples?: number;
+}
+
+/** A switching event as the run saw it. */
+export interface EventReport {
+  t: number;
+  closed: string[];
+  jumps: { part: string; kind: 'capacitor-voltage' | 'inductor-current'; before: number; after: number }[];
+  /** stored energy lost in the instant (charge sharing, interrupted current), joules */
+  energyLost: number;
 }
 
 /** Everything the simulate stage produces, before measurement. */
@@ -22,94 +34,155 @@ export interface Simulation {
   modes: Mode[];
   span: number;
   spanChosen: boolean;
+  start: 'settled' | 'rest';
   times: Float64Array;
   signals: { watch: Watch; values: Float64Array; pieces: Piece[]; paths: PathResponse[] }[];
+  events: EventReport[];
   crossCheck: CrossCheck;
   notices: string[];
 }
 
 export const CROSS_CHECK_TOLERANCE = 1e-9;
 
-export function simulate(circuit: Circuit, model: Model, opts: SimulateOptions = {}): Simulation {
-  const { ss } = model;
+interface Prepared {
+  model: Model;
+  modal: Modal;
+  readouts: Readout[];
+}
+
+export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulation {
   const notices: string[] = [];
-  const readouts = circuit.watches.map((w) => readoutFor(circuit, model, w));
-  const modal = modalDecomposition(ss.A);
-  const modes = modesOf(modal.blocks);
-  const sources = circuit.parts.filter((p) => p.waveform);
-  const waves = ss.inputs.map((name) => sources.find((p) => p.name === name)!.waveform!);
-  const lastEvent = Math.max(0, ...waves.flatMap(breakpointsOf));
+  const prepared = new Map<Circuit, Prepared>();
+  const prepare = (c: Circuit): Prepared => {
+    let p = prepared.get(c);
+    if (!p) {
+      const model = buildModel(c);
+      p = { model, modal: modalDecomposition(model.ss.A), readouts: circuit.watches.map((w) => readoutFor(c, model, w)) };
+      prepared.set(c, p);
+    }
+    return p;
+  };
+
+  // the span: given, or from the slowest mode of the first configuration after the last event
+  const waves = (c: Circuit): Waveform[] => prepare(c).model.ss.inputs.map((name) => c.parts.find((p) => p.name === name)!.waveform!);
+  const allWaves = circuit.parts.filter((p) => p.waveform).map((p) => p.waveform!);
+  const switchTimes = switchesOf(circuit).flatMap((p) => p.switching!.events.map((e) => e.t));
+  const lastEvent = Math.max(lastEventOf(allWaves), ...switchTimes, 0);
   const spanGiven = opts.span ?? circuit.analysis.span;
-  const span = spanGiven ?? chooseSpan(modes, lastEvent);
+  const first = epochs(circuit, Number.isFinite(lastEvent) && lastEvent > 0 ? lastEvent * 2 : 1);
+  const lastConfig = first[first.length - 1].circuit;
+  const allModes = [...new Set(first.map((e) => e.circuit))].flatMap((c) => modesOf(prepare(c).modal.blocks));
+  const span = spanGiven ?? chooseSpan(allModes, lastEvent);
+  void lastConfig;
   const samples = Math.max(2, Math.floor(opts.samples ?? circuit.analysis.samples));
-  const schedule = buildSchedule(waves, span);
-  for (const o of schedule.outside) notices.push(`a source ${o.kind} at t = ${o.t} s lies outside the analysis span [0, ${span}] s and is ignored`);
+  const eps = epochs(circuit, span);
 
-  // consistent state at t = 0+, then an impulse at t = 0 acts on it
-  const first = schedule.intervals[0];
-  const init = model.initialState(first.u, first.slope);
-  for (const j of init.jumps) {
-    const what = j.kind === 'capacitor-voltage' ? `voltage of ${j.part}` : `current of ${j.part}`;
-    notices.push(`at t = 0 the ${what} is forced from ${fmt(j.before)} to ${fmt(j.after)} (charge/flux shared between parts wired in a loop or cut-set with no resistance)`);
-  }
-  if (init.residual > 1e-9) notices.push(`initial charge/flux balance is off by ${init.residual.toExponential(2)} (relative)`);
-  let xi0 = init.x.map((v, i) => v - ss.Bx1[i].reduce((s, b, j) => s + b * first.u[j], 0));
-  const d0 = schedule.diracs.find((d) => d.t === 0);
-  if (d0) xi0 = xi0.map((v, i) => v + ss.B[i].reduce((s, b, j) => s + b * d0.area[j], 0));
+  // state before t = 0
+  const pre = initialConfiguration(circuit);
+  const before = valuesBeforeStart(circuit, pre.circuit);
+  if (before.note) notices.push(before.note);
 
-  const exact = solveExact(ss, modal, readouts, schedule, xi0, span);
+  const pieces: Piece[][] = circuit.watches.map(() => []);
+  const events: EventReport[] = [];
+  let values = before.values;
+  let maxRel = 0;
+  const checked: number[] = [];
+  eps.forEach((ep, k) => {
+    const P = prepare(ep.circuit);
+    const { ss } = P.model;
+    const schedule = buildSchedule(waves(ep.circuit), ep.t1, ep.t0);
+    if (k === 0) for (const o of schedule.outside) notices.push(`a source impulse at t = ${o.t} s lies outside the analysis span and is ignored`);
+    for (const n of ep.isolated) if (k === 0 || eps[k - 1].isolated.indexOf(n) < 0) notices.push(`from t = ${ep.t0} s node ${n} is cut off by an open switch; it reads as 0 V`);
+    const iv0 = schedule.intervals[0];
+    const u0 = inputValues(iv0, ss.m, 0);
+    const init = P.model.initialState(values, u0, inputSlopes(iv0, ss.m, 0));
+    const energyBefore = storedEnergy(ep.circuit, values);
+    const after = new Map(values);
+    for (const j of init.jumps) after.set(j.part, j.after);
+    if (k > 0 || init.jumps.length) {
+      events.push({ t: ep.t0, closed: ep.closed, jumps: init.jumps, energyLost: energyBefore - storedEnergy(ep.circuit, after) });
+    }
+    if (init.residual > 1e-9) notices.push(`at t = ${ep.t0} s the charge/flux balance is off by ${init.residual.toExponential(2)} (relative)`);
+    let xi0 = init.x.map((v, i) => v - ss.Bx1[i].reduce((s, b, j) => s + b * u0[j], 0));
+    const d0 = schedule.diracs.find((d) => d.t === ep.t0);
+    if (d0 && (k === 0 || ep.t0 > 0)) xi0 = xi0.map((v, i) => v + ss.B[i].reduce((s, b, j) => s + b * d0.area[j], 0));
+    const exact = solveExact(ss, P.modal, P.readouts, schedule, xi0, span);
+    exact.pieces.forEach((ps, w) => pieces[w].push(...ps));
+
+    // independent check of this epoch
+    const ct = checkTimes(ep.t0, ep.t1, schedule);
+    const ref = referenceValues(ss, P.readouts, schedule, xi0, ct);
+    exact.pieces.forEach((ps, w) => {
+      const scale = Math.max(1e-300, ...ps.map((p) => Math.abs(termsValue(p.terms, 0))), ...ct.map((t) => Math.abs(ref[w][ct.indexOf(t)])));
+      ct.forEach((t, i) => {
+        const err = Math.abs(evaluateAt(ps, t) - ref[w][i]) / scale;
+        maxRel = Math.max(maxRel, Number.isFinite(err) ? err : Infinity);
+      });
+    });
+    checked.push(...ct);
+
+    // hand over every capacitor voltage and inductor current to the next epoch
+    const last = schedule.intervals[schedule.intervals.length - 1];
+    const uEnd = inputValues(last, ss.m, last.t1 - last.t0);
+    values = new Map(values);
+    for (const st of P.model.storage) {
+      const r = st.readout;
+      values.set(st.part.name, dotv(r.C, exact.final) + dotv(r.D, uEnd));
+    }
+  });
+
   const times = new Float64Array(samples);
   for (let k = 0; k < samples; k++) times[k] = (span * k) / (samples - 1);
-  const signals = circuit.watches.map((watch, w) => {
-    const pieces = exact.pieces[w];
-    const values = sampleLinearly(pieces, times);
-    return { watch, values, pieces, paths: pathResponses(ss, modal, readouts[w], span) };
-  });
-
-  const ct = checkTimes(span, schedule);
-  const ref = referenceValues(ss, readouts, schedule, xi0, ct);
-  let maxRel = 0;
-  signals.forEach((s, w) => {
-    const scale = Math.max(1e-300, ...Array.from(s.values, Math.abs));
-    ct.forEach((t, k) => {
-      const ours = evaluateAt(s.pieces, t);
-      const err = Math.abs(ours - ref[w][k]) / scale;
-      maxRel = Math.max(maxRel, Number.isFinite(err) ? err : Infinity);
-    });
-  });
+  const firstP = prepare(eps[0].circuit);
+  const signals = circuit.watches.map((watch, w) => ({
+    watch,
+    values: sample(pieces[w], times),
+    pieces: pieces[w],
+    paths: pathResponses(firstP.model.ss, firstP.modal, firstP.readouts[w], span),
+  }));
   const crossCheck: CrossCheck = {
-    method: 'matrix exponential of the augmented state matrix (Padé 13, scaling and squaring), interval by interval',
-    times: ct,
+    method: 'matrix exponential of the state matrix augmented with the source generators (Padé 13, scaling and squaring), interval by interval',
+    times: checked,
     maxRelError: maxRel,
     tolerance: CROSS_CHECK_TOLERANCE,
     passed: maxRel <= CROSS_CHECK_TOLERANCE,
   };
-  const states: StateInfo[] = ss.states.map((s) => ({ name: s.name, part: s.part, kind: s.kind }));
+  const states: StateInfo[] = firstP.model.ss.states.map((s) => ({ name: s.name, part: s.part, kind: s.kind }));
+  const modes = modesOf(firstP.modal.blocks);
   void matvec;
-  return { states, modes, span, spanChosen: spanGiven === undefined, times, signals, crossCheck, notices };
+  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, events, crossCheck, notices };
 }
 
-function readoutFor(circuit: Circuit, model: Model, w: Watch): Readout {
+function storedEnergy(c: Circuit, values: Map<string, number>): number {
+  let e = 0;
+  for (const p of c.parts) {
+    if (p.kind === 'capacitor' || p.kind === 'inductor') e += 0.5 * p.value * (values.get(p.name) ?? 0) ** 2;
+  }
+  return e;
+}
+
+function readoutFor(c: Circuit, model: Model, w: Watch): Readout {
   const d = model.descriptor;
   const t = w.target;
+  const part = (name: string): Part | undefined => c.parts.find((q) => q.name === name);
   switch (t.kind) {
     case 'node':
-      return model.readout(voltageProbe(d, t.node, 'gnd'));
+      return model.readout(voltageProbe(d, t.node, GROUND));
     case 'between':
       return model.readout(voltageProbe(d, t.a, t.b));
     case 'part-voltage': {
-      const p = circuit.parts.find((q) => q.name === t.part)!;
-      return model.readout(voltageProbe(d, p.a, p.b));
+      const p = part(t.part);
+      return model.readout(p ? voltageProbe(d, p.a, p.b) : emptyProbe(d));
     }
     case 'part-current': {
-      const p = circuit.parts.find((q) => q.name === t.part)!;
-      return model.readout(currentProbe(d, p));
+      const p = part(t.part);
+      return model.readout(p ? currentProbe(d, p) : emptyProbe(d));
     }
   }
 }
 
-/** Piece index for time t: the last piece starting at or before t (right-continuous). */
-function pieceIndex(pieces: Piece[], t: number): number {
+/** Value at t on the piece that starts at or before t (right-continuous). */
+export function evaluateAt(pieces: Piece[], t: number): number {
   let lo = 0;
   let hi = pieces.length - 1;
   while (lo < hi) {
@@ -117,15 +190,10 @@ function pieceIndex(pieces: Piece[], t: number): number {
     if (pieces[mid].t0 <= t) lo = mid;
     else hi = mid - 1;
   }
-  return lo;
+  return termsValue(pieces[lo].terms, t - pieces[lo].t0);
 }
 
-export function evaluateAt(pieces: Piece[], t: number): number {
-  const p = pieces[pieceIndex(pieces, t)];
-  return termsValue(p.terms, t - p.t0);
-}
-
-function sampleLinearly(pieces: Piece[], times: Float64Array): Float64Array {
+function sample(pieces: Piece[], times: Float64Array): Float64Array {
   const out = new Float64Array(times.length);
   let k = 0;
   for (let i = 0; i < times.length; i++) {
@@ -136,6 +204,10 @@ function sampleLinearly(pieces: Piece[], times: Float64Array): Float64Array {
   return out;
 }
 
-function fmt(v: number): string {
-  return Number(v.toPrecision(6)).toString();
+function dotv(a: Vec, b: Vec): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
+  return s;
 }
+
+export type { InputSchedule };

@@ -1,20 +1,24 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import { type Mat, type Vec, matmul, matvec } from '../linalg/dense.js';
-import { blockExp, blockTerms, solveBlock } from '../lti/block.js';
+import { type C, c } from '../lti/complex.js';
 import type { Block, Modal } from '../lti/modal.js';
-import type { InputSchedule } from '../waveform/schedule.js';
+import { type BlockSolution, type Forcing, blockSolutionTerms, blockStateAt, quasiTerm, solveBlockForced } from '../lti/response.js';
+import { simplifyTerms } from '../lti/simplify.js';
+import type { Component } from '../waveform/component.js';
+import type { InputSchedule, Interval } from '../waveform/schedule.js';
 import type { PathResponse, Piece, Term } from './result.js';
 
 /**
- * Exact solution interval by interval in modal coordinates. On each interval the inputs are
- * affine in time, so every block's response is a particular polynomial plus its free response;
- * the state at the interval's end is handed to the next one, and Dirac impulses add B·area.
+ * Exact solution interval by interval in modal coordinates. On each interval every input is a sum
+ * of components c·τ^p·e^(sτ), so every block's response is a particular quasi-polynomial plus its
+ * free response; the state at the interval's end is handed to the next one, and Dirac impulses
+ * add B·area.
  */
 export interface ExactSolution {
   /** per read-out, the closed form on each interval */
   pieces: Piece[][];
-  /** canonical state ξ at each interval start (after impulses), for the cross-check's use */
-  starts: Vec[];
+  /** canonical state ξ at the end of the last interval */
+  final: Vec;
 }
 
 export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], schedule: InputSchedule, xi0: Vec, span: number): ExactSolution {
@@ -22,42 +26,52 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const gammas = readouts.map((r) => (ss.n ? matvec(transposeOf(modal.W), r.C) : []));
   let xm = ss.n ? matvec(modal.Winv, xi0) : [];
   const pieces: Piece[][] = readouts.map(() => []);
-  const starts: Vec[] = [];
   for (const iv of schedule.intervals) {
     const dirac = schedule.diracs.find((d) => d.t === iv.t0);
-    if (dirac && iv.t0 > 0) xm = xm.map((v, i) => v + dot(beta[i], dirac.area));
-    starts.push(ss.n ? matvec(modal.W, xm) : []);
+    if (dirac && iv.t0 > schedule.intervals[0].t0) xm = xm.map((v, i) => v + dot(beta[i], dirac.area));
     const jump = schedule.jumps.find((j) => j.t === iv.t0);
-    const sols = modal.blocks.map((b) =>
-      solveBlock(b, pick(xm, b), pickRows(beta, b).map((row) => dot(row, iv.u)), pickRows(beta, b).map((row) => dot(row, iv.slope)), span),
-    );
+    const sols = modal.blocks.map((b) => solveBlockForced(b, pick(xm, b), forcingsFor(b, beta, iv.components), span));
     readouts.forEach((r, w) => {
-      const terms = collectTerms(modal.blocks, sols, gammas[w], span);
-      const direct = dot(r.D, iv.u) + dot(r.D1, iv.slope);
-      addPoly(terms, [direct, dot(r.D, iv.slope)]);
+      const terms = collect(modal.blocks, sols, gammas[w], span);
+      terms.push(...directTerms(r.D, iv.components), ...directTerms(r.D1, iv.slopes));
       let impulseArea = 0;
       if (dirac) impulseArea += dot(r.D, dirac.area);
       if (jump) impulseArea += dot(r.D1, jump.delta);
-      pieces[w].push({ t0: iv.t0, t1: iv.t1, terms: tidy(terms), impulseArea });
+      pieces[w].push({ t0: iv.t0, t1: iv.t1, terms: simplifyTerms(terms), impulseArea });
     });
-    const tau = iv.t1 - iv.t0;
-    const next = new Array<number>(ss.n).fill(0);
-    modal.blocks.forEach((b, k) => {
-      const s = sols[k];
-      const free = s.w ? blockExp(b, tau, s.w) : b.index.map(() => 0);
-      b.index.forEach((col, i) => {
-        let v = free[i];
-        let p = 1;
-        for (const c of s.poly) {
-          v += c[i] * p;
-          p *= tau;
-        }
-        next[col] = v;
-      });
-    });
-    xm = next;
+    xm = advance(modal, sols, iv);
   }
-  return { pieces, starts };
+  return { pieces, final: ss.n ? matvec(modal.W, xm) : [] };
+}
+
+function advance(modal: Modal, sols: BlockSolution[], iv: Interval): Vec {
+  const next = new Array<number>(modal.n).fill(0);
+  modal.blocks.forEach((b, k) => {
+    const v = blockStateAt(b, sols[k], iv.t1 - iv.t0);
+    b.index.forEach((col, i) => (next[col] = v[i]));
+  });
+  return next;
+}
+
+/** Read-out terms that follow the inputs directly: Re[d·c·τ^p·e^(sτ)]. */
+function directTerms(d: Vec, comps: Component[]): Term[] {
+  const out: Term[] = [];
+  for (const k of comps) {
+    const w = d[k.input];
+    if (!w) continue;
+    const coefs: C[] = new Array(k.power + 1).fill(c(0));
+    coefs[k.power] = c(w * k.re, w * k.im);
+    out.push(quasiTerm(c(k.sigma, k.omega), coefs));
+  }
+  return out;
+}
+
+function forcingsFor(b: Block, beta: Mat, comps: Component[]): Forcing[] {
+  return comps.map((k) => ({
+    power: k.power,
+    s: c(k.sigma, k.omega),
+    g: b.index.map((i) => c(beta[i][k.input] * k.re, beta[i][k.input] * k.im)),
+  }));
 }
 
 /** Impulse and step response of each source-to-read-out path, as closed forms in t. */
@@ -67,70 +81,43 @@ export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: nu
   return ss.inputs.map((source, j) => {
     const bj = beta.map((row) => row[j]);
     const zero = (b: Block) => b.index.map(() => 0);
-    const impulseTerms = collectTerms(modal.blocks, modal.blocks.map((b) => ({ poly: [], w: pick(bj, b) })), gamma, span);
-    const stepSols = modal.blocks.map((b) => solveBlock(b, zero(b), pick(bj, b), zero(b), span));
-    const stepTerms = collectTerms(modal.blocks, stepSols, gamma, span);
-    addPoly(stepTerms, [r.D[j]]);
-    // H(0) = D − C·A⁻¹·B: the constant of the step response when every block has a particular solution
-    const integrates = stepSols.some((s) => s.w === null);
-    let dc = r.D[j];
-    modal.blocks.forEach((b, k) => {
-      const p0 = stepSols[k].poly[0];
-      if (p0) dc += dot(pick(gamma, b), p0);
-    });
+    const impulseSols = modal.blocks.map((b) => solveBlockForced(b, pick(bj, b), [], span));
+    const unitStep = (b: Block): Forcing[] => [{ power: 0, s: c(0), g: b.index.map((i) => c(bj[i])) }];
+    const stepSols = modal.blocks.map((b) => solveBlockForced(b, zero(b), unitStep(b), span));
+    const stepTerms = collect(modal.blocks, stepSols, gamma, span);
+    if (r.D[j]) stepTerms.push({ kind: 'exp', lambda: 0, coef: r.D[j] });
+    const simplified = simplifyTerms(stepTerms);
+    // H(0) = the constant of the step response, when every other term decays
+    const decays = simplified.every((t) => t.kind === 'exp' && t.lambda === 0 ? true : decayRate(t) < 0);
+    const constant = simplified.find((t) => t.kind === 'exp' && t.lambda === 0);
     return {
       source,
-      impulse: { terms: tidy(impulseTerms), directArea: r.D[j], derivArea: r.D1[j] },
-      step: { terms: tidy(stepTerms), stepImpulseArea: r.D1[j] },
-      dcGain: integrates ? NaN : dc,
+      impulse: { terms: simplifyTerms(collect(modal.blocks, impulseSols, gamma, span)), directArea: r.D[j], derivArea: r.D1[j] },
+      step: { terms: simplified, stepImpulseArea: r.D1[j] },
+      dcGain: decays ? (constant && constant.kind === 'exp' ? constant.coef : 0) : NaN,
     };
   });
 }
 
-function collectTerms(blocks: Block[], sols: { poly: Vec[]; w: Vec | null }[], gamma: Vec, span: number): Term[] {
-  const terms: Term[] = [];
-  const poly: number[] = [];
-  blocks.forEach((b, k) => {
-    const g = pick(gamma, b);
-    const s = sols[k];
-    s.poly.forEach((c, j) => {
-      poly[j] = (poly[j] ?? 0) + dot(g, c);
-    });
-    if (s.w) terms.push(...blockTerms(b, g, s.w, span));
-  });
-  if (poly.length) terms.unshift({ kind: 'poly-exp', lambda: 0, polyCoefs: poly.map((v) => v ?? 0) });
-  return terms;
-}
-
-function addPoly(terms: Term[], coefs: number[]): void {
-  let p = terms.find((t): t is Extract<Term, { kind: 'poly-exp' }> => t.kind === 'poly-exp' && t.lambda === 0);
-  if (!p) {
-    p = { kind: 'poly-exp', lambda: 0, polyCoefs: [] };
-    terms.unshift(p);
+function decayRate(t: Term): number {
+  switch (t.kind) {
+    case 'exp':
+    case 'poly-exp':
+      return t.lambda;
+    case 'osc':
+    case 'quasi':
+      return t.sigma;
   }
-  coefs.forEach((c, j) => {
-    p!.polyCoefs[j] = (p!.polyCoefs[j] ?? 0) + c;
-  });
 }
 
-/** Drop trailing zero polynomial coefficients and terms that are exactly zero. */
-function tidy(terms: Term[]): Term[] {
-  return terms.filter((t) => {
-    if (t.kind === 'poly-exp') {
-      while (t.polyCoefs.length > 1 && t.polyCoefs[t.polyCoefs.length - 1] === 0) t.polyCoefs.pop();
-      return t.polyCoefs.some((c) => c !== 0);
-    }
-    if (t.kind === 'exp') return t.coef !== 0;
-    return t.cosCoef !== 0 || t.sinCoef !== 0;
-  });
+function collect(blocks: Block[], sols: BlockSolution[], gamma: Vec, span: number): Term[] {
+  const terms: Term[] = [];
+  blocks.forEach((b, k) => terms.push(...blockSolutionTerms(b, sols[k], pick(gamma, b), span)));
+  return terms;
 }
 
 function pick(v: Vec, b: Block): Vec {
   return b.index.map((i) => v[i]);
-}
-
-function pickRows(m: Mat, b: Block): Mat {
-  return b.index.map((i) => m[i]);
 }
 
 function dot(a: Vec, b: Vec): number {
@@ -140,6 +127,6 @@ function dot(a: Vec, b: Vec): number {
 }
 
 function transposeOf(M: Mat): Mat {
-  const c = M.length ? M[0].length : 0;
-  return Array.from({ length: c }, (_, j) => M.map((row) => row[j]));
+  const cc = M.length ? M[0].length : 0;
+  return Array.from({ length: cc }, (_, j) => M.map((row) => row[j]));
 }

@@ -1,104 +1,135 @@
 import type { Waveform } from '../circuit/circuit.js';
+import { type Component, componentDerivative, componentValue } from './component.js';
+import { termModel } from './terms/index.js';
 
 /**
- * The sources over the analysis span as piecewise-affine functions plus Dirac impulses.
- * Between consecutive breakpoints every input is a + s·(t − t0) exactly, which is what the
- * closed-form interval solution needs.
+ * The sources over one stretch of time as sums of exact components (see component.ts) between
+ * breakpoints, plus Dirac impulses. Between consecutive breakpoints no input changes its formula,
+ * which is what the closed-form interval solution needs.
  */
 export interface Interval {
   t0: number;
   t1: number;
-  /** input values at t0+ */
-  u: number[];
-  /** input slopes on the interval */
-  slope: number[];
+  components: Component[];
+  /** derivatives of the inputs on the interval (for read-outs that follow a source's slope) */
+  slopes: Component[];
 }
 
 export interface InputSchedule {
   intervals: Interval[];
   /** Dirac impulses: areas per input, at a breakpoint (t = 0 included) */
   diracs: { t: number; area: number[] }[];
-  /** ideal (zero rise time) jumps of an input at t > 0 */
+  /** jumps of an input at t > 0 (from the end of one interval to the start of the next) */
   jumps: { t: number; delta: number[] }[];
-  /** impulses or jumps that fall outside [0, span] and are therefore not part of the run */
-  outside: { t: number; kind: 'impulse' | 'step' }[];
+  /** impulses that fall outside [0, span] and are therefore not part of the run */
+  outside: { t: number; kind: 'impulse' }[];
+  /** per input, the largest approximation error of its representation (0: exact) */
+  approximation: number[];
 }
 
-export function valueAt(w: Waveform, t: number): number {
+/** Breakpoints of a waveform (times where some term changes formula) within [0, span]. */
+export function breakpointsOf(w: Waveform, span = Infinity): number[] {
+  return w.terms.flatMap((t) => {
+    if (t.kind === 'impulse') return [t.at];
+    if (t.kind === 'expression') return [];
+    return termModel(t, Number.isFinite(span) ? span : 0).breakpoints(span);
+  });
+}
+
+/** Time of the last event of any waveform that should fit into an automatically chosen span. */
+export function lastEventOf(waves: Waveform[]): number {
+  let last = 0;
+  for (const w of waves) {
+    for (const t of w.terms) {
+      if (t.kind === 'step') last = Math.max(last, t.at + t.rise);
+      else if (t.kind === 'impulse' || t.kind === 'approach' || t.kind === 'sine') last = Math.max(last, t.at);
+      else if (t.kind === 'ramp') last = Math.max(last, t.at, Number.isFinite(t.until) ? t.until : 0);
+      else if (t.kind === 'table') last = Math.max(last, ...t.points.map((p) => p.t));
+      else if (t.kind === 'pulse') last = Math.max(last, t.start + (Number.isFinite(t.cycles) ? t.cycles * t.period : t.period));
+    }
+  }
+  return last;
+}
+
+/** A waveform's value just before time t (its left-hand limit), impulses excluded. */
+export function valueLeftOf(w: Waveform, t: number): number {
   let v = 0;
   for (const term of w.terms) {
-    if (term.kind === 'constant') v += term.value;
-    else if (term.kind === 'step') {
-      const frac = term.rise > 0 ? Math.min(1, Math.max(0, (t - term.at) / term.rise)) : t >= term.at ? 1 : 0;
-      v += term.from + (term.to - term.from) * frac;
-    }
+    if (term.kind === 'impulse') continue;
+    const m = termModel(term, Math.max(t, 0));
+    const before = m.breakpoints(Math.max(t, 0)).filter((b) => b < t);
+    const t0 = before.length ? Math.max(...before) : t - 1;
+    for (const k of m.components(t0, t)) v += componentValue({ ...k, input: 0 }, t - t0);
   }
   return v;
 }
 
-function slopeAt(w: Waveform, t: number): number {
-  let s = 0;
-  for (const term of w.terms) {
-    if (term.kind === 'step' && term.rise > 0 && t > term.at && t < term.at + term.rise) {
-      s += (term.to - term.from) / term.rise;
-    }
-  }
-  return s;
-}
-
-/** Times at which some input changes its formula. */
-export function breakpointsOf(w: Waveform): number[] {
-  const out: number[] = [];
-  for (const term of w.terms) {
-    if (term.kind === 'step') out.push(term.at, term.at + term.rise);
-    if (term.kind === 'impulse') out.push(term.at);
-  }
-  return out;
-}
-
-export function buildSchedule(waves: Waveform[], span: number): InputSchedule {
-  const m = waves.length;
+export function buildSchedule(waves: Waveform[], span: number, from = 0): InputSchedule {
   const outside: InputSchedule['outside'] = [];
-  const raw = new Set<number>([0, span]);
-  for (const w of waves) for (const t of breakpointsOf(w)) if (t > 0 && t < span) raw.add(t);
+  const models = waves.map((w) => w.terms.filter((t) => t.kind !== 'impulse').map((t) => termModel(t, span)));
+  const raw = new Set<number>([from, span]);
+  for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.add(t);
+  for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.add(t.at);
   const times = [...raw].sort((a, b) => a - b);
   const intervals: Interval[] = [];
   for (let k = 0; k + 1 < times.length; k++) {
     const t0 = times[k];
     const t1 = times[k + 1];
-    const mid = (t0 + t1) / 2;
-    const slope = waves.map((w) => slopeAt(w, mid));
-    // value at t0+: the affine function through the midpoint, extrapolated (exact, and it picks the
-    // right-hand limit at an ideal jump)
-    const u = waves.map((w, j) => valueAt(w, mid) - slope[j] * (mid - t0));
-    intervals.push({ t0, t1, u, slope });
+    const components: Component[] = [];
+    models.forEach((ms, input) => {
+      for (const m of ms) for (const c of m.components(t0, t1)) components.push({ ...c, input });
+    });
+    intervals.push({ t0, t1, components: merge(components), slopes: merge(components.flatMap(componentDerivative)) });
   }
+  const m = waves.length;
   const diracs: InputSchedule['diracs'] = [];
-  const jumps: InputSchedule['jumps'] = [];
   waves.forEach((w, j) => {
     for (const term of w.terms) {
-      if (term.kind === 'impulse') {
-        if (term.at < 0 || term.at > span) {
-          outside.push({ t: term.at, kind: 'impulse' });
-          continue;
-        }
-        let d = diracs.find((x) => x.t === term.at);
-        if (!d) diracs.push((d = { t: term.at, area: new Array<number>(m).fill(0) }));
-        d.area[j] += term.area;
+      if (term.kind !== 'impulse') continue;
+      if (term.at < from || term.at > span) {
+        outside.push({ t: term.at, kind: 'impulse' });
+        continue;
       }
-      if (term.kind === 'step' && term.rise === 0 && term.to !== term.from) {
-        if (term.at <= 0) continue; // already in the value at 0+
-        if (term.at > span) {
-          outside.push({ t: term.at, kind: 'step' });
-          continue;
-        }
-        let d = jumps.find((x) => x.t === term.at);
-        if (!d) jumps.push((d = { t: term.at, delta: new Array<number>(m).fill(0) }));
-        d.delta[j] += term.to - term.from;
-      }
+      let d = diracs.find((x) => x.t === term.at);
+      if (!d) diracs.push((d = { t: term.at, area: new Array<number>(m).fill(0) }));
+      d.area[j] += term.area;
     }
   });
   diracs.sort((a, b) => a.t - b.t);
-  jumps.sort((a, b) => a.t - b.t);
-  return { intervals, diracs, jumps, outside };
+  const jumps: InputSchedule['jumps'] = [];
+  for (let k = 1; k < intervals.length; k++) {
+    const before = inputValues(intervals[k - 1], m, intervals[k - 1].t1 - intervals[k - 1].t0);
+    const after = inputValues(intervals[k], m, 0);
+    const delta = after.map((v, j) => v - before[j]);
+    const scale = Math.max(...before.map(Math.abs), ...after.map(Math.abs), 1e-300);
+    if (delta.some((d) => Math.abs(d) > 1e-12 * scale)) jumps.push({ t: intervals[k].t0, delta });
+  }
+  const approximation = models.map((ms) => Math.max(0, ...ms.map((x) => x.approximationError)));
+  return { intervals, diracs, jumps, outside, approximation };
+}
+
+/** The inputs' values at τ into an interval. */
+export function inputValues(iv: Interval, m: number, tau: number): number[] {
+  const u = new Array<number>(m).fill(0);
+  for (const c of iv.components) u[c.input] += componentValue(c, tau);
+  return u;
+}
+
+export function inputSlopes(iv: Interval, m: number, tau: number): number[] {
+  const u = new Array<number>(m).fill(0);
+  for (const c of iv.slopes) u[c.input] += componentValue(c, tau);
+  return u;
+}
+
+/** Combine components that differ only in coefficient. */
+function merge(list: Component[]): Component[] {
+  const out: Component[] = [];
+  for (const c of list) {
+    const same = out.find((o) => o.input === c.input && o.power === c.power && o.sigma === c.sigma && o.omega === c.omega);
+    if (same) {
+      same.re += c.re;
+      same.im += c.im;
+    } else out.push({ ...c });
+  }
+  return out.filter((c) => c.re !== 0 || c.im !== 0);
 }

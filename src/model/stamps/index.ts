@@ -19,6 +19,9 @@ export function stampPart(part: Part, ctx: StampContext): void {
       return stampVoltageSource(part, ctx);
     case 'current-source':
       return stampCurrentSource(part, ctx);
+    case 'switch':
+      // switches are resolved to resistors (or removed) per switch configuration before stamping
+      throw new Error(`internal: switch ${part.name} reached the stamping stage unresolved`);
   }
 }
 

@@ -1,0 +1,158 @@
+import type { Term } from '../simulate/result.js';
+import type { Vec } from '../linalg/dense.js';
+import { solveSquare } from '../linalg/factor.js';
+import { blockExp, blockTerms } from './block.js';
+import { type C, c, cabs, cadd, cdiv, cmul, cscale, csub } from './complex.js';
+import type { Block } from './modal.js';
+import { project, projectC, scalarModes } from './scalar-modes.js';
+
+/**
+ * Exact response of one modal block on an interval where the forcing is a sum of
+ * g·τ^p·e^(sτ) terms (g a complex vector over the block, the real part taken at the end):
+ *
+ *   ξ(τ) = Re Σ_q Σ_j vecs[q][j]·τʲ·e^(κ_q τ)   (+ e^(Tτ)·clusterFree for cluster blocks)
+ *
+ * For each scalar mode λ and forcing (p, s): if s is well away from λ the particular solution is
+ * e^(sτ)·Σ_j q_j τʲ with q_p = g/(s − λ), q_j = −(j+1)·q_(j+1)/(s − λ); close to resonance
+ * (|s − λ|·span < 0.01) it is g·e^(λτ)·Σ_k (s − λ)^k τ^(p+k+1)/(k!(p+k+1)), which is exact and
+ * continuous through s = λ (the secular t·e^(λt) growth of a circuit driven at its own mode).
+ */
+export interface Forcing {
+  power: number;
+  s: C;
+  /** complex forcing vector over the block's coordinates */
+  g: C[];
+}
+
+export interface VQuasi {
+  kappa: C;
+  vecs: C[][];
+}
+
+export interface BlockSolution {
+  quasi: VQuasi[];
+  clusterFree: Vec | null;
+}
+
+const RESONANCE = 1e-2;
+
+export function solveBlockForced(b: Block, xi0: Vec, forcings: Forcing[], span: number): BlockSolution {
+  const modes = scalarModes(b);
+  if (modes) {
+    const quasi: VQuasi[] = [];
+    for (const m of modes) {
+      let eta0 = project(m.left, xi0);
+      for (const f of forcings) {
+        const G = projectC(m.left, f.g);
+        if (G.re === 0 && G.im === 0) continue;
+        const part = scalarParticular(m.lambda, f.power, f.s, G, span);
+        eta0 = csub(eta0, part.coefs[0] ?? c(0));
+        quasi.push({ kappa: part.kappa, vecs: part.coefs.map((q) => m.right.map((r) => cmul(r, q))) });
+      }
+      quasi.push({ kappa: m.lambda, vecs: [m.right.map((r) => cmul(r, eta0))] });
+    }
+    return { quasi, clusterFree: null };
+  }
+  // cluster block: particular solutions by the matrix recursion, free response by the series
+  const k = b.T.length;
+  const quasi: VQuasi[] = [];
+  const p0 = new Array<number>(k).fill(0);
+  for (const f of forcings) {
+    const vecs = clusterParticular(b, f);
+    quasi.push({ kappa: f.s, vecs });
+    vecs[0]?.forEach((v, i) => (p0[i] += v.re));
+  }
+  return { quasi, clusterFree: xi0.map((v, i) => v - p0[i]) };
+}
+
+function scalarParticular(lambda: C, p: number, s: C, G: C, span: number): { kappa: C; coefs: C[] } {
+  const d = csub(s, lambda);
+  if (cabs(d) * span < RESONANCE) {
+    // ∫0^τ e^(λ(τ−u))·G·u^p·e^(su) du = G·e^(λτ)·Σ_k d^k τ^(p+k+1) / (k!·(p+k+1))
+    const coefs: C[] = new Array(p + 1).fill(c(0));
+    let dk = c(1);
+    let fact = 1;
+    for (let kk = 0; kk < 40; kk++) {
+      coefs.push(cscale(cmul(G, dk), 1 / (fact * (p + kk + 1))));
+      const size = (cabs(dk) * span ** (kk + 1)) / fact;
+      if (kk > 2 && size < 1e-20) break;
+      dk = cmul(dk, d);
+      fact *= kk + 1;
+    }
+    return { kappa: lambda, coefs };
+  }
+  const coefs: C[] = new Array(p + 1);
+  coefs[p] = cdiv(G, d);
+  for (let j = p - 1; j >= 0; j--) coefs[j] = cscale(cdiv(coefs[j + 1], d), -(j + 1));
+  return { kappa: s, coefs };
+}
+
+/** (sI − T)·q_p = g;  (sI − T)·q_j = −(j+1)·q_(j+1). */
+function clusterParticular(b: Block, f: Forcing): C[][] {
+  const k = b.T.length;
+  const radius = Math.max(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
+  const near = Math.min(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
+  if (near <= 1e-9 * Math.max(radius, Math.hypot(f.s.re, f.s.im), 1e-300)) {
+    throw new Error('a source drives a repeated pole of the circuit at exactly its own rate; this case is not supported');
+  }
+  // real 2k×2k form of (sI − T) acting on [Re q; Im q]
+  const M: number[][] = [];
+  for (let i = 0; i < k; i++) {
+    M.push([...b.T[i].map((v, j) => (i === j ? f.s.re : 0) - v), ...b.T[i].map((_, j) => (i === j ? -f.s.im : 0))]);
+  }
+  for (let i = 0; i < k; i++) {
+    M.push([...b.T[i].map((_, j) => (i === j ? f.s.im : 0)), ...b.T[i].map((v, j) => (i === j ? f.s.re : 0) - v)]);
+  }
+  const solve = (rhs: C[]): C[] => {
+    const x = solveSquare(M, [...rhs.map((z) => [z.re]), ...rhs.map((z) => [z.im])]).map((r) => r[0]);
+    return Array.from({ length: k }, (_, i) => c(x[i], x[k + i]));
+  };
+  const vecs: C[][] = new Array(f.power + 1);
+  vecs[f.power] = solve(f.g);
+  for (let j = f.power - 1; j >= 0; j--) vecs[j] = solve(vecs[j + 1].map((z) => cscale(z, -(j + 1))));
+  return vecs;
+}
+
+/** Block state at τ. */
+export function blockStateAt(b: Block, sol: BlockSolution, tau: number): Vec {
+  const k = b.T.length;
+  const out = sol.clusterFree ? blockExp(b, tau, sol.clusterFree) : new Array<number>(k).fill(0);
+  for (const q of sol.quasi) {
+    const e = cexpScaled(q.kappa, tau);
+    let pw = 1;
+    for (const v of q.vecs) {
+      const f = cscale(e, pw);
+      for (let i = 0; i < k; i++) out[i] += v[i].re * f.re - v[i].im * f.im;
+      pw *= tau;
+    }
+  }
+  return out;
+}
+
+function cexpScaled(k: C, tau: number): C {
+  const m = Math.exp(k.re * tau);
+  return k.im === 0 ? c(m) : c(m * Math.cos(k.im * tau), m * Math.sin(k.im * tau));
+}
+
+/** Terms of γ·ξ(τ) for an output row γ restricted to the block. */
+export function blockSolutionTerms(b: Block, sol: BlockSolution, gamma: Vec, span: number): Term[] {
+  const terms: Term[] = [];
+  for (const q of sol.quasi) {
+    const coefs = q.vecs.map((v) => v.reduce((acc: C, z, i) => cadd(acc, cscale(z, gamma[i])), c(0)));
+    terms.push(quasiTerm(q.kappa, coefs));
+  }
+  if (sol.clusterFree) terms.push(...blockTerms(b, gamma, sol.clusterFree, span));
+  return terms;
+}
+
+/** Re[(Σ coefs_j τʲ)·e^(κτ)] as a term with ω ≥ 0. */
+export function quasiTerm(kappa: C, coefs: C[]): Term {
+  const flip = kappa.im < 0 ? -1 : 1;
+  return {
+    kind: 'quasi',
+    sigma: kappa.re,
+    omega: Math.abs(kappa.im),
+    cosPoly: coefs.map((z) => z.re),
+    sinPoly: coefs.map((z) => -z.im * flip),
+  };
+}
