@@ -1,0 +1,962 @@
+/**
+ * Dense real eigen-decompositions on flat Float64Arrays.
+ *
+ *  - eig(A):            general real n×n matrix. Balancing (Parlett–Reinsch scaling by powers of 2),
+ *                       Householder reduction to upper Hessenberg form, Francis double-shift QR with
+ *                       deflation accumulating the Schur vectors, eigenvectors by back-substitution
+ *                       on the quasi-triangular Schur form, back-transformation and undoing the
+ *                       balancing. The QR iteration and back-substitution follow the classic
+ *                       EISPACK hqr2 structure (textbook, from memory).
+ *  - eigSymmetric(S):   real symmetric matrix. Householder tridiagonalization and implicit QL with
+ *                       Wilkinson-type shifts (EISPACK tred2/tql2 structure, from memory).
+ *  - eigRC(C, G):       the state matrix of an RC network, A = −C⁻¹·G with C, G symmetric positive
+ *                       (semi)definite, through a symmetric problem (all poles real, ≤ 0).
+ *
+ * Output conventions of eig() are those of ml-matrix's EigenvalueDecomposition, so it can stand in
+ * for it: eigenvalues re[i] + j·im[i]; a complex-conjugate pair occupies i, i+1 with im[i] > 0 and
+ * im[i+1] = −im[i]; column i of V holds Re v and column i+1 holds Im v, where v is the eigenvector
+ * of re[i] + j·im[i]. Then A·V = V·D with D block diagonal, 1×1 blocks [re] and 2×2 blocks
+ * [[re, im], [−im, re]]. Unlike ml-matrix, each eigenvector is scaled to unit 2-norm (a complex
+ * pair: ‖Re v‖² + ‖Im v‖² = 1); the directions are the same.
+ *
+ * Storage: eig works row-major (a[i·n + j]); eigSymmetric works column-major internally (the
+ * rotations of the QL sweep then run along contiguous memory). Both accept and return number[][].
+ */
+
+export interface EigResult {
+  re: number[];
+  im: number[];
+  /** eigenvector matrix, row-major number[][] (columns are eigenvectors) */
+  V: number[][];
+}
+
+export interface EigFlatResult {
+  n: number;
+  re: Float64Array;
+  im: Float64Array;
+  /** row-major n×n eigenvector matrix */
+  V: Float64Array;
+}
+
+const EPS = 2 ** -52;
+
+/** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
+export function eig(A: number[][]): EigResult {
+  const n = A.length;
+  const a = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    const row = A[i];
+    if (row.length !== n) throw new Error(`eig: matrix is not square (row ${i} has ${row.length} entries, expected ${n})`);
+    for (let j = 0; j < n; j++) a[i * n + j] = row[j];
+  }
+  const r = eigFlat(a, n);
+  return { re: Array.from(r.re), im: Array.from(r.im), V: toRows(r.V, n) };
+}
+
+/**
+ * The same on a row-major Float64Array; `a` is overwritten (it ends up holding the back-substituted
+ * Schur form). Throws when an entry is not finite or the QR iteration fails to converge.
+ */
+export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean } = {}): EigFlatResult {
+  if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
+  for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  const V = new Float64Array(n * n);
+  if (n === 0) return { n, re, im, V };
+  const scale = new Float64Array(n).fill(1);
+  if (opts.balance !== false) balance(a, n, scale);
+  hessenberg(a, n, V);
+  hqr2(a, n, V, re, im);
+  // undo the balancing: eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂
+  for (let i = 0; i < n; i++) {
+    const s = scale[i];
+    if (s !== 1) for (let j = 0; j < n; j++) V[i * n + j] *= s;
+  }
+  normalizeColumns(V, n, im);
+  return { n, re, im, V };
+}
+
+function toRows(v: Float64Array, n: number): number[][] {
+  const out: number[][] = new Array(n);
+  for (let i = 0; i < n; i++) out[i] = Array.from(v.subarray(i * n, i * n + n));
+  return out;
+}
+
+/**
+ * Parlett–Reinsch balancing: a diagonal similarity D⁻¹·A·D with D a power of 2 per index (so no
+ * rounding), chosen so that each row and its column have comparable 1-norms. `scale` receives D.
+ */
+export function balance(a: Float64Array, n: number, scale: Float64Array): void {
+  const RADIX = 2;
+  const SQRDX = RADIX * RADIX;
+  let noconv = true;
+  for (let sweep = 0; noconv && sweep < 100; sweep++) {
+    noconv = false;
+    for (let i = 0; i < n; i++) {
+      let c = 0;
+      let r = 0;
+      for (let j = 0; j < n; j++) {
+        if (j === i) continue;
+        c += Math.abs(a[j * n + i]);
+        r += Math.abs(a[i * n + j]);
+      }
+      if (c === 0 || r === 0) continue;
+      let g = r / RADIX;
+      let f = 1;
+      const s = c + r;
+      while (c < g && f < 1e150) {
+        f *= RADIX;
+        c *= SQRDX;
+      }
+      g = r * RADIX;
+      while (c >= g && f > 1e-150) {
+        f /= RADIX;
+        c /= SQRDX;
+      }
+      if ((c + r) / f < 0.95 * s) {
+        scale[i] *= f;
+        noconv = true;
+        const inv = 1 / f;
+        for (let j = 0; j < n; j++) a[i * n + j] *= inv;
+        for (let j = 0; j < n; j++) a[j * n + i] *= f;
+      }
+    }
+  }
+}
+
+/**
+ * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place; V receives Q.
+ * Entries below the subdiagonal are left holding the Householder vectors (hqr2 ignores them).
+ */
+function hessenberg(H: Float64Array, n: number, V: Float64Array): void {
+  const low = 0;
+  const high = n - 1;
+  const ort = new Float64Array(n);
+  const f = new Float64Array(n);
+  for (let m = low + 1; m <= high - 1; m++) {
+    let scale = 0;
+    for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
+    if (scale === 0) continue;
+    let h = 0;
+    for (let i = high; i >= m; i--) {
+      ort[i] = H[i * n + m - 1] / scale;
+      h += ort[i] * ort[i];
+    }
+    let g = Math.sqrt(h);
+    if (ort[m] > 0) g = -g;
+    h -= ort[m] * g;
+    ort[m] -= g;
+    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h)
+    f.fill(0, m, n);
+    for (let i = m; i <= high; i++) {
+      const oi = ort[i];
+      if (oi === 0) continue;
+      const base = i * n;
+      for (let j = m; j < n; j++) f[j] += oi * H[base + j];
+    }
+    for (let i = m; i <= high; i++) {
+      const oi = ort[i] / h;
+      if (oi === 0) continue;
+      const base = i * n;
+      for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
+    }
+    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high
+    for (let i = 0; i <= high; i++) {
+      const base = i * n;
+      let s = 0;
+      for (let j = m; j <= high; j++) s += ort[j] * H[base + j];
+      s /= h;
+      for (let j = m; j <= high; j++) H[base + j] -= s * ort[j];
+    }
+    ort[m] *= scale;
+    H[m * n + m - 1] = scale * g;
+  }
+  // accumulate the transformations: V = Q
+  V.fill(0);
+  for (let i = 0; i < n; i++) V[i * n + i] = 1;
+  const gcol = new Float64Array(n);
+  for (let m = high - 1; m >= low + 1; m--) {
+    const hm = H[m * n + m - 1];
+    if (hm === 0) continue;
+    for (let i = m + 1; i <= high; i++) ort[i] = H[i * n + m - 1];
+    // g_j = (uᵀ·V[:, j]) / (u_m · h_m)  for j = m..high, then V[:, j] += g_j·u
+    gcol.fill(0, m, high + 1);
+    for (let i = m; i <= high; i++) {
+      const oi = ort[i];
+      if (oi === 0) continue;
+      const base = i * n;
+      for (let j = m; j <= high; j++) gcol[j] += oi * V[base + j];
+    }
+    const den = ort[m];
+    for (let j = m; j <= high; j++) gcol[j] = gcol[j] / den / hm; // two divisions avoid underflow
+    for (let i = m; i <= high; i++) {
+      const oi = ort[i];
+      if (oi === 0) continue;
+      const base = i * n;
+      for (let j = m; j <= high; j++) V[base + j] += gcol[j] * oi;
+    }
+  }
+}
+
+/** Complex division (xr + j·xi)/(yr + j·yi), scaled to avoid overflow. */
+function cdiv(xr: number, xi: number, yr: number, yi: number, out: Float64Array): void {
+  if (Math.abs(yr) > Math.abs(yi)) {
+    const r = yi / yr;
+    const d = yr + r * yi;
+    out[0] = (xr + r * xi) / d;
+    out[1] = (xi - r * xr) / d;
+  } else {
+    const r = yr / yi;
+    const d = yi + r * yr;
+    out[0] = (r * xr + xi) / d;
+    out[1] = (r * xi - xr) / d;
+  }
+}
+
+const MAX_ITER_PER_EIGENVALUE = 60;
+
+/**
+ * Francis double-shift QR on the Hessenberg matrix H (row-major, in place) with deflation,
+ * accumulating the Schur vectors in V, followed by back-substitution for the eigenvectors of the
+ * quasi-triangular form and back-transformation V := V·X.
+ */
+function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: Float64Array): void {
+  let n = nn - 1;
+  const low = 0;
+  const high = nn - 1;
+  let exshift = 0;
+  let p = 0;
+  let q = 0;
+  let r = 0;
+  let s = 0;
+  let z = 0;
+  let t: number;
+  let w: number;
+  let x: number;
+  let y: number;
+
+  let norm = 0;
+  for (let i = 0; i < nn; i++) for (let j = Math.max(i - 1, 0); j < nn; j++) norm += Math.abs(H[i * nn + j]);
+
+  if (norm === 0) {
+    // the zero matrix: all eigenvalues 0, V = I from the Hessenberg stage
+    d.fill(0);
+    e.fill(0);
+    return;
+  }
+  let iter = 0;
+  let totalIter = 0;
+  const maxTotal = MAX_ITER_PER_EIGENVALUE * Math.max(nn, 1);
+  while (n >= low) {
+    // look for a single small subdiagonal element
+    let l = n;
+    while (l > low) {
+      s = Math.abs(H[(l - 1) * nn + l - 1]) + Math.abs(H[l * nn + l]);
+      if (s === 0) s = norm;
+      if (Math.abs(H[l * nn + l - 1]) <= EPS * s) break;
+      l--;
+    }
+    if (l === n) {
+      // one root found
+      H[n * nn + n] += exshift;
+      d[n] = H[n * nn + n];
+      e[n] = 0;
+      n--;
+      iter = 0;
+    } else if (l === n - 1) {
+      // two roots found
+      w = H[n * nn + n - 1] * H[(n - 1) * nn + n];
+      p = (H[(n - 1) * nn + n - 1] - H[n * nn + n]) / 2;
+      q = p * p + w;
+      z = Math.sqrt(Math.abs(q));
+      H[n * nn + n] += exshift;
+      H[(n - 1) * nn + n - 1] += exshift;
+      x = H[n * nn + n];
+      if (q >= 0) {
+        // real pair: rotate to upper triangular
+        z = p >= 0 ? p + z : p - z;
+        d[n - 1] = x + z;
+        d[n] = d[n - 1];
+        if (z !== 0) d[n] = x - w / z;
+        e[n - 1] = 0;
+        e[n] = 0;
+        x = H[n * nn + n - 1];
+        s = Math.abs(x) + Math.abs(z);
+        p = x / s;
+        q = z / s;
+        r = Math.sqrt(p * p + q * q);
+        p /= r;
+        q /= r;
+        for (let j = n - 1; j < nn; j++) {
+          z = H[(n - 1) * nn + j];
+          H[(n - 1) * nn + j] = q * z + p * H[n * nn + j];
+          H[n * nn + j] = q * H[n * nn + j] - p * z;
+        }
+        for (let i = 0; i <= n; i++) {
+          const b = i * nn;
+          z = H[b + n - 1];
+          H[b + n - 1] = q * z + p * H[b + n];
+          H[b + n] = q * H[b + n] - p * z;
+        }
+        for (let i = low; i <= high; i++) {
+          const b = i * nn;
+          z = V[b + n - 1];
+          V[b + n - 1] = q * z + p * V[b + n];
+          V[b + n] = q * V[b + n] - p * z;
+        }
+      } else {
+        // complex pair
+        d[n - 1] = x + p;
+        d[n] = x + p;
+        e[n - 1] = z;
+        e[n] = -z;
+      }
+      n -= 2;
+      iter = 0;
+    } else {
+      // no convergence yet: form the shift
+      x = H[n * nn + n];
+      y = 0;
+      w = 0;
+      if (l < n) {
+        y = H[(n - 1) * nn + n - 1];
+        w = H[n * nn + n - 1] * H[(n - 1) * nn + n];
+      }
+      if (iter === 10) {
+        // Wilkinson's original ad hoc shift
+        exshift += x;
+        for (let i = low; i <= n; i++) H[i * nn + i] -= x;
+        s = Math.abs(H[n * nn + n - 1]) + Math.abs(H[(n - 1) * nn + n - 2]);
+        x = y = 0.75 * s;
+        w = -0.4375 * s * s;
+      }
+      if (iter === 30) {
+        // a second exceptional shift
+        s = (y - x) / 2;
+        s = s * s + w;
+        if (s > 0) {
+          s = Math.sqrt(s);
+          if (y < x) s = -s;
+          s = x - w / ((y - x) / 2 + s);
+          for (let i = low; i <= n; i++) H[i * nn + i] -= s;
+          exshift += s;
+          x = y = w = 0.964;
+        }
+      }
+      iter++;
+      if (++totalIter > maxTotal) throw new Error('eig: the QR iteration did not converge');
+      // look for two consecutive small subdiagonal elements
+      let m = n - 2;
+      while (m >= l) {
+        z = H[m * nn + m];
+        r = x - z;
+        s = y - z;
+        p = (r * s - w) / H[(m + 1) * nn + m] + H[m * nn + m + 1];
+        q = H[(m + 1) * nn + m + 1] - z - r - s;
+        r = H[(m + 2) * nn + m + 1];
+        s = Math.abs(p) + Math.abs(q) + Math.abs(r);
+        p /= s;
+        q /= s;
+        r /= s;
+        if (m === l) break;
+        if (
+          Math.abs(H[m * nn + m - 1]) * (Math.abs(q) + Math.abs(r)) <
+          EPS * (Math.abs(p) * (Math.abs(H[(m - 1) * nn + m - 1]) + Math.abs(z) + Math.abs(H[(m + 1) * nn + m + 1])))
+        ) {
+          break;
+        }
+        m--;
+      }
+      for (let i = m + 2; i <= n; i++) {
+        H[i * nn + i - 2] = 0;
+        if (i > m + 2) H[i * nn + i - 3] = 0;
+      }
+      // double QR step on rows l..n and columns m..n
+      for (let k = m; k <= n - 1; k++) {
+        const notlast = k !== n - 1;
+        if (k !== m) {
+          p = H[k * nn + k - 1];
+          q = H[(k + 1) * nn + k - 1];
+          r = notlast ? H[(k + 2) * nn + k - 1] : 0;
+          x = Math.abs(p) + Math.abs(q) + Math.abs(r);
+          if (x === 0) continue;
+          p /= x;
+          q /= x;
+          r /= x;
+        }
+        s = Math.sqrt(p * p + q * q + r * r);
+        if (p < 0) s = -s;
+        if (s === 0) continue;
+        if (k !== m) H[k * nn + k - 1] = -s * x;
+        else if (l !== m) H[k * nn + k - 1] = -H[k * nn + k - 1];
+        p += s;
+        x = p / s;
+        y = q / s;
+        z = r / s;
+        q /= p;
+        r /= p;
+        const bk = k * nn;
+        const bk1 = bk + nn;
+        const bk2 = bk1 + nn;
+        // row modification
+        if (notlast) {
+          for (let j = k; j < nn; j++) {
+            const pj = H[bk + j] + q * H[bk1 + j] + r * H[bk2 + j];
+            H[bk + j] -= pj * x;
+            H[bk1 + j] -= pj * y;
+            H[bk2 + j] -= pj * z;
+          }
+        } else {
+          for (let j = k; j < nn; j++) {
+            const pj = H[bk + j] + q * H[bk1 + j];
+            H[bk + j] -= pj * x;
+            H[bk1 + j] -= pj * y;
+          }
+        }
+        // column modification
+        const iEnd = Math.min(n, k + 3);
+        if (notlast) {
+          for (let i = 0; i <= iEnd; i++) {
+            const b = i * nn + k;
+            const pi = x * H[b] + y * H[b + 1] + z * H[b + 2];
+            H[b] -= pi;
+            H[b + 1] -= pi * q;
+            H[b + 2] -= pi * r;
+          }
+          for (let i = low; i <= high; i++) {
+            const b = i * nn + k;
+            const pi = x * V[b] + y * V[b + 1] + z * V[b + 2];
+            V[b] -= pi;
+            V[b + 1] -= pi * q;
+            V[b + 2] -= pi * r;
+          }
+        } else {
+          for (let i = 0; i <= iEnd; i++) {
+            const b = i * nn + k;
+            const pi = x * H[b] + y * H[b + 1];
+            H[b] -= pi;
+            H[b + 1] -= pi * q;
+          }
+          for (let i = low; i <= high; i++) {
+            const b = i * nn + k;
+            const pi = x * V[b] + y * V[b + 1];
+            V[b] -= pi;
+            V[b + 1] -= pi * q;
+          }
+        }
+      }
+    }
+  }
+
+  // Back-substitute to find the eigenvectors of the upper quasi-triangular form. Column n of the
+  // result is built in the contiguous work vectors xr (and xi for the second column of a pair).
+  const xr = new Float64Array(nn);
+  const xi = new Float64Array(nn);
+  const cd = new Float64Array(2);
+  for (n = nn - 1; n >= 0; n--) {
+    p = d[n];
+    q = e[n];
+    if (q === 0) {
+      // real eigenvector
+      let l = n;
+      xr[n] = 1;
+      for (let i = n - 1; i >= 0; i--) {
+        const bi = i * nn;
+        w = H[bi + i] - p;
+        r = 0;
+        for (let j = l; j <= n; j++) r += H[bi + j] * xr[j];
+        if (e[i] < 0) {
+          z = w;
+          s = r;
+        } else {
+          l = i;
+          if (e[i] === 0) {
+            xr[i] = w !== 0 ? -r / w : -r / (EPS * norm);
+          } else {
+            // solve the real 2×2 system of a complex-pair block
+            x = H[bi + i + 1];
+            y = H[bi + nn + i];
+            q = (d[i] - p) * (d[i] - p) + e[i] * e[i];
+            t = (x * s - z * r) / q;
+            xr[i] = t;
+            xr[i + 1] = Math.abs(x) > Math.abs(z) ? (-r - w * t) / x : (-s - y * t) / z;
+          }
+          // overflow control
+          t = Math.abs(xr[i]);
+          if (EPS * t * t > 1) for (let j = i; j <= n; j++) xr[j] /= t;
+        }
+      }
+      for (let i = 0; i <= n; i++) H[i * nn + n] = xr[i];
+    } else if (q < 0) {
+      // complex eigenvector: columns n−1 (real part) and n (imaginary part)
+      let l = n - 1;
+      const bn = n * nn;
+      const bn1 = bn - nn;
+      if (Math.abs(H[bn + n - 1]) > Math.abs(H[bn1 + n])) {
+        xr[n - 1] = q / H[bn + n - 1];
+        xi[n - 1] = -(H[bn + n] - p) / H[bn + n - 1];
+      } else {
+        cdiv(0, -H[bn1 + n], H[bn1 + n - 1] - p, q, cd);
+        xr[n - 1] = cd[0];
+        xi[n - 1] = cd[1];
+      }
+      xr[n] = 0;
+      xi[n] = 1;
+      let ra: number;
+      let sa: number;
+      let vr: number;
+      let vi: number;
+      for (let i = n - 2; i >= 0; i--) {
+        const bi = i * nn;
+        ra = 0;
+        sa = 0;
+        for (let j = l; j <= n; j++) {
+          const hij = H[bi + j];
+          ra += hij * xr[j];
+          sa += hij * xi[j];
+        }
+        w = H[bi + i] - p;
+        if (e[i] < 0) {
+          z = w;
+          r = ra;
+          s = sa;
+        } else {
+          l = i;
+          if (e[i] === 0) {
+            cdiv(-ra, -sa, w, q, cd);
+            xr[i] = cd[0];
+            xi[i] = cd[1];
+          } else {
+            // solve the complex 2×2 system
+            x = H[bi + i + 1];
+            y = H[bi + nn + i];
+            vr = (d[i] - p) * (d[i] - p) + e[i] * e[i] - q * q;
+            vi = (d[i] - p) * 2 * q;
+            if (vr === 0 && vi === 0) vr = EPS * norm * (Math.abs(w) + Math.abs(q) + Math.abs(x) + Math.abs(y) + Math.abs(z));
+            cdiv(x * r - z * ra + q * sa, x * s - z * sa - q * ra, vr, vi, cd);
+            xr[i] = cd[0];
+            xi[i] = cd[1];
+            if (Math.abs(x) > Math.abs(z) + Math.abs(q)) {
+              xr[i + 1] = (-ra - w * xr[i] + q * xi[i]) / x;
+              xi[i + 1] = (-sa - w * xi[i] - q * xr[i]) / x;
+            } else {
+              cdiv(-r - y * xr[i], -s - y * xi[i], z, q, cd);
+              xr[i + 1] = cd[0];
+              xi[i + 1] = cd[1];
+            }
+          }
+          // overflow control
+          t = Math.max(Math.abs(xr[i]), Math.abs(xi[i]));
+          if (EPS * t * t > 1) {
+            for (let j = i; j <= n; j++) {
+              xr[j] /= t;
+              xi[j] /= t;
+            }
+          }
+        }
+      }
+      for (let i = 0; i <= n; i++) {
+        H[i * nn + n - 1] = xr[i];
+        H[i * nn + n] = xi[i];
+      }
+      // H[n][n−1] now holds Re v_n = 0, which the back-transformation below never reads
+    }
+  }
+
+  // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
+  // (column j of X uses rows 0..j only), one row of V at a time.
+  const row = new Float64Array(nn);
+  for (let i = low; i <= high; i++) {
+    const bi = i * nn;
+    row.fill(0);
+    for (let k = 0; k < nn; k++) {
+      const vik = V[bi + k];
+      if (vik === 0) continue;
+      const bk = k * nn;
+      for (let j = k; j < nn; j++) row[j] += vik * H[bk + j];
+    }
+    V.set(row, bi);
+  }
+}
+
+/** Unit 2-norm columns; a complex pair (columns i, i+1) is scaled jointly. */
+function normalizeColumns(V: Float64Array, n: number, im: Float64Array): void {
+  const ss = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const b = i * n;
+    for (let j = 0; j < n; j++) ss[j] += V[b + j] * V[b + j];
+  }
+  const f = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    if (im[j] > 0 && j + 1 < n) {
+      const s = Math.sqrt(ss[j] + ss[j + 1]);
+      f[j] = f[j + 1] = s > 0 ? 1 / s : 1;
+      j++;
+    } else {
+      const s = Math.sqrt(ss[j]);
+      f[j] = s > 0 ? 1 / s : 1;
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    const b = i * n;
+    for (let j = 0; j < n; j++) V[b + j] *= f[j];
+  }
+}
+
+// ------------------------------------------------------------------------------------------------
+// Symmetric path
+// ------------------------------------------------------------------------------------------------
+
+export interface SymEigResult {
+  /** eigenvalues in ascending order */
+  values: number[];
+  /** orthonormal eigenvectors as columns (row-major number[][]) */
+  V: number[][];
+}
+
+/**
+ * Eigen-decomposition of a real symmetric matrix S = V·diag(values)·Vᵀ. Only the lower triangle is
+ * read. Householder tridiagonalization followed by implicit QL iteration with shifts.
+ */
+export function eigSymmetric(S: number[][]): SymEigResult {
+  const n = S.length;
+  // column-major z[j*n + i] = Z[i][j]; S is symmetric so S[i][j] (lower triangle) fills it
+  const z = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    if (S[i].length !== n) throw new Error('eigSymmetric: matrix is not square');
+    for (let j = 0; j <= i; j++) {
+      const v = S[i][j];
+      if (!Number.isFinite(v)) throw new Error('eigSymmetric: matrix has a non-finite entry');
+      z[j * n + i] = v;
+      z[i * n + j] = v;
+    }
+  }
+  const d = new Float64Array(n);
+  const e = new Float64Array(n);
+  eigSymmetricFlat(z, n, d, e);
+  const V: number[][] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const row = new Array<number>(n);
+    for (let j = 0; j < n; j++) row[j] = z[j * n + i];
+    V[i] = row;
+  }
+  return { values: Array.from(d), V };
+}
+
+/**
+ * Flat form: z is the symmetric matrix in column-major order (z[j*n+i] = S[i][j]); on return it
+ * holds the eigenvectors column-major (column j at z[j*n .. j*n+n−1]) and d the ascending eigenvalues.
+ */
+export function eigSymmetricFlat(z: Float64Array, n: number, d: Float64Array, e = new Float64Array(n)): void {
+  if (n === 0) return;
+  tred2(z, n, d, e);
+  tql2(z, n, d, e);
+}
+
+/** Householder tridiagonalization; Z (column-major, Z(i,j) = z[j*n+i]) becomes the orthogonal factor. */
+function tred2(z: Float64Array, n: number, d: Float64Array, e: Float64Array): void {
+  // Z(i,j) = z[j*n + i]
+  for (let j = 0; j < n; j++) d[j] = z[j * n + n - 1];
+  for (let i = n - 1; i > 0; i--) {
+    let scale = 0;
+    let h = 0;
+    for (let k = 0; k < i; k++) scale += Math.abs(d[k]);
+    if (scale === 0) {
+      e[i] = d[i - 1];
+      for (let j = 0; j < i; j++) {
+        d[j] = z[j * n + i - 1];
+        z[j * n + i] = 0;
+        z[i * n + j] = 0;
+      }
+    } else {
+      for (let k = 0; k < i; k++) {
+        d[k] /= scale;
+        h += d[k] * d[k];
+      }
+      let f = d[i - 1];
+      let g = Math.sqrt(h);
+      if (f > 0) g = -g;
+      e[i] = scale * g;
+      h -= f * g;
+      d[i - 1] = f - g;
+      for (let j = 0; j < i; j++) e[j] = 0;
+      // e = A·u on the leading i×i block (lower triangle of column j is contiguous)
+      for (let j = 0; j < i; j++) {
+        f = d[j];
+        const cj = j * n;
+        z[i * n + j] = f;
+        g = e[j] + z[cj + j] * f;
+        for (let k = j + 1; k <= i - 1; k++) {
+          const zkj = z[cj + k];
+          g += zkj * d[k];
+          e[k] += zkj * f;
+        }
+        e[j] = g;
+      }
+      f = 0;
+      for (let j = 0; j < i; j++) {
+        e[j] /= h;
+        f += e[j] * d[j];
+      }
+      const hh = f / (h + h);
+      for (let j = 0; j < i; j++) e[j] -= hh * d[j];
+      for (let j = 0; j < i; j++) {
+        f = d[j];
+        g = e[j];
+        const cj = j * n;
+        for (let k = j; k <= i - 1; k++) z[cj + k] -= f * e[k] + g * d[k];
+        d[j] = z[cj + i - 1];
+        z[cj + i] = 0;
+      }
+    }
+    d[i] = h;
+  }
+  // accumulate transformations
+  for (let i = 0; i < n - 1; i++) {
+    const ci = i * n;
+    const ci1 = ci + n;
+    z[ci + n - 1] = z[ci + i];
+    z[ci + i] = 1;
+    const h = d[i + 1];
+    if (h !== 0) {
+      for (let k = 0; k <= i; k++) d[k] = z[ci1 + k] / h;
+      for (let j = 0; j <= i; j++) {
+        const cj = j * n;
+        let g = 0;
+        for (let k = 0; k <= i; k++) g += z[ci1 + k] * z[cj + k];
+        for (let k = 0; k <= i; k++) z[cj + k] -= g * d[k];
+      }
+    }
+    for (let k = 0; k <= i; k++) z[ci1 + k] = 0;
+  }
+  for (let j = 0; j < n; j++) {
+    d[j] = z[j * n + n - 1];
+    z[j * n + n - 1] = 0;
+  }
+  z[(n - 1) * n + n - 1] = 1;
+  e[0] = 0;
+}
+
+/** Implicit QL with shifts on the tridiagonal (d, e); rotations accumulate into Z (column-major). */
+function tql2(z: Float64Array, n: number, d: Float64Array, e: Float64Array): void {
+  for (let i = 1; i < n; i++) e[i - 1] = e[i];
+  e[n - 1] = 0;
+  let f = 0;
+  let tst1 = 0;
+  for (let l = 0; l < n; l++) {
+    tst1 = Math.max(tst1, Math.abs(d[l]) + Math.abs(e[l]));
+    let m = l;
+    while (m < n - 1) {
+      if (Math.abs(e[m]) <= EPS * tst1) break;
+      m++;
+    }
+    if (m > l) {
+      let iter = 0;
+      do {
+        if (++iter > 60) throw new Error('eigSymmetric: the QL iteration did not converge');
+        let g = d[l];
+        let p = (d[l + 1] - g) / (2 * e[l]);
+        let r = Math.hypot(p, 1);
+        if (p < 0) r = -r;
+        d[l] = e[l] / (p + r);
+        d[l + 1] = e[l] * (p + r);
+        const dl1 = d[l + 1];
+        let h = g - d[l];
+        for (let i = l + 2; i < n; i++) d[i] -= h;
+        f += h;
+        p = d[m];
+        let c = 1;
+        let c2 = c;
+        let c3 = c;
+        const el1 = e[l + 1];
+        let s = 0;
+        let s2 = 0;
+        for (let i = m - 1; i >= l; i--) {
+          c3 = c2;
+          c2 = c;
+          s2 = s;
+          g = c * e[i];
+          h = c * p;
+          r = Math.hypot(p, e[i]);
+          e[i + 1] = s * r;
+          s = e[i] / r;
+          c = p / r;
+          p = c * d[i] - s * g;
+          d[i + 1] = h + s * (c * g + s * d[i]);
+          const ci = i * n;
+          const ci1 = ci + n;
+          for (let k = 0; k < n; k++) {
+            const hk = z[ci1 + k];
+            const zk = z[ci + k];
+            z[ci1 + k] = s * zk + c * hk;
+            z[ci + k] = c * zk - s * hk;
+          }
+        }
+        p = (-s * s2 * c3 * el1 * e[l]) / dl1;
+        e[l] = s * p;
+        d[l] = c * p;
+      } while (Math.abs(e[l]) > EPS * tst1);
+    }
+    d[l] += f;
+    e[l] = 0;
+  }
+  // selection sort into ascending order (n swaps at most)
+  for (let i = 0; i < n - 1; i++) {
+    let k = i;
+    let p = d[i];
+    for (let j = i + 1; j < n; j++) {
+      if (d[j] < p) {
+        k = j;
+        p = d[j];
+      }
+    }
+    if (k !== i) {
+      d[k] = d[i];
+      d[i] = p;
+      const ci = i * n;
+      const ck = k * n;
+      for (let j = 0; j < n; j++) {
+        const t = z[ci + j];
+        z[ci + j] = z[ck + j];
+        z[ck + j] = t;
+      }
+    }
+  }
+}
+
+// ------------------------------------------------------------------------------------------------
+// RC networks
+// ------------------------------------------------------------------------------------------------
+
+export interface RCEigResult {
+  /** the poles, real and ≤ 0 for a passive network, ascending (most negative first) */
+  values: number[];
+  /**
+   * eigenvectors of the pencil in the original node coordinates (n × r, r = rank of C):
+   * G·V = −C·V·diag(values), normalized so that Vᵀ·C·V = I
+   */
+  V: number[][];
+  /** rank of C: the number of states (nodes without capacitance are eliminated) */
+  rank: number;
+}
+
+/**
+ * Poles and modes of an RC network  C·v' = −G·v + (sources), C and G symmetric positive
+ * (semi)definite (nodal capacitance and conductance matrices).
+ *
+ * When C is positive definite the state matrix is A = −C⁻¹·G, which is similar to the symmetric
+ * −C^(−1/2)·G·C^(−1/2); so all poles are real and a symmetric solver applies: with C = Q·Λ·Qᵀ and
+ * S = −Λ^(−1/2)·Qᵀ·G·Q·Λ^(−1/2) = U·M·Uᵀ, the poles are M and the modes V = Q·Λ^(−1/2)·U
+ * (A·V = V·M, Vᵀ·C·V = I).
+ *
+ * When C is only semidefinite (nodes with no capacitance), the directions in C's null space carry no
+ * state: with Q = [Qr Q0] split at C's numerical rank, the algebraic part gives z = −G00⁻¹·G0r·y and
+ * the remaining conductance is the Schur complement Geff = Grr − Gr0·G00⁻¹·G0r (still symmetric
+ * positive semidefinite), so the same construction applies to (Λr, Geff), and modes map back as
+ * v = (Qr − Q0·G00⁻¹·G0r)·y. G00 must then be nonsingular (every capacitance-free node has a
+ * resistive path to a capacitor node or ground); otherwise this throws.
+ *
+ * `relTol` decides C's numerical rank relative to its largest eigenvalue.
+ */
+export function eigRC(C: number[][], G: number[][], relTol = 1e-12): RCEigResult {
+  const n = C.length;
+  if (G.length !== n) throw new Error('eigRC: C and G differ in size');
+  if (n === 0) return { values: [], V: [], rank: 0 };
+  const ce = eigSymmetric(C);
+  const lmax = Math.max(...ce.values.map(Math.abs));
+  const tol = relTol * lmax;
+  const rIdx: number[] = [];
+  const zIdx: number[] = [];
+  ce.values.forEach((v, k) => {
+    if (v < -tol) throw new Error('eigRC: C is not positive semidefinite');
+    (v > tol ? rIdx : zIdx).push(k);
+  });
+  const r = rIdx.length;
+  const q = ce.V;
+  // Gq = Qᵀ·G·Q
+  const GQ = mul(G, q);
+  const Gq = mul(transposeOf(q), GQ);
+  // basis columns of the original coordinates for the states: P = Qr − Q0·G00⁻¹·G0r  (n × r)
+  let P: number[][] = q.map((row) => rIdx.map((k) => row[k]));
+  let Geff: number[][] = rIdx.map((i) => rIdx.map((j) => Gq[i][j]));
+  if (zIdx.length > 0) {
+    const G00 = zIdx.map((i) => zIdx.map((j) => Gq[i][j]));
+    const G0r = zIdx.map((i) => rIdx.map((j) => Gq[i][j]));
+    const X = choleskySolve(G00, G0r); // G00⁻¹·G0r, |z| × r
+    const Gr0 = rIdx.map((i) => zIdx.map((j) => Gq[i][j]));
+    const corr = mul(Gr0, X);
+    Geff = Geff.map((row, i) => row.map((v, j) => v - 0.5 * (corr[i][j] + corr[j][i])));
+    const Q0X = mul(
+      q.map((row) => zIdx.map((k) => row[k])),
+      X,
+    );
+    P = P.map((row, i) => row.map((v, j) => v - Q0X[i][j]));
+  }
+  const isq = rIdx.map((k) => 1 / Math.sqrt(ce.values[k]));
+  const S = Geff.map((row, i) => row.map((v, j) => -v * isq[i] * isq[j]));
+  const se = eigSymmetric(S);
+  // V = P·Λr^(−1/2)·U
+  const W = se.V.map((row, i) => row.map((v) => v * isq[i]));
+  const V = mul(P, W);
+  return { values: se.values, V, rank: r };
+}
+
+function mul(a: number[][], b: number[][]): number[][] {
+  const n = a.length;
+  const k = b.length;
+  const m = k ? b[0].length : 0;
+  const out: number[][] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const o = new Array<number>(m).fill(0);
+    const ai = a[i];
+    for (let p = 0; p < k; p++) {
+      const v = ai[p];
+      if (v === 0) continue;
+      const bp = b[p];
+      for (let j = 0; j < m; j++) o[j] += v * bp[j];
+    }
+    out[i] = o;
+  }
+  return out;
+}
+
+function transposeOf(a: number[][]): number[][] {
+  const r = a.length;
+  const c = r ? a[0].length : 0;
+  return Array.from({ length: c }, (_, j) => Array.from({ length: r }, (_, i) => a[i][j]));
+}
+
+/** Solve S·X = B for symmetric positive definite S by Cholesky; throws when S is not. */
+function choleskySolve(S: number[][], B: number[][]): number[][] {
+  const n = S.length;
+  const L = S.map(() => new Array<number>(n).fill(0));
+  const scale = Math.max(...S.map((row, i) => Math.abs(row[i])));
+  for (let j = 0; j < n; j++) {
+    let s = S[j][j];
+    for (let k = 0; k < j; k++) s -= L[j][k] * L[j][k];
+    if (!(s > 1e-14 * scale)) throw new Error('eigRC: a node without capacitance has no resistive path (singular conductance block)');
+    const ljj = Math.sqrt(s);
+    L[j][j] = ljj;
+    for (let i = j + 1; i < n; i++) {
+      let t = S[i][j];
+      for (let k = 0; k < j; k++) t -= L[i][k] * L[j][k];
+      L[i][j] = t / ljj;
+    }
+  }
+  const m = B.length ? B[0].length : 0;
+  const X = B.map((row) => row.slice());
+  for (let c = 0; c < m; c++) {
+    for (let i = 0; i < n; i++) {
+      let t = X[i][c];
+      for (let k = 0; k < i; k++) t -= L[i][k] * X[k][c];
+      X[i][c] = t / L[i][i];
+    }
+    for (let i = n - 1; i >= 0; i--) {
+      let t = X[i][c];
+      for (let k = i + 1; k < n; k++) t -= L[k][i] * X[k][c];
+      X[i][c] = t / L[i][i];
+    }
+  }
+  return X;
+}
