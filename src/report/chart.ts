@@ -81,11 +81,41 @@ export function renderChart(traces: readonly ChartTrace[], options: ChartOptions
   return lines.map((l) => l.replace(/\s+$/, '')).join('\n');
 }
 
-/** Samples every trace at `n` evenly spaced times over [start, end]; non-finite values are patched. */
+/** Finer samples looked at per chart column, so that a peak between columns still shows. */
+const OVERSAMPLE = 16;
+
+/**
+ * One value per column for every trace, over [start, end]. Each column stands for a window of
+ * time; a peak or dip inside the window is drawn at its extreme value, a monotone stretch by the
+ * value at the column's centre. Non-finite values are patched from their neighbours.
+ */
 function sampleAll(traces: readonly ChartTrace[], start: number, end: number, n: number): number[][] {
+  const h = n > 1 ? (end - start) / (n - 1) : 0;
   return traces.map((tr) => {
     const row: number[] = [];
-    for (let k = 0; k < n; k++) row.push(tr.sample(n === 1 ? start : start + ((end - start) * k) / (n - 1)));
+    for (let k = 0; k < n; k++) {
+      const tc = start + h * k;
+      const center = tr.sample(tc);
+      if (h === 0) {
+        row.push(center);
+        continue;
+      }
+      const t0 = Math.max(start, tc - h / 2);
+      const t1 = Math.min(end, tc + h / 2);
+      const a = tr.sample(t0);
+      const b = tr.sample(t1);
+      let lo = Math.min(a, b, center);
+      let hi = Math.max(a, b, center);
+      for (let j = 1; j < OVERSAMPLE; j++) {
+        const v = tr.sample(t0 + ((t1 - t0) * j) / OVERSAMPLE);
+        if (v < lo) lo = v;
+        if (v > hi) hi = v;
+      }
+      const above = hi - Math.max(a, b);
+      const below = Math.min(a, b) - lo;
+      const tiny = 1e-9 * (Math.abs(hi) + Math.abs(lo));
+      row.push(above <= tiny && below <= tiny ? center : above >= below ? hi : lo);
+    }
     patchNonFinite(row);
     return row;
   });

@@ -88,6 +88,7 @@ export function formatPlain(value: number, digits = 4): string {
   if (!Number.isFinite(value)) return value < 0 ? '-∞' : '∞';
   if (value === 0) return '0';
   const ax = Math.abs(value);
+  if (ax >= 10 ** digits && ax < 1e9) return String(Math.round(value)); // 24470, not 2.447e+4
   if (ax >= 1e-3 && ax < 1e6) {
     const text = value.toPrecision(digits);
     return text.includes('e') ? text : text.includes('.') ? text.replace(/0+$/, '').replace(/\.$/, '') : text;

@@ -36,3 +36,14 @@ describe('renderChart', () => {
     expect(flat).toContain('5.00 V');
   });
 });
+
+describe('narrow peaks', () => {
+  it('shows a peak that falls between chart columns at its height', () => {
+    // a 2 µs wide spike of 10 at t = 41 µs on a 2 ms axis (about 28 µs per column)
+    const spike = (t: number) => 10 * Math.exp(-(((t - 41e-6) / 2e-6) ** 2));
+    const chart = renderChart([{ label: 'i', sample: spike }], { start: 0, end: 2e-3, unit: 'A' });
+    const top = chart.split('\n')[0]!;
+    expect(top).toMatch(/^\s*(9\.\d\d|10\.0) A/);
+    expect(top).toMatch(/[╭╮┼]/);
+  });
+});

@@ -44,6 +44,7 @@ describe('formatPlain', () => {
   it('prints dimensionless numbers', () => {
     expect(formatPlain(0.70710678)).toBe('0.7071');
     expect(formatPlain(12)).toBe('12');
+    expect(formatPlain(24469.7)).toBe('24470');
     expect(formatPlain(1.5e-7)).toBe('1.5e-7');
     expect(formatPlain(Infinity)).toBe('∞');
   });
