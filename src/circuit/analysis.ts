@@ -4,14 +4,14 @@ import type { Analysis } from './circuit.js';
 import { evaluateFor, evaluateValue, type EvalContext } from './evaluate.js';
 import { PLACES } from './units.js';
 
-type AnalysisStatement = Extract<Statement, { kind: 'span' | 'samples' | 'settle' }>;
+type AnalysisStatement = Extract<Statement, { kind: 'span' | 'samples' | 'settle' | 'start' }>;
 
 export const DEFAULT_SAMPLES = 1001;
 export const MIN_SAMPLES = 2;
 export const MAX_SAMPLES = 1_000_000;
 export const DEFAULT_SETTLE_FRACTION = 0.02;
 
-/** Applies span / samples / settle statements (each at most once) over the defaults. */
+/** Applies span / samples / settle / start statements (each at most once) over the defaults. */
 export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx: EvalContext): Analysis {
   const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION }, start: 'settled' };
   const seen = new Map<string, AnalysisStatement>();
@@ -35,6 +35,8 @@ export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx:
           expected: `a whole number such as ${DEFAULT_SAMPLES}`,
         });
       } else analysis.samples = n;
+    } else if (st.kind === 'start') {
+      analysis.start = st.mode;
     } else {
       const band = settleBand(st, ctx);
       if (band) analysis.settle = band;
@@ -44,7 +46,7 @@ export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx:
 }
 
 /** `2%` is relative to the final transition; `50mV` / `10mA` is absolute. A bare number is ambiguous. */
-function settleBand(st: AnalysisStatement, ctx: EvalContext): Analysis['settle'] | undefined {
+function settleBand(st: Extract<AnalysisStatement, { kind: 'settle' }>, ctx: EvalContext): Analysis['settle'] | undefined {
   const q = evaluateValue(st.value, ctx);
   if (!q) return undefined;
   const expected = 'a percentage such as 2%, or an absolute band such as 50mV or 10mA';

@@ -1,4 +1,4 @@
-import { evaluate } from 'mathjs';
+import { compile, evaluate } from 'mathjs';
 import type { ValueNode } from '../netlist/ast.js';
 import { raise, type DiagnosticSink } from '../netlist/errors.js';
 import type { SourceLocation } from '../netlist/location.js';
@@ -38,7 +38,7 @@ export function evaluateValue(node: ValueNode, ctx: EvalContext): Quantity | und
       const p = ctx.params.get(node.name);
       if (p) return p;
       if (node.literal) return node.literal;
-      unknownName(node.name, node.loc, ctx, false);
+      unknownName(node.name, node.loc, ctx, 'value');
       return undefined;
     }
     case 'expr':
@@ -53,7 +53,10 @@ export function evaluateFor(node: ValueNode, place: Place, subject: string, ctx:
   return checkUnit(ctx.sink, q, node.loc, place, subject) ? q.value : undefined;
 }
 
-function unknownName(name: string, loc: SourceLocation, ctx: EvalContext, inExpression: boolean): void {
+/** Where a name was met: a plain value, a parenthesized expression, or a waveform expression of t. */
+type NameSetting = 'value' | 'expression' | 'waveform';
+
+function unknownName(name: string, loc: SourceLocation, ctx: EvalContext, setting: NameSetting): void {
   const laterLine = ctx.declaredLater.get(name);
   if (laterLine !== undefined && !ctx.params.has(name)) {
     raise(ctx.sink, 'error', loc, `parameter '${name}' is used before its declaration on line ${laterLine}`, {
@@ -62,21 +65,31 @@ function unknownName(name: string, loc: SourceLocation, ctx: EvalContext, inExpr
     return;
   }
   // Parameters first: a near-miss of the user's own name is likelier than of a function.
-  const hint = didYouMean(name, ctx.params.keys()) ?? (inExpression ? didYouMean(name, RESERVED) : undefined);
-  raise(ctx.sink, 'error', loc, `unknown parameter '${name}'`, {
-    expected: inExpression ? 'a parameter declared above, a number, pi, e, or a function such as sqrt' : ANY_VALUE,
+  const builtIns = setting === 'waveform' ? [TIME, ...RESERVED] : setting === 'expression' ? [...RESERVED] : [];
+  const hint = didYouMean(name, ctx.params.keys()) ?? didYouMean(name, builtIns);
+  raise(ctx.sink, 'error', loc, setting === 'waveform' ? `unknown name '${name}'` : `unknown parameter '${name}'`, {
+    expected:
+      setting === 'waveform'
+        ? 't (the time in seconds), a parameter declared above, a number, pi, e, or a function such as sin'
+        : setting === 'expression'
+          ? 'a parameter declared above, a number, pi, e, or a function such as sqrt'
+          : ANY_VALUE,
     hint,
   });
 }
 
 const PIECE = /([A-Za-z_][A-Za-z0-9_]*)|((?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?[A-Za-z0-9_.%\u00b5\u03bc\u03a9\u2126\u00b7]*)|(\s+)|([-+*/^(),])|(.)/gu;
 
+/** The variable of a waveform expression. */
+export const TIME = 't';
+
 /**
- * Rewrites the expression with every literal and parameter replaced by its SI number, then lets
- * mathjs do the arithmetic. Only whitelisted names reach mathjs, so its wider language
- * (units, assignments, imports) stays out of reach.
+ * Rewrites the expression with every literal and parameter replaced by its SI number, so mathjs
+ * sees only numbers, operators, whitelisted names (and `t` in a waveform expression). Its wider
+ * language (units, assignments, imports) stays out of reach. `loc` is the token including its
+ * opening bracket or quote. Undefined (after raising) on error.
  */
-function evaluateExpression(text: string, loc: SourceLocation, ctx: EvalContext): Quantity | undefined {
+function rewriteExpression(text: string, loc: SourceLocation, ctx: EvalContext, setting: 'expression' | 'waveform'): string | undefined {
   const before = ctx.sink.length;
   const at = (index: number, length: number): SourceLocation => ({ ...loc, col: loc.col + 1 + index, length });
   let rewritten = '';
@@ -85,10 +98,12 @@ function evaluateExpression(text: string, loc: SourceLocation, ctx: EvalContext)
     const where = at(m.index, piece.length);
     if (name !== undefined) {
       const p = ctx.params.get(name);
-      if (p) rewritten += `(${p.value})`;
+      // Inside a waveform expression t is the time, even if a parameter has that name.
+      if (setting === 'waveform' && name === TIME) rewritten += name;
+      else if (p) rewritten += `(${p.value})`;
       else if (RESERVED.has(name)) rewritten += name;
       else if (looksLikeResistorCode(name)) rewritten += `(${(parseQuantity(name) as Quantity).value})`;
-      else unknownName(name, where, ctx, true);
+      else unknownName(name, where, ctx, setting);
     } else if (literal !== undefined) {
       const q = parseQuantity(literal);
       if (typeof q === 'string') raise(ctx.sink, 'error', where, q);
@@ -105,15 +120,22 @@ function evaluateExpression(text: string, loc: SourceLocation, ctx: EvalContext)
   }
   if (ctx.sink.length > before) return undefined;
   if (rewritten.trim() === '') {
-    raise(ctx.sink, 'error', loc, 'empty expression', { expected: 'an expression such as (2*R1)' });
+    raise(ctx.sink, 'error', loc, 'empty expression', { expected: setting === 'waveform' ? 'an expression such as "5*sin(2*pi*50*t)"' : 'an expression such as (2*R1)' });
     return undefined;
   }
+  return rewritten;
+}
+
+const mathjsMessage = (e: unknown): string => (e instanceof Error ? e.message.replace(/\s*\(char \d+\)$/, '') : String(e));
+
+function evaluateExpression(text: string, loc: SourceLocation, ctx: EvalContext): Quantity | undefined {
+  const rewritten = rewriteExpression(text, loc, ctx, 'expression');
+  if (rewritten === undefined) return undefined;
   let result: unknown;
   try {
     result = evaluate(rewritten);
   } catch (e) {
-    const why = e instanceof Error ? e.message.replace(/\s*\(char \d+\)$/, '') : String(e);
-    raise(ctx.sink, 'error', loc, `cannot evaluate this expression: ${why}`);
+    raise(ctx.sink, 'error', loc, `cannot evaluate this expression: ${mathjsMessage(e)}`);
     return undefined;
   }
   if (typeof result !== 'number' || !Number.isFinite(result)) {
@@ -121,4 +143,38 @@ function evaluateExpression(text: string, loc: SourceLocation, ctx: EvalContext)
     return undefined;
   }
   return { value: result, unit: null };
+}
+
+/**
+ * Compiles a waveform expression in `t` (seconds) once; the function returns NaN where the
+ * expression has no real value. Checked by evaluating at t = 0. `loc` is the quoted string.
+ */
+export function compileTimeFunction(text: string, loc: SourceLocation, ctx: EvalContext): ((t: number) => number) | undefined {
+  const rewritten = rewriteExpression(text, loc, ctx, 'waveform');
+  if (rewritten === undefined) return undefined;
+  let fn: (t: number) => number;
+  try {
+    const code = compile(rewritten);
+    fn = (t: number): number => {
+      const r: unknown = code.evaluate({ [TIME]: t });
+      return typeof r === 'number' ? r : NaN;
+    };
+  } catch (e) {
+    raise(ctx.sink, 'error', loc, `cannot read this expression: ${mathjsMessage(e)}`);
+    return undefined;
+  }
+  let atZero: number;
+  try {
+    atZero = fn(0);
+  } catch (e) {
+    raise(ctx.sink, 'error', loc, `cannot evaluate this expression at t = 0: ${mathjsMessage(e)}`);
+    return undefined;
+  }
+  if (!Number.isFinite(atZero)) {
+    raise(ctx.sink, 'error', loc, `this expression does not give a finite real number at t = 0 (got ${String(atZero)})`, {
+      hint: 'the source must have a value from t = 0 on; avoid dividing by t or taking the log of t',
+    });
+    return undefined;
+  }
+  return fn;
 }

@@ -3,6 +3,7 @@ import { raise } from '../netlist/errors.js';
 import { GROUND, type Part } from './circuit.js';
 import { evaluateFor, type EvalContext } from './evaluate.js';
 import { PLACES } from './units.js';
+import { elaborateSwitch } from './switch.js';
 import { elaborateWaveform } from './waveform.js';
 
 type PartStatement = Extract<Statement, { kind: 'part' }>;
@@ -41,8 +42,10 @@ export function elaboratePart(st: PartStatement, earlier: ReadonlyMap<string, Pa
     if (!waveform) return undefined;
     part.waveform = waveform;
   } else if (st.part === 'switch') {
-    // Switch lines are not parsed yet; the language gains them next.
-    return undefined;
+    const switching = st.switching && elaborateSwitch(st.switching, name, ctx);
+    if (!switching) return undefined;
+    part.switching = switching;
+    part.value = switching.onResistance;
   } else if (st.value) {
     const value = evaluateFor(st.value, VALUE_PLACE[st.part], `the value of ${name}`, ctx);
     if (value === undefined) ok = false;

@@ -12,7 +12,8 @@ export interface Place {
 
 type PlaceName =
   | 'resistance' | 'capacitance' | 'inductance' | 'voltage' | 'current'
-  | 'time' | 'voltageArea' | 'currentArea' | 'band' | 'count';
+  | 'time' | 'voltageArea' | 'currentArea' | 'band' | 'count'
+  | 'voltageRate' | 'currentRate' | 'frequency' | 'phase' | 'duty';
 
 export const PLACES: Record<PlaceName, Place> = {
   resistance: { what: 'a resistance', units: ['Ω'], example: '4.7kΩ or 4k7' },
@@ -25,6 +26,11 @@ export const PLACES: Record<PlaceName, Place> = {
   currentArea: { what: 'a current impulse area', units: ['As'], example: '1uAs' },
   band: { what: 'a settling band', units: ['%', 'V', 'A'], example: '2% or 50mV' },
   count: { what: 'a whole number', units: [], example: '1001' },
+  voltageRate: { what: 'a voltage rate', units: ['V/s'], example: '2kV/s' },
+  currentRate: { what: 'a current rate', units: ['A/s'], example: '10mA/s' },
+  frequency: { what: 'a frequency', units: ['Hz'], example: '50Hz' },
+  phase: { what: 'a phase', units: ['deg', 'rad'], example: '90deg or 1.57rad' },
+  duty: { what: 'a duty cycle', units: ['%'], example: '50%' },
 };
 
 function unitList(units: readonly Unit[]): string {

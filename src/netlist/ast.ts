@@ -17,18 +17,33 @@ export type ValueNode =
   /** A parenthesized expression; `text` is the part inside the outer parentheses. */
   | { kind: 'expr'; text: string; loc: SourceLocation };
 
-export type StepKey = 'from' | 'to' | 'at' | 'rise';
-
-export interface StepArg {
-  key: StepKey;
+/**
+ * `key value` after a term or switch keyword. `list` holds every value of a comma-separated list
+ * (`toggles 1ms, 2ms`); `value` is then its first. A word argument (`starts closed`, `off open`)
+ * is kept as a `ref` value.
+ */
+export interface KeyArg {
+  key: string;
   keyLoc: SourceLocation;
   value: ValueNode;
+  list?: ValueNode[];
+}
+
+/** Terms written entirely as keyword arguments. */
+export type KeyedTermKind = 'step' | 'ramp' | 'approach' | 'sine' | 'pulse';
+
+export interface TablePointNode {
+  t: ValueNode;
+  v: ValueNode;
 }
 
 export type TermNode =
   | { kind: 'constant'; value: ValueNode; loc: SourceLocation }
-  | { kind: 'step'; args: StepArg[]; loc: SourceLocation }
-  | { kind: 'impulse'; area: ValueNode; at?: ValueNode; loc: SourceLocation };
+  | { kind: KeyedTermKind; args: KeyArg[]; loc: SourceLocation }
+  | { kind: 'impulse'; area: ValueNode; args: KeyArg[]; loc: SourceLocation }
+  /** Inline points, or `file` with the path as written (quotes removed). */
+  | { kind: 'table'; points: TablePointNode[]; file?: { path: string; loc: SourceLocation }; args: KeyArg[]; loc: SourceLocation }
+  | { kind: 'expression'; text: string; textLoc: SourceLocation; args: KeyArg[]; loc: SourceLocation };
 
 export interface WaveformNode {
   terms: TermNode[];
@@ -55,12 +70,15 @@ export type Statement =
       initial?: ValueNode;
       /** Sources only. */
       waveform?: WaveformNode;
+      /** Switches only: on, off, starts, closes, opens, toggles. */
+      switching?: KeyArg[];
       loc: SourceLocation;
     }
   | { kind: 'watch'; target: WatchTargetNode; label?: { text: string; loc: SourceLocation }; loc: SourceLocation }
   | { kind: 'span'; value: ValueNode; loc: SourceLocation }
   | { kind: 'samples'; value: ValueNode; loc: SourceLocation }
-  | { kind: 'settle'; value: ValueNode; loc: SourceLocation };
+  | { kind: 'settle'; value: ValueNode; loc: SourceLocation }
+  | { kind: 'start'; mode: 'settled' | 'rest'; loc: SourceLocation };
 
 export interface Netlist {
   file: string;

@@ -19,13 +19,23 @@ const YELLOW = '\x1b[33m';
 const CYAN = '\x1b[36m';
 const DIM = '\x1b[2m';
 
+/**
+ * Texts of files read besides the circuit file (table CSVs), so a diagnostic located in one of
+ * them quotes its own line rather than the circuit file's.
+ */
+const otherSources = new Map<string, string>();
+
+export function rememberSource(file: string, text: string): void {
+  otherSources.set(file, text);
+}
+
 export function formatDiagnostic(d: Diagnostic, sourceText: string, color: boolean): string {
   const paint = (code: string, s: string): string => (color ? code + s + RESET : s);
   const sevColor = d.severity === 'error' ? RED : YELLOW;
   const where = d.loc ? `${d.loc.file}:${d.loc.line}:${d.loc.col}: ` : '';
   const out = [paint(BOLD, where) + paint(BOLD + sevColor, `${d.severity}:`) + ' ' + paint(BOLD, d.message)];
 
-  const lines = sourceText.split('\n');
+  const lines = ((d.loc && otherSources.get(d.loc.file)) ?? sourceText).replace(/^\uFEFF/, '').split('\n');
   const text = d.loc ? lines[d.loc.line - 1] : undefined;
   if (d.loc && text !== undefined) {
     const quoted = text.replace(/\r$/, '');

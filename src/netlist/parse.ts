@@ -1,5 +1,5 @@
 import type { PartKind } from '../circuit/circuit.js';
-import type { Name, Netlist, Statement, StepArg, StepKey, TermNode, ValueNode, WatchTargetNode, WaveformNode } from './ast.js';
+import type { KeyArg, KeyedTermKind, Name, Netlist, Statement, TablePointNode, TermNode, ValueNode, WatchTargetNode, WaveformNode } from './ast.js';
 import { raise, StatementAbandoned, type DiagnosticExtras, type DiagnosticSink } from './errors.js';
 import type { SourceLocation } from './location.js';
 import { looksLikeResistorCode, parseQuantity } from './quantity.js';
@@ -15,15 +15,52 @@ export const STATEMENT_KEYWORDS = [
   'inductor',
   'voltage-source',
   'current-source',
+  'switch',
   'watch',
   'span',
   'samples',
   'settle',
+  'start',
 ] as const;
 
-const PART_KINDS: readonly PartKind[] = ['resistor', 'capacitor', 'inductor', 'voltage-source', 'current-source'];
-const STEP_KEYS: readonly StepKey[] = ['from', 'to', 'at', 'rise'];
-const TERM_KEYWORDS = ['step', 'impulse'];
+const PART_KINDS: readonly PartKind[] = ['resistor', 'capacitor', 'inductor', 'voltage-source', 'current-source', 'switch'];
+export const TERM_KEYWORDS = ['step', 'impulse', 'ramp', 'approach', 'sine', 'pulse', 'table', 'expression'] as const;
+
+/** What each term accepts after its keyword, and which arguments it cannot do without. */
+interface KeySpec {
+  keys: readonly string[];
+  /** Each entry: exactly one of these keys must be given. */
+  required: readonly (readonly string[])[];
+  /** Shown when a required key is missing. */
+  example: string;
+}
+
+export const TERM_KEYS: Record<KeyedTermKind | 'impulse' | 'table' | 'expression', KeySpec> = {
+  step: { keys: ['from', 'to', 'at', 'rise', 'delay'], required: [['to']], example: 'step to 5V (from, at and rise are optional)' },
+  ramp: { keys: ['at', 'rate', 'until', 'delay'], required: [['rate']], example: 'ramp at 1ms rate 2kV/s (until is optional)' },
+  approach: { keys: ['from', 'to', 'at', 'tau', 'delay'], required: [['to'], ['tau']], example: 'approach to 5V tau 1ms (from and at are optional)' },
+  sine: {
+    keys: ['amplitude', 'rms', 'freq', 'period', 'phase', 'at', 'decay', 'delay'],
+    required: [['amplitude', 'rms'], ['freq', 'period']],
+    example: 'sine amplitude 1V freq 50Hz (phase, at and decay are optional)',
+  },
+  pulse: {
+    keys: ['from', 'to', 'period', 'freq', 'width', 'duty', 'rise', 'fall', 'start', 'cycles', 'delay'],
+    required: [['to'], ['period', 'freq'], ['width', 'duty']],
+    example: 'pulse to 5V period 1ms width 200us',
+  },
+  impulse: { keys: ['at', 'delay'], required: [], example: 'impulse 2mVs at 1ms' },
+  table: { keys: ['delay'], required: [], example: 'table 0 0V, 1ms 5V' },
+  expression: { keys: ['delay'], required: [], example: 'expression "5*sin(2*pi*50*t)"' },
+};
+
+const SWITCH_SPEC: KeySpec = {
+  keys: ['on', 'off', 'starts', 'closes', 'opens', 'toggles'],
+  required: [['on']],
+  example: 'switch S1 a -> b on 10mohm closes 1ms',
+};
+const SWITCH_STATES = ['closed', 'open'];
+const START_MODES = ['settled', 'rest'] as const;
 const WATCH_KINDS = ['node', 'between', 'voltage', 'current'];
 const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 
@@ -37,7 +74,7 @@ export function parseNetlist(text: string, file: string, sink: DiagnosticSink): 
     const lineNo = index + 1;
     const tokens = tokenizeLine(line, lineNo, file, sink);
     if (!tokens) {
-      if (/^\s*(resistor|capacitor|inductor|voltage-source|current-source)\b/.test(line)) brokenPartLines.push(lineNo);
+      if (/^\s*(resistor|capacitor|inductor|voltage-source|current-source|switch)\b/.test(line)) brokenPartLines.push(lineNo);
       return;
     }
     if (tokens.length === 0) return;
@@ -57,6 +94,7 @@ const DESCRIBE: Record<TokenKind, string> = {
   arrow: "'->'",
   plus: "'+'",
   equals: "'='",
+  comma: "','",
   string: 'a quoted text',
   expr: 'a parenthesized expression',
 };
@@ -93,6 +131,7 @@ class LineParser {
       case 'inductor':
       case 'voltage-source':
       case 'current-source':
+      case 'switch':
         st = this.part(kw);
         break;
       case 'watch':
@@ -103,6 +142,17 @@ class LineParser {
       case 'settle':
         st = { kind: kw, value: this.value(`a value after '${kw}'`), loc: this.lineLoc() };
         break;
+      case 'start': {
+        const mode = this.expect('word', 'settled or rest after start');
+        if (!(START_MODES as readonly string[]).includes(mode.text)) {
+          this.fail(mode.loc, `unknown start '${mode.text}'`, {
+            expected: 'start settled (the DC state before t = 0, the default) or start rest (every capacitor and inductor empty)',
+            hint: didYouMean(mode.text, START_MODES),
+          });
+        }
+        st = { kind: 'start', mode: mode.text as (typeof START_MODES)[number], loc: this.lineLoc() };
+        break;
+      }
       default:
         this.fail(head.loc, `unknown statement '${kw}'`, {
           expected: 'one of: ' + STATEMENT_KEYWORDS.join(', '),
@@ -128,6 +178,10 @@ class LineParser {
     const b = this.identifier('the second node name');
     if (kind === 'voltage-source' || kind === 'current-source') {
       return { kind: 'part', part: kind, name, a, b, waveform: this.waveform(), loc: this.lineLoc() };
+    }
+    if (kind === 'switch') {
+      if (!this.peek()) this.fail(this.endLoc(), "a switch needs 'on' and its resistance while closed", { expected: SWITCH_SPEC.example });
+      return { kind: 'part', part: kind, name, a, b, switching: this.keyArgs('switch', SWITCH_SPEC, name.loc), loc: this.lineLoc() };
     }
     const value = this.value(`the ${kind}'s value`);
     const st: Statement = { kind: 'part', part: kind, name, a, b, value, loc: this.lineLoc() };
@@ -155,56 +209,118 @@ class LineParser {
 
   private term(): TermNode {
     const tok = this.peek();
-    if (tok?.kind === 'word' && tok.text === 'step') {
+    if (tok?.kind === 'word' && (TERM_KEYWORDS as readonly string[]).includes(tok.text)) {
       this.pos++;
-      return this.step(tok.loc);
-    }
-    if (tok?.kind === 'word' && tok.text === 'impulse') {
-      this.pos++;
-      const area = this.value('the impulse area, such as 1mVs');
-      let at: ValueNode | undefined;
-      const key = this.peek();
-      if (key?.kind === 'word' && key.text === 'at') {
-        this.pos++;
-        at = this.value("a time after 'at'");
+      const kw = tok.text as (typeof TERM_KEYWORDS)[number];
+      switch (kw) {
+        case 'impulse': {
+          const area = this.value('the impulse area, such as 1mVs');
+          return { kind: 'impulse', area, args: this.keyArgs('impulse', TERM_KEYS.impulse, tok.loc), loc: this.spanFrom(tok.loc) };
+        }
+        case 'table':
+          return this.table(tok.loc);
+        case 'expression': {
+          const text = this.expect('string', 'the expression in double quotes, such as "5*sin(2*pi*50*t)"');
+          return { kind: 'expression', text: text.inner!, textLoc: text.loc, args: this.keyArgs('expression', TERM_KEYS.expression, tok.loc), loc: this.spanFrom(tok.loc) };
+        }
+        default:
+          return { kind: kw, args: this.keyArgs(kw, TERM_KEYS[kw], tok.loc), loc: this.spanFrom(tok.loc) };
       }
-      const term: TermNode = { kind: 'impulse', area, loc: this.spanFrom(tok.loc) };
-      if (at) term.at = at;
-      return term;
     }
     // A word followed by more of the term is a misspelled term keyword, not a parameter.
     const after = this.tokens[this.pos + 1];
     if (tok?.kind === 'word' && after && after.kind !== 'plus') {
       this.fail(tok.loc, `unknown waveform term '${tok.text}'`, {
-        expected: 'a value, step …, or impulse …',
+        expected: 'a value, or one of: ' + TERM_KEYWORDS.join(', '),
         hint: didYouMean(tok.text, TERM_KEYWORDS),
       });
     }
-    const value = this.value('a waveform: a value, step …, or impulse …');
+    const value = this.value('a waveform: a value, or a term such as step …');
+    const next = this.peek();
+    if (next?.kind === 'word' && next.text === 'delay') {
+      this.fail(next.loc, 'a constant level does not change in time, so it cannot be delayed', {
+        hint: `to switch it on later, write step to ${value.kind === 'literal' ? value.text : 'LEVEL'} at TIME`,
+      });
+    }
     return { kind: 'constant', value, loc: value.loc };
   }
 
-  private step(startLoc: SourceLocation): TermNode {
-    const args: StepArg[] = [];
+  /** `table T V, T V, …` or `table file "path"`, then keyword arguments. */
+  private table(startLoc: SourceLocation): TermNode {
+    const next = this.peek();
+    if (next?.kind === 'word' && next.text === 'file') {
+      this.pos++;
+      const path = this.expect('string', 'the file name in double quotes, such as "drive.csv"');
+      const file = { path: path.inner!, loc: path.loc };
+      return { kind: 'table', points: [], file, args: this.keyArgs('table', TERM_KEYS.table, startLoc), loc: this.spanFrom(startLoc) };
+    }
+    const points: TablePointNode[] = [];
+    for (;;) {
+      const t = this.value('a time in the table, such as 1ms');
+      const v = this.value('the value after the time, such as 5V');
+      points.push({ t, v });
+      if (this.peek()?.kind !== 'comma') break;
+      this.pos++;
+    }
+    return { kind: 'table', points, args: this.keyArgs('table', TERM_KEYS.table, startLoc), loc: this.spanFrom(startLoc) };
+  }
+
+  /**
+   * Keyword arguments in any order up to the end of the term (a `+` or the end of the line).
+   * `what` names the term in messages; `startLoc` is its keyword, where a missing argument is reported.
+   */
+  private keyArgs(what: string, spec: KeySpec, startLoc: SourceLocation): KeyArg[] {
+    const args: KeyArg[] = [];
+    const keys = spec.keys.join(', ');
     while (this.peek() && this.peek()!.kind !== 'plus') {
       const key = this.peek()!;
-      if (key.kind !== 'word' || !(STEP_KEYS as readonly string[]).includes(key.text)) {
-        this.fail(key.loc, key.kind === 'word' ? `unknown step keyword '${key.text}'` : `expected a step keyword, found ${DESCRIBE[key.kind]}`, {
-          expected: 'from, to, at or rise, each followed by a value',
-          hint: key.kind === 'word' ? didYouMean(key.text, STEP_KEYS) : undefined,
+      if (key.kind !== 'word' || !spec.keys.includes(key.text)) {
+        this.fail(key.loc, key.kind === 'word' ? `unknown ${what} keyword '${key.text}'` : `expected a ${what} keyword, found ${DESCRIBE[key.kind]}`, {
+          expected: `${keys}, each followed by a value`,
+          hint: key.kind === 'word' ? didYouMean(key.text, spec.keys) : undefined,
         });
       }
       this.pos++;
       const previous = args.find((a) => a.key === key.text);
       if (previous) {
-        this.fail(key.loc, `'${key.text}' is given twice in this step`, { hint: `the first one is at column ${previous.keyLoc.col}` });
+        this.fail(key.loc, `'${key.text}' is given twice in this ${what}`, { hint: `the first one is at column ${previous.keyLoc.col}` });
       }
-      args.push({ key: key.text as StepKey, keyLoc: key.loc, value: this.value(`a value after '${key.text}'`) });
+      const rival = spec.required.find((group) => group.length > 1 && group.includes(key.text))?.map((k) => args.find((a) => a.key === k)).find((a) => a);
+      if (rival) {
+        this.fail(key.loc, `'${key.text}' and '${rival.key}' cannot both be given`, { hint: `give only one of ${alternatives(spec.required.find((g) => g.includes(key.text))!)}` });
+      }
+      // A keyword where the value should be means the value was left out.
+      const valueTok = this.peek();
+      if (!valueTok || valueTok.kind === 'plus' || (valueTok.kind === 'word' && spec.keys.includes(valueTok.text) && valueTok.text !== key.text)) {
+        this.fail(valueTok && valueTok.kind !== 'plus' ? valueTok.loc : { ...key.loc, col: key.loc.col + key.loc.length, length: 1 }, `missing a value after '${key.text}'`, {
+          expected: spec.example,
+        });
+      }
+      args.push(this.keyArg(what, key));
     }
-    if (!args.some((a) => a.key === 'to')) {
-      this.fail(startLoc, "a step needs 'to': the level it ends at", { expected: 'step to 5V (from, at and rise are optional)' });
+    for (const group of spec.required) {
+      if (group.some((k) => args.some((a) => a.key === k))) continue;
+      this.fail(startLoc, `a ${what} needs ${alternatives(group)}`, { expected: spec.example });
     }
-    return { kind: 'step', args, loc: this.spanFrom(startLoc) };
+    return args;
+  }
+
+  private keyArg(what: string, key: Token): KeyArg {
+    if (what === 'switch' && key.text === 'starts') {
+      const state = this.expect('word', 'closed or open after starts');
+      if (!SWITCH_STATES.includes(state.text)) {
+        this.fail(state.loc, `a switch starts either closed or open, not '${state.text}'`, { hint: didYouMean(state.text, SWITCH_STATES) });
+      }
+      return { key: key.text, keyLoc: key.loc, value: { kind: 'ref', name: state.text, loc: state.loc } };
+    }
+    const value = this.value(`a value after '${key.text}'`);
+    if (!(what === 'switch' && key.text === 'toggles')) return { key: key.text, keyLoc: key.loc, value };
+    const list = [value];
+    while (this.peek()?.kind === 'comma') {
+      this.pos++;
+      list.push(this.value('another time after the comma'));
+    }
+    return { key: key.text, keyLoc: key.loc, value, list };
   }
 
   private watch(): Statement {
@@ -327,6 +443,12 @@ class LineParser {
   private spanBetween(first: SourceLocation, last: SourceLocation): SourceLocation {
     return { ...first, length: last.col + last.length - first.col };
   }
+}
+
+/** 'rate', or 'amplitude' or 'rms'. */
+function alternatives(group: readonly string[]): string {
+  const quoted = group.map((k) => `'${k}'`);
+  return quoted.length === 1 ? quoted[0]! : `${quoted.slice(0, -1).join(', ')} or ${quoted[quoted.length - 1]}`;
 }
 
 function designatorExample(kind: PartKind): string {

@@ -5,10 +5,10 @@
  */
 
 /** Canonical unit symbols after normalizing spellings (ohm → Ω, V*s → Vs, ...). */
-export type Unit = 'Ω' | 'F' | 'H' | 'V' | 'A' | 's' | 'Hz' | 'Vs' | 'As' | '%';
+export type Unit = 'Ω' | 'F' | 'H' | 'V' | 'A' | 's' | 'Hz' | 'Vs' | 'As' | 'V/s' | 'A/s' | 'deg' | 'rad' | '%';
 
 export interface Quantity {
-  /** SI value (2% is 0.02). */
+  /** SI value (2% is 0.02; angles in radians, so 90deg is π/2). */
   value: number;
   unit: Unit | null;
 }
@@ -48,6 +48,10 @@ const UNIT_SPELLINGS: Record<string, Unit> = {
   As: 'As',
   'A*s': 'As',
   'A·s': 'As',
+  'V/s': 'V/s',
+  'A/s': 'A/s',
+  deg: 'deg',
+  rad: 'rad',
   '%': '%',
 };
 
@@ -98,7 +102,7 @@ export function parseQuantity(text: string): Quantity | string {
       if (!u || u === '%' || (letter === 'R' && u !== 'Ω')) return badSuffix(text, rest);
       unit = u;
     }
-    return { value: sign * scaled(`${intPart || '0'}.${fracPart}`, scale), unit };
+    return { value: toRadians(sign * scaled(`${intPart || '0'}.${fracPart}`, scale), unit), unit };
   }
 
   const num = DECIMAL.exec(body);
@@ -106,9 +110,14 @@ export function parseQuantity(text: string): Quantity | string {
   const suffix = body.slice(num[0].length);
   const read = readSuffix(suffix);
   if (!read) return badSuffix(text, suffix);
-  const value = sign * scaled(num[0], read.shift);
+  const value = toRadians(sign * scaled(num[0], read.shift), read.unit);
   if (!Number.isFinite(value)) return `'${text}' is too large`;
   return { value, unit: read.unit };
+}
+
+/** Angles are kept in radians whatever they were written in; the unit records the spelling. */
+function toRadians(value: number, unit: Unit | null): number {
+  return unit === 'deg' ? (value * Math.PI) / 180 : value;
 }
 
 /** `digits` × 10^shift, rounded once from the decimal text. */
@@ -137,5 +146,9 @@ export const UNIT_NAMES: Record<Unit, string> = {
   Hz: 'hertz (Hz)',
   Vs: 'volt-seconds (Vs)',
   As: 'ampere-seconds (As)',
+  'V/s': 'volts per second (V/s)',
+  'A/s': 'amperes per second (A/s)',
+  deg: 'degrees (deg)',
+  rad: 'radians (rad)',
   '%': 'percent (%)',
 };

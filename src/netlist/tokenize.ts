@@ -6,7 +6,7 @@ import { raise, type DiagnosticSink } from './errors.js';
  * bad character spoil only its own line.
  */
 
-export type TokenKind = 'word' | 'quantity' | 'arrow' | 'plus' | 'equals' | 'string' | 'expr';
+export type TokenKind = 'word' | 'quantity' | 'arrow' | 'plus' | 'equals' | 'comma' | 'string' | 'expr';
 
 export interface Token {
   kind: TokenKind;
@@ -65,6 +65,9 @@ export function tokenizeLine(
     } else if (c === '=') {
       push('equals', i, i + 1);
       i++;
+    } else if (c === ',') {
+      push('comma', i, i + 1);
+      i++;
     } else if (c === '"') {
       const close = line.indexOf('"', i + 1);
       if (close < 0) {
@@ -110,7 +113,7 @@ function scanWord(line: string, start: number): number {
   }
 }
 
-/** Number plus attached prefix/unit; takes an exponent sign and the `*` of `V*s` / `A*s`. */
+/** Number plus attached prefix/unit; takes an exponent sign, the `*` of `V*s` / `A*s` and the `/` of `V/s` / `A/s`. */
 function scanQuantity(line: string, start: number): number {
   let i = start + 1;
   while (i < line.length) {
@@ -121,7 +124,7 @@ function scanQuantity(line: string, start: number): number {
       i++;
     } else if ((c === '+' || c === '-') && /[eE]/.test(prev) && /[0-9]/.test(line[i - 2] ?? '') && /[0-9]/.test(next)) {
       i++;
-    } else if (c === '*' && /[VA]/.test(prev) && next === 's') {
+    } else if ((c === '*' || c === '/') && /[VA]/.test(prev) && next === 's') {
       i++;
     } else {
       break;
