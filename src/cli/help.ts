@@ -1,9 +1,10 @@
 /** Example sections shown by --help. */
 export const PROGRAM_EXAMPLES = `
 Examples:
-  ringdown run circuits/reset-delay.rdn            full text report with charts
-  ringdown run filter.rdn --format csv --out v.csv samples for a spreadsheet
-  ringdown check filter.rdn                        show the circuit as ringdown reads it
+  ringdown run filter.rdn                             full text report with charts
+  ringdown run filter.rdn --format csv --out v.csv    samples for a spreadsheet
+  ringdown run filter.rdn --format json               everything, for other programs
+  ringdown check filter.rdn                           the circuit as ringdown reads it
 
 Exit codes: 0 ok, 1 internal error, 2 problems in the input, 3 the in-run cross-check failed.
 `;
