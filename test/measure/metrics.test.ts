@@ -177,3 +177,12 @@ describe('a pulse that has nearly returned by the end of the span', () => {
     expect(m.settlingTime).toBeNull();
   });
 });
+
+describe('overshoot rounding noise', () => {
+  it('a peak a few ulps past the final value is no overshoot', async () => {
+    const { overshootPercent } = await import('../../src/measure/overshoot.js');
+    expect(overshootPercent(0, 3.3, 3.3000000000000003, 0)).toBe(0);
+    expect(overshootPercent(0, 1, 1.2, 0)).toBeCloseTo(20, 12);
+    expect(overshootPercent(5, 1, 5, 0.5)).toBeCloseTo(12.5, 12);
+  });
+});
