@@ -3,7 +3,7 @@ import type { RunResult } from '../simulate/result.js';
 import { crossCheckLines } from './crosscheck.js';
 import { modesSection } from './modes.js';
 import { SAFETY_NOTICE } from './safety.js';
-import { formatSI } from './si.js';
+import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { signalSection } from './signal.js';
 import { circuitSection } from './summary.js';
 import { heading } from './table.js';
@@ -36,6 +36,16 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   const spanText = `${formatSI(result.span, 's')}${result.spanChosen ? ' (chosen from the slowest mode)' : ''}`;
   out.push(...heading('Analysis'));
   out.push(`  step response from t = 0 to ${spanText}, ${result.times.length} samples`);
+  const a = circuit.analysis;
+  if (a.start !== undefined) {
+    out.push(`  before t = 0: ${a.start === 'rest' ? 'every capacitor and inductor at zero' : 'settled at the DC operating point'}`);
+  }
+  const units = [...new Set(circuit.watches.map((w) => w.unit))];
+  const band =
+    a.settle.kind === 'relative'
+      ? `±${formatPlain(a.settle.fraction * 100, 4)} % of each signal's transition`
+      : `±${units.length === 1 ? formatSIExact(a.settle.value, units[0]!) : formatPlain(a.settle.value, 6)} around each signal's final value`;
+  out.push(`  settling band: ${band}`);
   out.push('');
 
   out.push(...modesSection(result.modes), '');
