@@ -275,7 +275,7 @@ class LineParser {
     while (this.peek() && this.peek()!.kind !== 'plus') {
       const key = this.peek()!;
       if (key.kind !== 'word' || !spec.keys.includes(key.text)) {
-        this.fail(key.loc, key.kind === 'word' ? `unknown ${what} keyword '${key.text}'` : `expected a ${what} keyword, found ${DESCRIBE[key.kind]}`, {
+        this.fail(key.loc, key.kind === 'word' ? `unknown ${what} keyword '${key.text}'` : `expected ${/^[aeiou]/.test(what) ? 'an' : 'a'} ${what} keyword, found ${DESCRIBE[key.kind]}`, {
           expected: `${keys}, each followed by a value`,
           hint: key.kind === 'word' ? didYouMean(key.text, spec.keys) : undefined,
         });
@@ -300,7 +300,7 @@ class LineParser {
     }
     for (const group of spec.required) {
       if (group.some((k) => args.some((a) => a.key === k))) continue;
-      this.fail(startLoc, `a ${what} needs ${alternatives(group)}`, { expected: spec.example });
+      this.fail(startLoc, `${/^[aeiou]/.test(what) ? 'an' : 'a'} ${what} needs ${alternatives(group)}`, { expected: spec.example });
     }
     return args;
   }

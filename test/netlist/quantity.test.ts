@@ -39,6 +39,16 @@ describe('parseQuantity', () => {
     expect(q('0.5%')).toEqual({ value: 0.005, unit: '%' });
   });
 
+  it('reads rates, and angles into radians', () => {
+    expect(q('2kV/s')).toEqual({ value: 2000, unit: 'V/s' });
+    expect(q('5mA/s')).toEqual({ value: 5e-3, unit: 'A/s' });
+    expect(q('90deg')).toEqual({ value: (90 * Math.PI) / 180, unit: 'deg' });
+    expect(q('-45deg')).toEqual({ value: (-45 * Math.PI) / 180, unit: 'deg' });
+    expect(q('1.5rad')).toEqual({ value: 1.5, unit: 'rad' });
+    expect(q('20mrad')).toEqual({ value: 0.02, unit: 'rad' });
+    expect(q('2V/ms')).toMatch(/unknown prefix or unit 'V\/ms'/);
+  });
+
   // Value codes as defined by IEC 60062: the multiplier letter marks the decimal point.
   it('reads IEC 60062 value codes', () => {
     expect(q('4k7')).toEqual({ value: 4700, unit: null });

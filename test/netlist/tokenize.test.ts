@@ -65,4 +65,14 @@ describe('tokenizeLine', () => {
     expect(tokens('span (2*(3)').sink[0]).toMatchObject({ message: expect.stringMatching(/never closed/), loc: { col: 6, length: 1 } });
     expect(tokens('resistor R1 a -> b 1k ;').sink[0]).toMatchObject({ message: "unexpected character ';'", loc: { col: 23 } });
   });
+
+  it('keeps V/s and A/s inside a quantity and reads commas as separators', () => {
+    expect(tokens('rate 2kV/s, 1A/s').toks.map((t) => [t.kind, t.text, t.loc.col])).toEqual([
+      ['word', 'rate', 1],
+      ['quantity', '2kV/s', 6],
+      ['comma', ',', 11],
+      ['quantity', '1A/s', 13],
+    ]);
+    expect(tokens('toggles 1ms,2ms').toks.map((t) => t.text)).toEqual(['toggles', '1ms', ',', '2ms']);
+  });
 });
