@@ -27,10 +27,13 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
   let np = nz;
   let Zu: Mat[] = [zeros(nz, m)];
   const scaleA = Math.max(1e-300, ...A.flat().map(Math.abs));
+  // rank decisions are relative to the size of the matrices themselves, so that a direction that
+  // only round-off connects to a capacitor or inductor does not count as a state
+  const scaleE = Math.max(1e-300, ...E.flat().map(Math.abs)) * 1e3;
   for (let iter = 0; iter <= nz + 1; iter++) {
     const M = matmul(E, Zp, np);
     const R = residualInputs(E, A, B, Zu, m);
-    const split = rankSplit(M, np);
+    const split = rankSplit(M, np, 1e-10, scaleE);
     const U2t = transpose(split.leftNull, nz - split.rank);
     const AZp = matmul(A, Zp, np);
     const Kalg = matmul(U2t, AZp, np);

@@ -57,7 +57,9 @@ export function configure(circuit: Circuit, closed: Set<string>): { circuit: Cir
     }
     const s = p.switching!;
     const r = closed.has(p.name) ? s.onResistance : s.offResistance;
-    if (Number.isFinite(r)) parts.push({ ...p, kind: 'resistor', value: r });
+    // an ideal (0 Ω) closed switch is a 0 V source: it ties its nodes and carries a branch current
+    if (r === 0) parts.push({ ...p, kind: 'voltage-source', value: 0, waveform: { terms: [{ kind: 'constant', value: 0 }] } });
+    else if (Number.isFinite(r)) parts.push({ ...p, kind: 'resistor', value: r });
   }
   const used = new Set(parts.flatMap((p) => [p.a, p.b]));
   const nodes = circuit.nodes.filter((n) => n === GROUND || used.has(n));
