@@ -40,6 +40,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     traces,
     start: sim.start,
     events: sim.events,
+    parts: sim.parts,
     crossCheck: sim.crossCheck,
     notices: sim.notices,
   };

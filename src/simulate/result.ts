@@ -96,6 +96,8 @@ export interface RunResult {
     jumps: { part: string; kind: 'capacitor-voltage' | 'inductor-current'; before: number; after: number }[];
     energyLost: number;
   }[];
+  /** closed forms of every part's voltage v(a) − v(b) and current a → b, same piece boundaries as the traces */
+  parts?: { part: string; voltage: Piece[]; current: Piece[] }[];
   crossCheck: CrossCheck;
   notices: string[];     // non-fatal remarks (state jumps at t = 0, inconsistent initial values, ...)
 }

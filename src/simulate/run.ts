@@ -37,6 +37,8 @@ export interface Simulation {
   start: 'settled' | 'rest';
   times: Float64Array;
   signals: { watch: Watch; values: Float64Array; pieces: Piece[]; paths: PathResponse[] }[];
+  /** closed forms of every part's voltage and current (passive sign convention, a -> b) */
+  parts: { part: string; voltage: Piece[]; current: Piece[] }[];
   events: EventReport[];
   crossCheck: CrossCheck;
   notices: string[];
@@ -48,6 +50,8 @@ interface Prepared {
   model: Model;
   modal: Modal;
   readouts: Readout[];
+  /** voltage and current of every part of the original circuit, in its order */
+  partReadouts: Readout[];
 }
 
 export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulation {
@@ -57,7 +61,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let p = prepared.get(c);
     if (!p) {
       const model = buildModel(c);
-      p = { model, modal: modalDecomposition(model.ss.A), readouts: circuit.watches.map((w) => readoutFor(c, model, w)) };
+      const partReadouts = circuit.parts.flatMap((part) => [
+        readoutFor(c, model, { ...pseudoWatch, target: { kind: 'part-voltage', part: part.name } }),
+        readoutFor(c, model, { ...pseudoWatch, target: { kind: 'part-current', part: part.name } }),
+      ]);
+      p = { model, modal: modalDecomposition(model.ss.A), readouts: circuit.watches.map((w) => readoutFor(c, model, w)), partReadouts };
       prepared.set(c, p);
     }
     return p;
@@ -83,6 +91,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   if (before.note) notices.push(before.note);
 
   const pieces: Piece[][] = circuit.watches.map(() => []);
+  const partPieces: Piece[][] = circuit.parts.flatMap(() => [[], []]);
   const events: EventReport[] = [];
   let values = before.values;
   // cross-check errors are measured against each watched signal's largest magnitude
@@ -115,8 +124,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let xi0 = init.x.map((v, i) => v - ss.Bx1[i].reduce((s, b, j) => s + b * u0[j], 0));
     const d0 = schedule.diracs.find((d) => d.t === ep.t0);
     if (d0 && (k === 0 || ep.t0 > 0)) xi0 = xi0.map((v, i) => v + ss.B[i].reduce((s, b, j) => s + b * d0.area[j], 0));
-    const exact = solveExact(ss, P.modal, P.readouts, schedule, xi0, span);
+    const all = solveExact(ss, P.modal, [...P.readouts, ...P.partReadouts], schedule, xi0, span);
+    const nw = P.readouts.length;
+    const exact = { pieces: all.pieces.slice(0, nw), final: all.final };
     exact.pieces.forEach((ps, w) => pieces[w].push(...ps));
+    all.pieces.slice(nw).forEach((ps, q) => partPieces[q].push(...ps));
 
     // independent check of this epoch
     const ct = checkTimes(ep.t0, ep.t1, schedule);
@@ -168,12 +180,15 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const states: StateInfo[] = firstP.model.ss.states.map((s) => ({ name: s.name, part: s.part, kind: s.kind }));
   const modes = modesOf(firstP.modal.blocks);
   void matvec;
-  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, events, crossCheck, notices };
+  const parts = circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
+  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, crossCheck, notices };
 }
 
 function fmt(v: number): string {
   return Math.abs(v) < 1e-12 ? '0' : Number(v.toPrecision(4)).toString();
 }
+
+const pseudoWatch: Watch = { target: { kind: 'node', node: GROUND }, label: '', unit: 'V', loc: { file: '', line: 0, col: 0, length: 0 } };
 
 function storedEnergy(c: Circuit, values: Map<string, number>): number {
   let e = 0;
