@@ -17,5 +17,7 @@ export function resultToJSONValue(result: RunResult): Record<string, unknown> {
 
 /** The whole run result as JSON text (two-space indent, trailing newline). */
 export function formatJSON(result: RunResult): string {
-  return JSON.stringify({ schema: JSON_SCHEMA, ...result }, replacer, 2) + '\n';
+  const text = JSON.stringify({ schema: JSON_SCHEMA, ...result }, replacer, 2);
+  // Arrays of plain numbers (samples, coefficients) on one line each: same JSON, far fewer lines.
+  return text.replace(/\[(\s*(?:-?[\d.eE+-]+|null)(?:,\s*(?:-?[\d.eE+-]+|null))*\s*)\]/g, (_m, inner: string) => `[${inner.replace(/\s+/g, '')}]`) + '\n';
 }

@@ -81,3 +81,13 @@ describe('check printout', () => {
     }
   });
 });
+
+describe('JSON layout', () => {
+  it('keeps number arrays on one line and stays valid JSON', () => {
+    const text = formatJSON(rcResult());
+    const timesLine = text.split('\n').find((l) => l.includes('"times"'))!;
+    expect(timesLine).toMatch(/^\s*"times": \[0,0\.00005,0\.0001,/);
+    expect(text.split('\n').length).toBeLessThan(400);
+    expect(() => JSON.parse(text)).not.toThrow();
+  });
+});
