@@ -91,3 +91,14 @@ describe('JSON layout', () => {
     expect(() => JSON.parse(text)).not.toThrow();
   });
 });
+
+describe('notices and warnings', () => {
+  it('lists the circuit warnings and the run notices', () => {
+    const r = rcResult();
+    r.circuit.warnings = [{ severity: 'warning', message: "node 'x' has one connection", loc: { file: 'rc.rdn', line: 7, col: 3, length: 1 }, hint: 'connect it' }];
+    r.notices = ['the capacitor voltage jumps at t = 0'];
+    const t = formatTextReport(r, { chart: false });
+    expect(t).toContain("warning: line 7: node 'x' has one connection (connect it)");
+    expect(t).toContain('- the capacitor voltage jumps at t = 0');
+  });
+});
