@@ -93,7 +93,9 @@ export function tokenizeLine(
       return undefined;
     } else {
       const ch = String.fromCodePoint(line.codePointAt(i)!);
-      raise(sink, 'error', at(i, i + ch.length), `unexpected character '${ch}'`);
+      raise(sink, 'error', at(i, i + ch.length), `unexpected character '${ch}'`, {
+        hint: ch === '/' ? 'a rate is written in one piece, number, prefix and unit together, such as 2kV/s' : undefined,
+      });
       return undefined;
     }
   }

@@ -30,6 +30,7 @@ describe('ramp', () => {
   });
   it('refuses a space between the prefixed value and V/s', () => {
     expect(wrong('ramp rate 2k V/s')[0]).toEqual([1, col('ramp rate 2k V/s', '/'), "unexpected character '/'"]);
+    expect(errors(lines('voltage-source S x -> gnd ramp rate 2k V/s'))[0]!.hint).toMatch(/such as 2kV\/s/);
   });
   it('needs rate, and until after at', () => {
     expect(wrong('ramp at 1ms')).toEqual([[1, 27, "a ramp needs 'rate'"]]);
