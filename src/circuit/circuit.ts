@@ -48,6 +48,17 @@ export interface Switching {
   events: { t: number; closed: boolean }[];
 }
 
+/**
+ * Ratings of a part: `voltage` (peak |v|, V), `current` (peak |i|, A), `power` (peak
+ * instantaneous dissipation, W), `pulseEnergy` (energy dissipated over the span, J).
+ */
+export interface Ratings {
+  voltage?: number;
+  current?: number;
+  power?: number;
+  pulseEnergy?: number;
+}
+
 export interface Part {
   kind: PartKind;
   name: string;
@@ -63,6 +74,8 @@ export interface Part {
   waveform?: Waveform;
   /** Switches only: a resistor whose resistance follows a schedule. */
   switching?: Switching;
+  /** What the part is rated for, where the user knows it (SI units). */
+  ratings?: Ratings;
   loc: SourceLocation;
 }
 
@@ -93,6 +106,8 @@ export interface Analysis {
    * A part's own `initial` value overrides either.
    */
   start: 'settled' | 'rest';
+  /** Fraction of each rating a part may use before it is flagged (default 0.8, common practice). */
+  derating: number;
 }
 
 export interface Circuit {

@@ -60,7 +60,10 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
       const part = matmul(Zp, pinvSolve(Kq, Rq[j], np), m).map((row) => row.map((v) => -v));
       newZu.push(j < Zu.length ? add(Zu[j], part) : part);
     }
-    Zu = trimTrailingZero(newZu);
+    // round-off below 1e-14 of the (equilibrated) matrices' scale is no coupling: without this, a
+    // derivative-of-source term of size 1e-32 would survive as a spurious Dirac read-out
+    const floor = 1e-14 * Math.max(scaleA, scaleE / 1e3, ...B.flat().map(Math.abs));
+    Zu = trimTrailingZero(newZu.map((Z) => Z.map((row) => row.map((v) => (Math.abs(v) < floor ? 0 : v)))));
     const Nk = ks.nullSpace;
     np = np - ks.rank;
     Zp = matmul(Zp, Nk, np);
