@@ -16,3 +16,4 @@ export { firstReach } from './crossing.js';
 export { riseTime, type RiseTime } from './rise.js';
 export { overshootPercent } from './overshoot.js';
 export { settlingTime, bandHalfWidth } from './settling.js';
+export { steadyStateLimit } from './limit.js';

@@ -4,7 +4,7 @@ import { formatPlain, formatSI } from './si.js';
 import { table } from './table.js';
 
 /** The metrics of one signal as a two-column block. */
-export function metricsLines(m: Metrics, unit: string, band: SettleBand): string[] {
+export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: number | null = null): string[] {
   // Values this far below the signal's size are rounding noise: show them as 0.
   const scale = Math.max(Math.abs(m.peak.value), Math.abs(m.valley.value), Math.abs(m.initial), Math.abs(m.final));
   const v = (x: number) => formatSI(Math.abs(x) <= 1e-12 * scale ? 0 : x, unit);
@@ -14,11 +14,19 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand): string
   const rows: string[][] = [
     ['initial (t = 0+)', v(m.initial)],
     [m.finalIsLimit ? 'final (steady state)' : 'final (end of span)', v(m.final)],
+    ...(limit !== null && !m.finalIsLimit ? [['steady state (t → ∞)', v(limit)]] : []),
     ['peak', `${v(m.peak.value)} at t = ${t(m.peak.time)}`],
     ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
     ['overshoot', m.overshootPct === null ? none : `${formatPlain(m.overshootPct, 4)} %`],
     [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];
-  return table(rows, '    ');
+  const lines = table(rows, '    ');
+  if (limit !== null && !m.finalIsLimit) {
+    const half = band.kind === 'relative' ? band.fraction * Math.abs(m.final - m.initial) : band.value;
+    if (Math.abs(limit - m.final) > Math.max(half, 1e-9 * scale)) {
+      lines.push('    note: the span ends before the signal has settled; the measurements above use the', '    end-of-span value as final. A longer span (--span) gives the settled picture.');
+    }
+  }
+  return lines;
 }
