@@ -25,7 +25,7 @@ export function watchNode(node: string): Watch {
 
 export function circuit(parts: Part[], watches: Watch[], span: number, samples = 2001, start: 'settled' | 'rest' = 'rest'): Circuit {
   const nodes = [...new Set(parts.flatMap((p) => [p.a, p.b]))];
-  return { file: 'test', nodes, parts, watches, analysis: { span, samples, settle: { kind: 'relative', fraction: 0.02 }, start }, params: {} };
+  return { file: 'test', nodes, parts, watches, analysis: { span, samples, settle: { kind: 'relative', fraction: 0.02 }, start, derating: 0.8 }, params: {} };
 }
 
 /** Largest |got − want(t)| over all samples, relative to the largest |want|. */
