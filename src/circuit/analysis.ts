@@ -10,10 +10,12 @@ export const DEFAULT_SAMPLES = 1001;
 export const MIN_SAMPLES = 2;
 export const MAX_SAMPLES = 1_000_000;
 export const DEFAULT_SETTLE_FRACTION = 0.02;
+/** Fraction of a rating a part may use before the report flags it. */
+export const DEFAULT_DERATING = 0.8;
 
 /** Applies span / samples / settle / start statements (each at most once) over the defaults. */
 export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx: EvalContext): Analysis {
-  const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION }, start: 'settled' };
+  const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION }, start: 'settled', derating: DEFAULT_DERATING };
   const seen = new Map<string, AnalysisStatement>();
   for (const st of statements) {
     const first = seen.get(st.kind);
