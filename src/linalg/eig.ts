@@ -66,12 +66,16 @@ export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean } 
   if (n === 0) return { n, re, im, V };
   const scale = new Float64Array(n).fill(1);
   if (opts.balance !== false) balance(a, n, scale);
-  hessenberg(a, n, V);
-  hqr2(a, n, V, re, im);
-  // undo the balancing: eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂
+  // The Schur / eigenvector matrix is kept transposed (vt[j*n + i] = V[i][j]) while it is built:
+  // the QR sweeps combine columns of V, which are then contiguous rows of vt.
+  const vt = new Float64Array(n * n);
+  hessenberg(a, n, vt);
+  hqr2(a, n, vt, re, im);
+  // undo the balancing (eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂) while transposing back
   for (let i = 0; i < n; i++) {
     const s = scale[i];
-    if (s !== 1) for (let j = 0; j < n; j++) V[i * n + j] *= s;
+    const b = i * n;
+    for (let j = 0; j < n; j++) V[b + j] = vt[j * n + i] * s;
   }
   normalizeColumns(V, n, im);
   return { n, re, im, V };
@@ -128,8 +132,9 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 /**
  * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place; V receives Q.
  * Entries below the subdiagonal are left holding the Householder vectors (hqr2 ignores them).
+ * Vt receives Qᵀ (row-major), i.e. Q column-major.
  */
-function hessenberg(H: Float64Array, n: number, V: Float64Array): void {
+function hessenberg(H: Float64Array, n: number, Vt: Float64Array): void {
   const low = 0;
   const high = n - 1;
   const ort = new Float64Array(n);
@@ -172,29 +177,22 @@ function hessenberg(H: Float64Array, n: number, V: Float64Array): void {
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
-  // accumulate the transformations: V = Q
-  V.fill(0);
-  for (let i = 0; i < n; i++) V[i * n + i] = 1;
-  const gcol = new Float64Array(n);
+  // accumulate the transformations: V = Q, stored transposed (Vt row j = column j of V)
+  Vt.fill(0);
+  for (let i = 0; i < n; i++) Vt[i * n + i] = 1;
   for (let m = high - 1; m >= low + 1; m--) {
     const hm = H[m * n + m - 1];
     if (hm === 0) continue;
     for (let i = m + 1; i <= high; i++) ort[i] = H[i * n + m - 1];
-    // g_j = (uᵀ·V[:, j]) / (u_m · h_m)  for j = m..high, then V[:, j] += g_j·u
-    gcol.fill(0, m, high + 1);
-    for (let i = m; i <= high; i++) {
-      const oi = ort[i];
-      if (oi === 0) continue;
-      const base = i * n;
-      for (let j = m; j <= high; j++) gcol[j] += oi * V[base + j];
-    }
     const den = ort[m];
-    for (let j = m; j <= high; j++) gcol[j] = gcol[j] / den / hm; // two divisions avoid underflow
-    for (let i = m; i <= high; i++) {
-      const oi = ort[i];
-      if (oi === 0) continue;
-      const base = i * n;
-      for (let j = m; j <= high; j++) V[base + j] += gcol[j] * oi;
+    // for each column j of V: g = (uᵀ·V[:, j]) / (u_m · h_m), then V[:, j] += g·u
+    for (let j = m; j <= high; j++) {
+      const b = j * n;
+      let g = 0;
+      for (let i = m; i <= high; i++) g += ort[i] * Vt[b + i];
+      g = g / den / hm; // two divisions avoid underflow
+      if (g === 0) continue;
+      for (let i = m; i <= high; i++) Vt[b + i] += g * ort[i];
     }
   }
 }
@@ -221,7 +219,7 @@ const MAX_ITER_PER_EIGENVALUE = 60;
  * accumulating the Schur vectors in V, followed by back-substitution for the eigenvectors of the
  * quasi-triangular form and back-transformation V := V·X.
  */
-function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: Float64Array): void {
+function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array): void {
   let n = nn - 1;
   const low = 0;
   const high = nn - 1;
@@ -299,11 +297,12 @@ function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: 
           H[b + n - 1] = q * z + p * H[b + n];
           H[b + n] = q * H[b + n] - p * z;
         }
+        const c0 = (n - 1) * nn;
+        const c1 = n * nn;
         for (let i = low; i <= high; i++) {
-          const b = i * nn;
-          z = V[b + n - 1];
-          V[b + n - 1] = q * z + p * V[b + n];
-          V[b + n] = q * V[b + n] - p * z;
+          z = Vt[c0 + i];
+          Vt[c0 + i] = q * z + p * Vt[c1 + i];
+          Vt[c1 + i] = q * Vt[c1 + i] - p * z;
         }
       } else {
         // complex pair
@@ -425,11 +424,10 @@ function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: 
             H[b + 2] -= pi * r;
           }
           for (let i = low; i <= high; i++) {
-            const b = i * nn + k;
-            const pi = x * V[b] + y * V[b + 1] + z * V[b + 2];
-            V[b] -= pi;
-            V[b + 1] -= pi * q;
-            V[b + 2] -= pi * r;
+            const pi = x * Vt[bk + i] + y * Vt[bk1 + i] + z * Vt[bk2 + i];
+            Vt[bk + i] -= pi;
+            Vt[bk1 + i] -= pi * q;
+            Vt[bk2 + i] -= pi * r;
           }
         } else {
           for (let i = 0; i <= iEnd; i++) {
@@ -439,10 +437,9 @@ function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: 
             H[b + 1] -= pi * q;
           }
           for (let i = low; i <= high; i++) {
-            const b = i * nn + k;
-            const pi = x * V[b] + y * V[b + 1];
-            V[b] -= pi;
-            V[b + 1] -= pi * q;
+            const pi = x * Vt[bk + i] + y * Vt[bk1 + i];
+            Vt[bk + i] -= pi;
+            Vt[bk1 + i] -= pi * q;
           }
         }
       }
@@ -565,18 +562,18 @@ function hqr2(H: Float64Array, nn: number, V: Float64Array, d: Float64Array, e: 
   }
 
   // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
-  // (column j of X uses rows 0..j only), one row of V at a time.
+  // (column j of X uses rows 0..j only). In the transposed storage: Vt := Xᵀ·Vt, row j of the
+  // result = Σ_{k ≤ j} X[k][j]·(row k of Vt); going from the last row up, rows k < j are still old.
   const row = new Float64Array(nn);
-  for (let i = low; i <= high; i++) {
-    const bi = i * nn;
+  for (let j = nn - 1; j >= 0; j--) {
     row.fill(0);
-    for (let k = 0; k < nn; k++) {
-      const vik = V[bi + k];
-      if (vik === 0) continue;
+    for (let k = 0; k <= j; k++) {
+      const xkj = H[k * nn + j];
+      if (xkj === 0) continue;
       const bk = k * nn;
-      for (let j = k; j < nn; j++) row[j] += vik * H[bk + j];
+      for (let i = 0; i < nn; i++) row[i] += xkj * Vt[bk + i];
     }
-    V.set(row, bi);
+    Vt.set(row, j * nn);
   }
 }
 

@@ -1,0 +1,189 @@
+// ringdown benchmark: whole-pipeline runs against scipy.signal.lsim on the same exported model,
+// and the dense eigen-solver against numpy.linalg.eig (and ml-matrix).
+//
+//   npm run bench                    table on stdout
+//   npm run bench -- --json          rows as a JSON array on stdout (notes go to stderr)
+//   options: --states 100,400        state counts for the circuit cases (default 100,400,1000)
+//            --eig 100,400,800       matrix sizes for the eig rows
+//            --timeout 120            seconds per circuit case before it is skipped
+//            --runs 3                 repetitions (medians are reported)
+//            --no-ml                  skip the ml-matrix column of the eig rows
+//
+// Speed figures are wall-clock medians on this machine; the ratio is ours / reference (> 1: we are
+// slower). The reference simulates the model ringdown built, so it does not parse or build.
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const HERE = dirname(fileURLToPath(import.meta.url));
+const ROOT = join(HERE, '..');
+const argv = process.argv.slice(2);
+const flag = (name) => argv.includes(name);
+const opt = (name, dflt) => {
+  const i = argv.indexOf(name);
+  return i >= 0 && i + 1 < argv.length ? argv[i + 1] : dflt;
+};
+const JSON_OUT = flag('--json');
+const STATES = opt('--states', '100,400,1000').split(',').map(Number);
+const EIG_SIZES = opt('--eig', '100,400,800').split(',').map(Number);
+const TIMEOUT = Number(opt('--timeout', '120'));
+const RUNS = Number(opt('--runs', '3'));
+const WITH_ML = !flag('--no-ml');
+const SAMPLES = 10000;
+const say = (...a) => (JSON_OUT ? console.error(...a) : console.log(...a));
+
+// ---- build when dist is missing or older than src ----
+function newest(dir) {
+  let t = 0;
+  for (const e of readdirSync(dir, { withFileTypes: true })) {
+    const p = join(dir, e.name);
+    t = Math.max(t, e.isDirectory() ? newest(p) : statSync(p).mtimeMs);
+  }
+  return t;
+}
+const distEntry = join(ROOT, 'dist', 'pipeline.js');
+if (!existsSync(distEntry) || !existsSync(join(ROOT, 'dist', 'linalg', 'eig.js')) || statSync(distEntry).mtimeMs < newest(join(ROOT, 'src'))) {
+  say('dist/ is missing or older than src/: running npm run build');
+  const b = spawnSync('npm', ['run', 'build'], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'], encoding: 'utf8' });
+  if (b.status !== 0) {
+    if (!existsSync(distEntry)) {
+      console.error(b.stdout, b.stderr);
+      process.exit(1);
+    }
+    say('note: npm run build reported errors (files were still emitted); benchmarking the emitted dist/');
+  }
+}
+
+// ---- python / scipy ----
+const py = spawnSync('python3', ['-c', 'import numpy, scipy; print(numpy.__version__, scipy.__version__)'], { encoding: 'utf8' });
+const HAVE_PY = py.status === 0;
+if (!HAVE_PY) say('python3 with numpy/scipy not found: reference columns are skipped');
+else say(`reference: numpy ${py.stdout.trim().split(' ')[0]}, scipy ${py.stdout.trim().split(' ')[1]}`);
+if (process.env.OPENBLAS_CORETYPE) say(`note: OPENBLAS_CORETYPE=${process.env.OPENBLAS_CORETYPE} is set in the environment (numpy's BLAS kernels)`);
+
+const tmp = mkdtempSync(join(tmpdir(), 'ringdown-bench-'));
+process.on('exit', () => rmSync(tmp, { recursive: true, force: true }));
+
+/** Runs a child and collects its output; kills it (by its pid) after `timeout` seconds. */
+function run(cmd, args, timeout) {
+  return new Promise((resolve) => {
+    const child = spawn(cmd, args, { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
+    let out = '';
+    let err = '';
+    let timedOut = false;
+    const timer = setTimeout(() => {
+      timedOut = true;
+      child.kill('SIGKILL');
+    }, timeout * 1000);
+    child.stdout.on('data', (d) => (out += d));
+    child.stderr.on('data', (d) => (err += d));
+    child.on('close', (code) => {
+      clearTimeout(timer);
+      resolve({ code, out, err, timedOut });
+    });
+  });
+}
+
+const lastJson = (text, prefix = '') => {
+  const line = text
+    .trim()
+    .split('\n')
+    .reverse()
+    .find((l) => l.startsWith(prefix + '{') || (prefix && l.startsWith(prefix)));
+  return line ? JSON.parse(line.slice(prefix.length)) : null;
+};
+const stagesOf = (text) =>
+  text
+    .split('\n')
+    .filter((l) => l.startsWith('STAGE '))
+    .map((l) => l.split(' ').slice(1))
+    .map(([name, s]) => `${name} ${Number(s).toFixed(3)} s`);
+
+const rows = [];
+const stageNotes = [];
+
+for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
+  for (const states of STATES) {
+    const file = join(tmp, `${name}-${states}.json`);
+    const t = Date.now();
+    const r = await run('node', [join(HERE, 'case.js'), 'circuit', name, String(states), String(SAMPLES), String(RUNS), file], TIMEOUT);
+    const stages = stagesOf(r.out);
+    const res = r.code === 0 ? lastJson(r.out, 'RESULT ') : null;
+    if (!res) {
+      const why = r.timedOut ? `skipped after ${TIMEOUT} s` : `failed (exit ${r.code}): ${r.err.trim().split('\n').slice(-3).join(' | ')}`;
+      say(`${name} ${states}: ${why}; stages seen: ${stages.join(', ') || 'none'}`);
+      stageNotes.push({ case: name, states, stages, note: why });
+      rows.push({ case: name, states, samples: SAMPLES, oursSeconds: null, referenceSeconds: null, ratio: null, maxRelError: null });
+      continue;
+    }
+    stageNotes.push({ case: name, states, stages, note: `${((Date.now() - t) / 1000).toFixed(1)} s wall` });
+    let ref = null;
+    if (HAVE_PY) {
+      const p = await run('python3', [join(HERE, 'reference.py'), 'lsim', file, String(RUNS)], 600);
+      ref = p.code === 0 ? lastJson(p.out) : null;
+      if (!ref) say(`${name} ${states}: reference failed: ${p.err.trim().split('\n').slice(-2).join(' | ')}`);
+    }
+    rows.push({
+      case: name,
+      states: res.states,
+      samples: res.samples,
+      oursSeconds: res.oursSeconds,
+      referenceSeconds: ref ? ref.referenceSeconds : null,
+      ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
+      maxRelError: ref ? ref.maxRelError : null,
+    });
+  }
+}
+
+const eigRows = [];
+for (const n of EIG_SIZES) {
+  const file = join(tmp, `eig-${n}.json`);
+  const ml = WITH_ML && n <= 400 ? 'ml' : '';
+  const r = await run('node', [join(HERE, 'case.js'), 'eig', String(n), String(RUNS), file, ml], 900);
+  const res = r.code === 0 ? lastJson(r.out, 'RESULT ') : null;
+  if (!res) {
+    say(`eig ${n}: failed: ${r.err.trim().split('\n').slice(-3).join(' | ')}`);
+    continue;
+  }
+  let ref = null;
+  if (HAVE_PY) {
+    const p = await run('python3', [join(HERE, 'reference.py'), 'eig', file, String(Math.max(RUNS, 5))], 600);
+    ref = p.code === 0 ? lastJson(p.out) : null;
+  }
+  eigRows.push({
+    case: 'eig-random',
+    states: n,
+    samples: 0,
+    oursSeconds: res.oursSeconds,
+    referenceSeconds: ref ? ref.referenceSeconds : null,
+    ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
+    maxRelError: ref ? ref.maxRelError : null,
+    mlMatrixSeconds: res.mlSeconds,
+    residual: res.residual,
+  });
+}
+
+if (JSON_OUT) {
+  const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError'];
+  const pick = (r) => Object.fromEntries(keys.map((k) => [k, r[k]]));
+  console.log(JSON.stringify([...rows, ...eigRows].map(pick), null, 2));
+  for (const s of stageNotes) console.error(`stages ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
+} else {
+  const f = (v, d = 3) => (v === null || v === undefined ? '—' : v.toFixed(d));
+  const e = (v) => (v === null || v === undefined ? '—' : v.toExponential(1));
+  console.log('\nWhole pipeline (analyzeText: parse, model, modal form, exact solution, cross-check, metrics)');
+  console.log('vs scipy.signal.lsim on the model ringdown exported (same grid, step input, x(0) = 0):\n');
+  console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13)].join('  '));
+  for (const r of rows) {
+    console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 1).padStart(8), e(r.maxRelError).padStart(13)].join('  '));
+  }
+  console.log('\nStage timings (one run each; the current simulate() rebuilds the model and modal form itself):');
+  for (const s of stageNotes) console.log(`  ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
+  console.log('\nDense eigen-decomposition, random n×n (values and vectors) vs numpy.linalg.eig (values and vectors), and ml-matrix:\n');
+  console.log(['n'.padStart(5), 'ours s'.padStart(9), 'numpy s'.padStart(9), 'ratio'.padStart(7), 'ml-matrix s'.padStart(12), 'ml/ours'.padStart(8), 'eig diff'.padStart(9), 'residual'.padStart(9)].join('  '));
+  for (const r of eigRows) {
+    console.log([String(r.states).padStart(5), f(r.oursSeconds).padStart(9), f(r.referenceSeconds, 4).padStart(9), f(r.ratio, 1).padStart(7), f(r.mlMatrixSeconds).padStart(12), (r.mlMatrixSeconds ? (r.mlMatrixSeconds / r.oursSeconds).toFixed(1) : '—').padStart(8), e(r.maxRelError).padStart(9), e(r.residual).padStart(9)].join('  '));
+  }
+}
