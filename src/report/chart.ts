@@ -35,34 +35,29 @@ export function renderChart(traces: readonly ChartTrace[], options: ChartOptions
   const { start, end, unit } = options;
   if (traces.length === 0) return '';
 
-  // First pass at a provisional width to find the value range and label width.
-  const probe = sampleAll(traces, start, end, 64);
+  // Sample, size the value labels, and narrow the plot until labels and plot fit the width.
+  let cols = Math.max(8, totalWidth - 12);
+  let data: number[][] = [];
   let lo = Infinity;
   let hi = -Infinity;
-  const widen = (rows: number[][]) => {
-    for (const r of rows)
-      for (const v of r) {
-        if (v < lo) lo = v;
-        if (v > hi) hi = v;
-      }
-  };
-  widen(probe);
-  const flat = !(hi > lo) || hi - lo <= 1e-12 * Math.max(Math.abs(hi), Math.abs(lo));
+  let flat = true;
+  let labelW = 0;
   const labelAt = (x: number) => {
     const v = flat ? lo : lo + (x / height) * (hi - lo);
     // a label within rounding noise of zero is zero
     return formatSI(Math.abs(v) <= 1e-9 * Math.max(Math.abs(lo), Math.abs(hi)) ? 0 : v, unit, { digits: 3 });
   };
-  // label width: try the extremes and a middle row; pad generously for sign and prefix changes
-  const labelWidth = () => Math.max(...[0, height / 2, height].map((x) => labelAt(x).length));
-
-  let labelW = labelWidth();
-  let cols = Math.max(8, totalWidth - labelW - 2);
-  const series = sampleAll(traces, start, end, cols);
-  widen(series);
-  labelW = labelWidth();
-  cols = Math.max(8, Math.min(cols, totalWidth - labelW - 2));
-  const data = sampleAll(traces, start, end, cols);
+  for (let attempt = 0; attempt < 4; attempt++) {
+    data = sampleAll(traces, start, end, cols);
+    lo = Math.min(...data.map((r) => Math.min(...r)));
+    hi = Math.max(...data.map((r) => Math.max(...r)));
+    flat = !(hi > lo) || hi - lo <= 1e-12 * Math.max(Math.abs(hi), Math.abs(lo));
+    labelW = 0;
+    for (let x = 0; x <= height; x++) labelW = Math.max(labelW, labelAt(x).length);
+    const fit = Math.max(8, totalWidth - labelW - 2);
+    if (fit >= cols) break;
+    cols = fit;
+  }
 
   const norm = data.map((row) => row.map((v) => (flat ? 0 : ((v - lo) / (hi - lo)) * height)));
   const plot = asciichart.plot(norm, {

@@ -3,8 +3,8 @@ import { formatPlain, formatSI } from './si.js';
 import { heading, table } from './table.js';
 
 /** The natural-modes table: time constants of real modes, wn / ringing / zeta / Q of oscillatory ones. */
-export function modesSection(modes: readonly Mode[]): string[] {
-  const out = heading('Natural modes');
+export function modesSection(modes: readonly Mode[], title = 'Natural modes'): string[] {
+  const out = heading(title);
   if (modes.length === 0) return [...out, '  none (the network has no energy-storing states)'];
   const rows: string[][] = [['#', 'kind', 'time constant', 'natural freq wn', 'ringing freq', 'damping zeta', 'Q']];
   modes.forEach((m, i) => {

@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../diagnostics.js';
 import type { RunResult } from '../simulate/result.js';
 import { crossCheckLines } from './crosscheck.js';
+import { eventsSection } from './events.js';
 import { modesSection } from './modes.js';
 import { SAFETY_NOTICE } from './safety.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
@@ -48,7 +49,18 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   out.push(`  settling band: ${band}`);
   out.push('');
 
-  out.push(...modesSection(result.modes), '');
+  const configs = result.configurations ?? [];
+  if (configs.length > 1) {
+    // one table per switch configuration, in order of first use
+    for (const c of configs) {
+      const closed = c.closed.length > 0 ? `${c.closed.join(', ')} closed` : 'all switches open';
+      out.push(...modesSection(c.modes, `Natural modes from t = ${formatSI(c.from, 's', { digits: 4, trim: true })} (${closed})`), '');
+    }
+  } else {
+    out.push(...modesSection(result.modes), '');
+  }
+  const events = eventsSection(result);
+  if (events.length > 0) out.push(...events, '');
 
   for (const trace of result.traces) {
     out.push(...signalSection(trace, circuit, result.times, result.span, opts), '');

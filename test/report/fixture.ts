@@ -20,7 +20,7 @@ export function rcResult(): RunResult {
       { target: { kind: 'node', node: 'out' }, label: 'v(out)', unit: 'V', loc: loc(4) },
       { target: { kind: 'part-current', part: 'R1' }, label: 'i(R1), "charge"', unit: 'A', loc: loc(5) },
     ],
-    analysis: { span: 5e-3, samples: 101, settle: { kind: 'relative', fraction: 0.02 }, start: 'settled' },
+    analysis: { span: 5e-3, samples: 101, settle: { kind: 'relative', fraction: 0.02 }, start: 'settled', derating: 0.8 },
     params: {},
   };
   const n = 101;

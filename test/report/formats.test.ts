@@ -102,3 +102,20 @@ describe('notices and warnings', () => {
     expect(t).toContain('- the capacitor voltage jumps at t = 0');
   });
 });
+
+describe('switching', () => {
+  it('lists events with jumps and lost energy, and modes per configuration', () => {
+    const r = rcResult();
+    r.events = [{ t: 1e-3, closed: ['S1'], jumps: [{ part: 'C1', kind: 'capacitor-voltage', before: 5, after: 2.5 }], energyLost: 1.25e-6 }];
+    r.configurations = [
+      { from: 0, closed: [], states: r.states, modes: [{ kind: 'real', lambda: -1000, tau: 1e-3 }], paths: [] },
+      { from: 1e-3, closed: ['S1'], states: r.states, modes: [{ kind: 'real', lambda: -2000, tau: 5e-4 }], paths: [] },
+    ];
+    const t = formatTextReport(r, { chart: false });
+    expect(t).toContain('t = 1.000 ms: closed switches: S1');
+    expect(t).toContain('voltage of C1 jumps from 5.000 V to 2.500 V');
+    expect(t).toContain('energy lost in the instant: 1.250 µJ');
+    expect(t).toContain('Natural modes from t = 1 ms (S1 closed)');
+    expect(t).toContain('500.0 µs');
+  });
+});
