@@ -33,6 +33,7 @@ if (kind === 'circuit') {
   const { modalDecomposition } = await load('lti/modal.js');
   const { voltageProbe } = await load('model/descriptor.js');
   const { analyzeText } = await load('pipeline.js');
+  const { simulate } = await load('simulate/run.js');
 
   // stage by stage, once (the current simulate() builds the model and modal form itself again)
   const circuit = timed('loadCircuit', () => loadCircuit(text, `${name}.rdn`));
@@ -40,6 +41,8 @@ if (kind === 'circuit') {
   const { ss } = model;
   console.log(`STATES ${ss.n}`);
   timed('modalDecomposition', () => modalDecomposition(ss.A));
+  // simulate(circuit) in the current pipeline builds the model and the modal form itself
+  timed('simulate', () => simulate(circuit));
   // whole pipeline (load → model → modal → exact solution → cross-check → metrics), timed `runs` times
   const totals = [];
   let result;
