@@ -2,9 +2,10 @@ import type { Statement } from '../netlist/ast.js';
 import { raise } from '../netlist/errors.js';
 import type { Analysis } from './circuit.js';
 import { evaluateFor, evaluateValue, type EvalContext } from './evaluate.js';
+import { UNIT_NAMES } from '../netlist/quantity.js';
 import { PLACES } from './units.js';
 
-type AnalysisStatement = Extract<Statement, { kind: 'span' | 'samples' | 'settle' | 'start' }>;
+type AnalysisStatement = Extract<Statement, { kind: 'span' | 'samples' | 'settle' | 'derate' | 'start' }>;
 
 export const DEFAULT_SAMPLES = 1001;
 export const MIN_SAMPLES = 2;
@@ -13,7 +14,7 @@ export const DEFAULT_SETTLE_FRACTION = 0.02;
 /** Fraction of a rating a part may use before the report flags it. */
 export const DEFAULT_DERATING = 0.8;
 
-/** Applies span / samples / settle / start statements (each at most once) over the defaults. */
+/** Applies span / samples / settle / derate / start statements (each at most once) over the defaults. */
 export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx: EvalContext): Analysis {
   const analysis: Analysis = { samples: DEFAULT_SAMPLES, settle: { kind: 'relative', fraction: DEFAULT_SETTLE_FRACTION }, start: 'settled', derating: DEFAULT_DERATING };
   const seen = new Map<string, AnalysisStatement>();
@@ -37,6 +38,9 @@ export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx:
           expected: `a whole number such as ${DEFAULT_SAMPLES}`,
         });
       } else analysis.samples = n;
+    } else if (st.kind === 'derate') {
+      const derating = deratingOf(st, ctx);
+      if (derating !== undefined) analysis.derating = derating;
     } else if (st.kind === 'start') {
       analysis.start = st.mode;
     } else {
@@ -61,4 +65,28 @@ function settleBand(st: Extract<AnalysisStatement, { kind: 'settle' }>, ctx: Eva
     return undefined;
   }
   return q.unit === '%' ? { kind: 'relative', fraction: q.value } : { kind: 'absolute', value: q.value };
+}
+
+/** `derate 80%`: the fraction of each rating a part may use, in (0, 100%]; the % is required. */
+function deratingOf(st: Extract<AnalysisStatement, { kind: 'derate' }>, ctx: EvalContext): number | undefined {
+  const q = evaluateValue(st.value, ctx);
+  if (!q) return undefined;
+  const expected = 'a percentage of the rating, more than 0% and at most 100%, such as 80%';
+  if (q.unit !== '%') {
+    raise(ctx.sink, 'error', st.value.loc, q.unit === null ? 'derate needs the % sign' : `derate cannot be given in ${UNIT_NAMES[q.unit]}`, {
+      expected,
+      hint: q.unit === null && q.value > 0 && q.value <= 1 ? `for ${q.value} of the rating write ${formatPercent(q.value)}` : undefined,
+    });
+    return undefined;
+  }
+  if (!(q.value > 0 && q.value <= 1)) {
+    raise(ctx.sink, 'error', st.value.loc, `derate must be more than 0% and at most 100%, got ${formatPercent(q.value)}`, { expected });
+    return undefined;
+  }
+  return q.value;
+}
+
+/** 0.8 → "80%", without binary noise (0.07 → "7%", not "7.000000000000001%"). */
+function formatPercent(fraction: number): string {
+  return `${Number((fraction * 100).toPrecision(12))}%`;
 }

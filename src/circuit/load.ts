@@ -35,7 +35,7 @@ export function loadCircuit(text: string, file: string): Circuit {
   // Shape only (kind, name, nodes): topology is checked even when a value had an error.
   const structure: Part[] = [];
   const watchStatements: Of<'watch'>[] = [];
-  const analysisStatements: Of<'span' | 'samples' | 'settle' | 'start'>[] = [];
+  const analysisStatements: Of<'span' | 'samples' | 'settle' | 'derate' | 'start'>[] = [];
 
   // File order matters: a parameter is visible only to the lines after it.
   for (const st of statements) {

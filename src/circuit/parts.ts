@@ -2,6 +2,7 @@ import type { Statement } from '../netlist/ast.js';
 import { raise } from '../netlist/errors.js';
 import { GROUND, type Part } from './circuit.js';
 import { evaluateFor, type EvalContext } from './evaluate.js';
+import { elaborateRatings } from './ratings.js';
 import { PLACES } from './units.js';
 import { elaborateSwitch } from './switch.js';
 import { elaborateWaveform } from './waveform.js';
@@ -37,6 +38,11 @@ export function elaboratePart(st: PartStatement, earlier: ReadonlyMap<string, Pa
   }
 
   const part: Part = { kind: st.part, name, a: st.a.name, b: st.b.name, value: 0, loc: st.loc };
+  if (st.rated) {
+    const ratings = elaborateRatings(st.rated, st.part, name, ctx);
+    if (ratings) part.ratings = ratings;
+    else ok = false;
+  }
   if (st.part === 'voltage-source' || st.part === 'current-source') {
     const waveform = st.waveform && elaborateWaveform(st.waveform, st.part, name, ctx);
     if (!waveform) return undefined;

@@ -56,6 +56,12 @@ export type WatchTargetNode =
   | { kind: 'part-voltage'; part: Name }
   | { kind: 'part-current'; part: Name };
 
+/** `rated V A W J`: the values in the order written; the unit of each tells which rating it is. */
+export interface RatedNode {
+  keyLoc: SourceLocation;
+  values: ValueNode[];
+}
+
 export type Statement =
   | { kind: 'title'; text: string; loc: SourceLocation }
   | { kind: 'param'; name: Name; value: ValueNode; loc: SourceLocation }
@@ -72,12 +78,15 @@ export type Statement =
       waveform?: WaveformNode;
       /** Switches only: on, off, starts, closes, opens, toggles. */
       switching?: KeyArg[];
+      /** Any part: what it is rated for. */
+      rated?: RatedNode;
       loc: SourceLocation;
     }
   | { kind: 'watch'; target: WatchTargetNode; label?: { text: string; loc: SourceLocation }; loc: SourceLocation }
   | { kind: 'span'; value: ValueNode; loc: SourceLocation }
   | { kind: 'samples'; value: ValueNode; loc: SourceLocation }
   | { kind: 'settle'; value: ValueNode; loc: SourceLocation }
+  | { kind: 'derate'; value: ValueNode; loc: SourceLocation }
   | { kind: 'start'; mode: 'settled' | 'rest'; loc: SourceLocation };
 
 export interface Netlist {

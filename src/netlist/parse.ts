@@ -1,5 +1,5 @@
 import type { PartKind } from '../circuit/circuit.js';
-import type { KeyArg, KeyedTermKind, Name, Netlist, Statement, TablePointNode, TermNode, ValueNode, WatchTargetNode, WaveformNode } from './ast.js';
+import type { KeyArg, KeyedTermKind, Name, Netlist, RatedNode, Statement, TablePointNode, TermNode, ValueNode, WatchTargetNode, WaveformNode } from './ast.js';
 import { raise, StatementAbandoned, type DiagnosticExtras, type DiagnosticSink } from './errors.js';
 import type { SourceLocation } from './location.js';
 import { looksLikeResistorCode, parseQuantity } from './quantity.js';
@@ -20,6 +20,7 @@ export const STATEMENT_KEYWORDS = [
   'span',
   'samples',
   'settle',
+  'derate',
   'start',
 ] as const;
 
@@ -60,6 +61,9 @@ const SWITCH_SPEC: KeySpec = {
   example: 'switch S1 a -> b on 10mohm closes 1ms',
 };
 const SWITCH_STATES = ['closed', 'open'];
+/** The keyword of the ratings clause, which any part line may end with (a switch: among its keywords). */
+export const RATED = 'rated';
+const RATED_EXAMPLE = "rated followed by one or more of a voltage, current, power and pulse energy, such as rated 35V 2A or rated 250mW 1.5J";
 const START_MODES = ['settled', 'rest'] as const;
 const WATCH_KINDS = ['node', 'between', 'voltage', 'current'];
 const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
@@ -140,6 +144,7 @@ class LineParser {
       case 'span':
       case 'samples':
       case 'settle':
+      case 'derate':
         st = { kind: kw, value: this.value(`a value after '${kw}'`), loc: this.lineLoc() };
         break;
       case 'start': {
@@ -177,23 +182,79 @@ class LineParser {
     this.expect('arrow', "'->' between the two node names");
     const b = this.identifier('the second node name');
     if (kind === 'voltage-source' || kind === 'current-source') {
-      return { kind: 'part', part: kind, name, a, b, waveform: this.waveform(), loc: this.lineLoc() };
+      const st: PartStatement = { kind: 'part', part: kind, name, a, b, waveform: this.waveform(), loc: this.lineLoc() };
+      // The ratings follow the whole waveform.
+      while (this.peek()?.kind === 'word' && this.peek()!.text === RATED) this.rated(st, []);
+      this.nearRated();
+      return st;
     }
     if (kind === 'switch') {
       if (!this.peek()) this.fail(this.endLoc(), "a switch needs 'on' and its resistance while closed", { expected: SWITCH_SPEC.example });
-      return { kind: 'part', part: kind, name, a, b, switching: this.keyArgs('switch', SWITCH_SPEC, name.loc), loc: this.lineLoc() };
+      const st: PartStatement = { kind: 'part', part: kind, name, a, b, loc: this.lineLoc() };
+      st.switching = this.keyArgs('switch', SWITCH_SPEC, name.loc, () => this.rated(st, SWITCH_SPEC.keys));
+      return st;
     }
     const value = this.value(`the ${kind}'s value`);
-    const st: Statement = { kind: 'part', part: kind, name, a, b, value, loc: this.lineLoc() };
-    const next = this.peek();
-    if (next?.kind === 'word' && kind !== 'resistor' && (next.text === 'initial' || didYouMean(next.text, ['initial']))) {
-      if (next.text !== 'initial') {
-        this.fail(next.loc, `unknown keyword '${next.text}'`, { hint: "did you mean 'initial'?" });
+    const st: PartStatement = { kind: 'part', part: kind, name, a, b, value, loc: this.lineLoc() };
+    // `initial` and `rated`, in either order.
+    for (let next = this.peek(); next?.kind === 'word'; next = this.peek()) {
+      if (next.text === RATED) {
+        this.rated(st, ['initial']);
+      } else if (kind !== 'resistor' && (next.text === 'initial' || didYouMean(next.text, ['initial']))) {
+        if (next.text !== 'initial') {
+          this.fail(next.loc, `unknown keyword '${next.text}'`, { hint: "did you mean 'initial'?" });
+        }
+        if (st.initial) this.fail(next.loc, "'initial' is given twice", { hint: `the first one is at column ${this.initialCol}` });
+        this.initialCol = next.loc.col;
+        this.pos++;
+        st.initial = this.value(kind === 'capacitor' ? 'an initial voltage' : 'an initial current');
+      } else {
+        break;
       }
-      this.pos++;
-      st.initial = this.value(kind === 'capacitor' ? 'an initial voltage' : 'an initial current');
     }
+    this.nearRated();
     return st;
+  }
+
+  private initialCol = 0;
+
+  /**
+   * `rated Q Q …` with the `rated` keyword next. A word is a parameter holding a rating unless it
+   * is one of `stop` (the part's other keywords), or looks like a misspelling of one and has a
+   * value after it.
+   */
+  private rated(st: PartStatement, stop: readonly string[]): void {
+    const key = this.peek()!;
+    if (st.rated) {
+      this.fail(key.loc, `'${RATED}' is given twice`, {
+        hint: `the first '${RATED}' is at column ${st.rated.keyLoc.col}; list every rating after it, such as rated 35V 2A`,
+      });
+    }
+    this.pos++;
+    const values: ValueNode[] = [];
+    for (let tok = this.peek(); tok; tok = this.peek()) {
+      if (tok.kind === 'word') {
+        if (tok.text === RATED || stop.includes(tok.text) || !IDENTIFIER.test(tok.text)) break;
+        const keyword = this.tokens[this.pos + 1] ? didYouMean(tok.text, stop) : undefined;
+        if (keyword) this.fail(tok.loc, `unknown keyword '${tok.text}'`, { hint: keyword });
+      } else if (tok.kind !== 'quantity' && tok.kind !== 'expr') {
+        break;
+      }
+      values.push(this.value('a rating'));
+    }
+    if (values.length === 0) {
+      const tok = this.peek();
+      this.fail(tok ? tok.loc : this.endLoc(), `missing a rating after '${RATED}'`, { expected: RATED_EXAMPLE });
+    }
+    st.rated = { keyLoc: key.loc, values } satisfies RatedNode;
+  }
+
+  /** A word left at the end of a part line that is a near miss of `rated`. */
+  private nearRated(): void {
+    const next = this.peek();
+    if (next?.kind === 'word' && next.text !== RATED && didYouMean(next.text, [RATED])) {
+      this.fail(next.loc, `unknown keyword '${next.text}'`, { hint: `did you mean '${RATED}'?`, expected: RATED_EXAMPLE });
+    }
   }
 
   private waveform(): WaveformNode {
@@ -229,7 +290,7 @@ class LineParser {
     }
     // A word followed by more of the term is a misspelled term keyword, not a parameter.
     const after = this.tokens[this.pos + 1];
-    if (tok?.kind === 'word' && after && after.kind !== 'plus') {
+    if (tok?.kind === 'word' && after && after.kind !== 'plus' && !(after.kind === 'word' && after.text === RATED)) {
       this.fail(tok.loc, `unknown waveform term '${tok.text}'`, {
         expected: 'a value, or one of: ' + TERM_KEYWORDS.join(', '),
         hint: didYouMean(tok.text, TERM_KEYWORDS),
@@ -269,15 +330,21 @@ class LineParser {
    * Keyword arguments in any order up to the end of the term (a `+` or the end of the line).
    * `what` names the term in messages; `startLoc` is its keyword, where a missing argument is reported.
    */
-  private keyArgs(what: string, spec: KeySpec, startLoc: SourceLocation): KeyArg[] {
+  private keyArgs(what: string, spec: KeySpec, startLoc: SourceLocation, onRated?: () => void): KeyArg[] {
     const args: KeyArg[] = [];
     const keys = spec.keys.join(', ');
     while (this.peek() && this.peek()!.kind !== 'plus') {
       const key = this.peek()!;
+      if (key.kind === 'word' && key.text === RATED) {
+        // A term ends at `rated`; a switch takes its ratings among its keywords.
+        if (!onRated) break;
+        onRated();
+        continue;
+      }
       if (key.kind !== 'word' || !spec.keys.includes(key.text)) {
         this.fail(key.loc, key.kind === 'word' ? `unknown ${what} keyword '${key.text}'` : `expected ${/^[aeiou]/.test(what) ? 'an' : 'a'} ${what} keyword, found ${DESCRIBE[key.kind]}`, {
           expected: `${keys}, each followed by a value`,
-          hint: key.kind === 'word' ? didYouMean(key.text, spec.keys) : undefined,
+          hint: key.kind === 'word' ? didYouMean(key.text, [...spec.keys, RATED]) : undefined,
         });
       }
       this.pos++;
@@ -291,7 +358,7 @@ class LineParser {
       }
       // A keyword where the value should be means the value was left out.
       const valueTok = this.peek();
-      if (!valueTok || valueTok.kind === 'plus' || (valueTok.kind === 'word' && spec.keys.includes(valueTok.text) && valueTok.text !== key.text)) {
+      if (!valueTok || valueTok.kind === 'plus' || (valueTok.kind === 'word' && (spec.keys.includes(valueTok.text) || valueTok.text === RATED) && valueTok.text !== key.text)) {
         this.fail(valueTok && valueTok.kind !== 'plus' ? valueTok.loc : { ...key.loc, col: key.loc.col + key.loc.length, length: 1 }, `missing a value after '${key.text}'`, {
           expected: spec.example,
         });
@@ -446,6 +513,8 @@ class LineParser {
 }
 
 /** 'rate', or 'amplitude' or 'rms'. */
+type PartStatement = Extract<Statement, { kind: 'part' }>;
+
 function alternatives(group: readonly string[]): string {
   const quoted = group.map((k) => `'${k}'`);
   return quoted.length === 1 ? quoted[0]! : `${quoted.slice(0, -1).join(', ')} or ${quoted[quoted.length - 1]}`;

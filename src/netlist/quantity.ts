@@ -5,7 +5,7 @@
  */
 
 /** Canonical unit symbols after normalizing spellings (ohm → Ω, V*s → Vs, ...). */
-export type Unit = 'Ω' | 'F' | 'H' | 'V' | 'A' | 's' | 'Hz' | 'Vs' | 'As' | 'V/s' | 'A/s' | 'deg' | 'rad' | '%';
+export type Unit = 'Ω' | 'F' | 'H' | 'V' | 'A' | 's' | 'Hz' | 'Vs' | 'As' | 'V/s' | 'A/s' | 'deg' | 'rad' | '%' | 'W' | 'J';
 
 export interface Quantity {
   /** SI value (2% is 0.02; angles in radians, so 90deg is π/2). */
@@ -50,6 +50,8 @@ const UNIT_SPELLINGS: Record<string, Unit> = {
   'A·s': 'As',
   'V/s': 'V/s',
   'A/s': 'A/s',
+  W: 'W',
+  J: 'J',
   deg: 'deg',
   rad: 'rad',
   '%': '%',
@@ -151,4 +153,6 @@ export const UNIT_NAMES: Record<Unit, string> = {
   deg: 'degrees (deg)',
   rad: 'radians (rad)',
   '%': 'percent (%)',
+  W: 'watts (W)',
+  J: 'joules (J)',
 };

@@ -70,13 +70,13 @@ describe('loadCircuit: a full circuit', () => {
   });
 
   it('reads the analysis settings', () => {
-    expect(c.analysis).toEqual({ span: 0.02, samples: 2001, settle: { kind: 'absolute', value: 0.01 }, start: 'settled' });
+    expect(c.analysis).toEqual({ span: 0.02, samples: 2001, settle: { kind: 'absolute', value: 0.01 }, start: 'settled', derating: 0.8 });
     expect(c.warnings).toBeUndefined();
   });
 
   it('fills analysis defaults', () => {
     const d = loadCircuit(lines('resistor R1 a -> gnd 1k', 'current-source I1 gnd -> a 1mA', 'watch node a'), 'x.rdn');
-    expect(d.analysis).toEqual({ samples: 1001, settle: { kind: 'relative', fraction: 0.02 }, start: 'settled' });
+    expect(d.analysis).toEqual({ samples: 1001, settle: { kind: 'relative', fraction: 0.02 }, start: 'settled', derating: 0.8 });
     expect(d.title).toBeUndefined();
   });
 
