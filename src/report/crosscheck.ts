@@ -1,6 +1,7 @@
 import type { CrossCheck } from '../simulate/result.js';
 import { BOLD, GREEN, RED, paint } from './color.js';
 import { formatPlain } from './si.js';
+import { wrapWords } from './wrap.js';
 
 const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : formatPlain(x));
 
@@ -8,14 +9,13 @@ const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : formatPlai
 export function crossCheckLines(c: CrossCheck, color: boolean): string[] {
   const what = `${c.method}, ${c.times.length} time point${c.times.length === 1 ? '' : 's'}`;
   const numbers = `max relative error ${sci(c.maxRelError)}, limit ${sci(c.tolerance)}`;
-  if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, `  against ${what}`];
+  if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, ...wrapWords(`  against ${what}`, 80, '    ')];
   const bar = '!'.repeat(72);
   return [
     paint(bar, RED + BOLD, color),
     paint('CROSS-CHECK FAILED', RED + BOLD, color),
-    `The closed-form answer disagrees with an independent calculation (${what}):`,
-    `${numbers}.`,
-    'Do not rely on the numbers in this report. Please report this circuit file as a ringdown bug.',
+    ...wrapWords(`The closed-form answer disagrees with an independent calculation (${what}): ${numbers}.`),
+    ...wrapWords('Do not rely on the numbers in this report. Please report this circuit file as a ringdown bug.'),
     paint(bar, RED + BOLD, color),
   ];
 }

@@ -1,5 +1,6 @@
 import type { Piece, Term } from '../simulate/result.js';
 import { formatPlain, formatSI } from './si.js';
+import { wrapFormula } from './wrap.js';
 
 /**
  * Closed forms written for people: `12 V − 12 V·e^(−t/1.00 ms)`.
@@ -179,7 +180,7 @@ export function impulseItem(area: number, t0: number, unit: string): Item {
  *   v(out) = 12 V − 12 V·e^(−t/1.00 ms)                       (a single piece from 0)
  *   v(out) = … for 1.000 ms ≤ t < 2.000 ms                     (several pieces)
  */
-export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, noise = 0): string[] {
+export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, noise = 0, width = Infinity): string[] {
   const coef = unitCoefs(unit);
   const shown = pieces.filter((p, i) => p.t0 < span || i === 0);
   if (shown.length === 0) return [`${label} = ${coef(0, 0)}`];
@@ -187,10 +188,10 @@ export function formatPieces(label: string, unit: string, pieces: readonly Piece
     const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit)] : [];
     const floor = { value: noise, timeScale: Math.max(0, Math.min(p.t1, span) - p.t0) };
     const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra, floor);
-    if (shown.length === 1 && p.t0 <= 0) return [`${label} = ${body}`];
+    if (shown.length === 1 && p.t0 <= 0) return wrapFormula(`${label} = `, body, width);
     const from = formatSI(p.t0, 's', { digits: 4, trim: true });
     const last = i === shown.length - 1;
     const range = last ? `t ≥ ${from}` : `${from} ≤ t < ${formatSI(p.t1, 's', { digits: 4, trim: true })}`;
-    return [`for ${range}:`, `  ${label} = ${body}`];
+    return [`for ${range}:`, ...wrapFormula(`  ${label} = `, body, width - 2)];
   });
 }

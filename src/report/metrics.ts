@@ -25,7 +25,10 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
   if (limit !== null && !m.finalIsLimit) {
     const half = band.kind === 'relative' ? band.fraction * Math.abs(m.final - m.initial) : band.value;
     if (Math.abs(limit - m.final) > Math.max(half, 1e-9 * scale)) {
-      lines.push('    note: the span ends before the signal has settled; the measurements above use the', '    end-of-span value as final. A longer span (--span) gives the settled picture.');
+      lines.push(
+        '    note: the span ends before the signal has settled; the measurements above',
+        '    take the end-of-span value as final. A longer span (--span) shows more.',
+      );
     }
   }
   return lines;

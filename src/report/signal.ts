@@ -7,6 +7,7 @@ import { formatPieces, formatTerms, impulseItem, unitCoefs } from './formula.js'
 import { metricsLines } from './metrics.js';
 import { formatPlain, formatSI } from './si.js';
 import { heading } from './table.js';
+import { wrapFormula } from './wrap.js';
 import { termLevels } from './waveform.js';
 
 export interface SignalSectionOptions {
@@ -57,14 +58,14 @@ function pathLines(trace: Trace, path: PathResponse, circuit: Circuit, span: num
       ? `${formatPlain(dcGain, 4)} ${g.label}`
       : formatSI(dcGain, g.coef, { digits: 4, trim: true })
     : 'unbounded (the path integrates)';
-  return [`    from ${path.source}, per 1 ${su} step: s(t) = ${formula}   (t > 0)`, `      DC gain ${dc}`];
+  return [`    from ${path.source} (per 1 ${su} step, t > 0), DC gain ${dc}:`, ...wrapFormula('      s(t) = ', formula, 80)];
 }
 
 /** Everything about one watched signal: closed form, per-source step responses, metrics, chart. */
 export function signalSection(trace: Trace, circuit: Circuit, times: Float64Array, span: number, opts: SignalSectionOptions): string[] {
   const lines = heading(`Signal ${trace.label} (${trace.unit})`);
   lines.push('  closed form:');
-  for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values))) lines.push(`    ${l}`);
+  for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values), 76)) lines.push(`    ${l}`);
   if (trace.paths.length > 0) {
     lines.push('  step response from each source (that source alone, stepping from 0 at t = 0):');
     for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit, span));

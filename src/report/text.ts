@@ -8,6 +8,7 @@ import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { signalSection } from './signal.js';
 import { circuitSection } from './summary.js';
 import { heading } from './table.js';
+import { wrapWords } from './wrap.js';
 
 export interface TextReportOptions {
   /** Draw a chart for each watched signal (default true). */
@@ -28,8 +29,8 @@ export function warningLine(d: Diagnostic): string {
 export function formatTextReport(result: RunResult, options: TextReportOptions = {}): string {
   const opts = { chart: options.chart ?? true, color: options.color ?? false, width: options.width ?? 80 };
   const { circuit } = result;
-  const title = `ringdown report: ${circuit.title ?? circuit.file}`;
-  const out: string[] = [title, '═'.repeat(Math.min(80, [...title].length)), ''];
+  const titleLines = wrapWords(`ringdown report: ${circuit.title ?? circuit.file}`, 80, '  ');
+  const out: string[] = [...titleLines, '═'.repeat(Math.max(...titleLines.map((l) => [...l].length))), ''];
 
   out.push(...crossCheckLines(result.crossCheck, opts.color), '');
   out.push(...circuitSection(circuit, result.states), '');

@@ -119,3 +119,26 @@ describe('switching', () => {
     expect(t).toContain('500.0 µs');
   });
 });
+
+describe('80 columns', () => {
+  it('every line of the text report fits, long titles and formulas included', () => {
+    const r = rcResult();
+    r.circuit.title = 'A very long title that goes on and on about the inrush current of a hot-plugged board with bulk capacitance';
+    r.traces[0]!.pieces = [
+      {
+        t0: 0,
+        t1: Infinity,
+        impulseArea: 0,
+        terms: [
+          { kind: 'exp', lambda: 0, coef: 23.97 },
+          { kind: 'osc', sigma: -1e4, omega: 3.1e4, cosCoef: 3.1, sinCoef: -24.2 },
+          { kind: 'exp', lambda: -3e3, coef: 1.5 },
+          { kind: 'poly-exp', lambda: -7e3, polyCoefs: [1, 2e3, 3e6] },
+        ],
+      },
+    ];
+    const text = formatTextReport(r);
+    const long = text.split('\n').filter((l) => [...l].length > 80);
+    expect(long).toEqual([]);
+  });
+});
