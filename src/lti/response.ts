@@ -27,6 +27,8 @@ export interface Forcing {
 export interface VQuasi {
   kappa: C;
   vecs: C[][];
+  /** true for the free (homogeneous) part of a scalar mode */
+  free?: boolean;
 }
 
 export interface BlockSolution {
@@ -34,40 +36,74 @@ export interface BlockSolution {
   clusterFree: Vec | null;
 }
 
-const RESONANCE = 1e-2;
+/** Below this |s − λ|·horizon the particular solution is written as the series (see above). */
+export const RESONANCE = 1e-2;
 
-export function solveBlockForced(b: Block, xi0: Vec, forcings: Forcing[], span: number): BlockSolution {
+/**
+ * The particular part of a block's response to its forcing, independent of the block's state, so
+ * that it can be computed once per interval shape and reused (a pulse train repeats the same few).
+ */
+export interface Particular {
+  /** scalar modes: per mode, the particular quasi-polynomials and their value at τ = 0 */
+  modes: { quasi: VQuasi[]; at0: C }[] | null;
+  /** cluster blocks: particular quasi-polynomials and their (real) value at τ = 0 */
+  cluster: { quasi: VQuasi[]; at0: Vec } | null;
+}
+
+export function particularOf(b: Block, forcings: Forcing[], horizon: number, seriesBelow = RESONANCE): Particular {
   const modes = scalarModes(b);
   if (modes) {
-    const quasi: VQuasi[] = [];
-    for (const m of modes) {
-      let eta0 = project(m.left, xi0);
-      for (const f of forcings) {
-        const G = projectC(m.left, f.g);
-        if (G.re === 0 && G.im === 0) continue;
-        const part = scalarParticular(m.lambda, f.power, f.s, G, span);
-        eta0 = csub(eta0, part.coefs[0] ?? c(0));
-        quasi.push({ kappa: part.kappa, vecs: part.coefs.map((q) => m.right.map((r) => cmul(r, q))) });
-      }
-      quasi.push({ kappa: m.lambda, vecs: [m.right.map((r) => cmul(r, eta0))] });
-    }
-    return { quasi, clusterFree: null };
+    return {
+      cluster: null,
+      modes: modes.map((m) => {
+        const quasi: VQuasi[] = [];
+        let at0 = c(0);
+        for (const f of forcings) {
+          const G = projectC(m.left, f.g);
+          if (G.re === 0 && G.im === 0) continue;
+          const part = scalarParticular(m.lambda, f.power, f.s, G, horizon, seriesBelow);
+          at0 = cadd(at0, part.coefs[0] ?? c(0));
+          quasi.push({ kappa: part.kappa, vecs: part.coefs.map((q) => m.right.map((r) => cmul(r, q))) });
+        }
+        return { quasi, at0 };
+      }),
+    };
   }
-  // cluster block: particular solutions by the matrix recursion, free response by the series
   const k = b.T.length;
   const quasi: VQuasi[] = [];
-  const p0 = new Array<number>(k).fill(0);
+  const at0 = new Array<number>(k).fill(0);
   for (const f of forcings) {
     const vecs = clusterParticular(b, f);
     quasi.push({ kappa: f.s, vecs });
-    vecs[0]?.forEach((v, i) => (p0[i] += v.re));
+    vecs[0]?.forEach((v, i) => (at0[i] += v.re));
   }
-  return { quasi, clusterFree: xi0.map((v, i) => v - p0[i]) };
+  return { modes: null, cluster: { quasi, at0 } };
 }
 
-function scalarParticular(lambda: C, p: number, s: C, G: C, span: number): { kappa: C; coefs: C[] } {
+/** The free part that makes particular + free start from ξ0, as a full block solution. */
+export function withFree(b: Block, part: Particular, xi0: Vec): BlockSolution {
+  if (part.modes) {
+    const modes = scalarModes(b)!;
+    const quasi: VQuasi[] = [];
+    part.modes.forEach((pm, i) => {
+      const m = modes[i];
+      quasi.push(...pm.quasi);
+      const eta = csub(project(m.left, xi0), pm.at0);
+      quasi.push({ kappa: m.lambda, vecs: [m.right.map((r) => cmul(r, eta))], free: true });
+    });
+    return { quasi, clusterFree: null };
+  }
+  const cl = part.cluster!;
+  return { quasi: cl.quasi, clusterFree: xi0.map((v, i) => v - cl.at0[i]) };
+}
+
+export function solveBlockForced(b: Block, xi0: Vec, forcings: Forcing[], horizon: number, seriesBelow = RESONANCE): BlockSolution {
+  return withFree(b, particularOf(b, forcings, horizon, seriesBelow), xi0);
+}
+
+function scalarParticular(lambda: C, p: number, s: C, G: C, span: number, seriesBelow: number): { kappa: C; coefs: C[] } {
   const d = csub(s, lambda);
-  if (cabs(d) * span < RESONANCE) {
+  if (cabs(d) * span < seriesBelow) {
     // ∫0^τ e^(λ(τ−u))·G·u^p·e^(su) du = G·e^(λτ)·Σ_k d^k τ^(p+k+1) / (k!·(p+k+1))
     const coefs: C[] = new Array(p + 1).fill(c(0));
     let dk = c(1);
@@ -75,7 +111,7 @@ function scalarParticular(lambda: C, p: number, s: C, G: C, span: number): { kap
     for (let kk = 0; kk < 40; kk++) {
       coefs.push(cscale(cmul(G, dk), 1 / (fact * (p + kk + 1))));
       const size = (cabs(dk) * span ** (kk + 1)) / fact;
-      if (kk > 2 && size < 1e-20) break;
+      if (kk > 2 && size < 1e-20 * span) break;
       dk = cmul(dk, d);
       fact *= kk + 1;
     }

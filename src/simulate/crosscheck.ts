@@ -14,12 +14,30 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
   const n = ss.n;
   const out = readouts.map(() => new Array<number>(times.length).fill(NaN));
   let xi = xi0.slice();
+  // the cycles of a pulse train repeat the same intervals: one exponential per distinct shape
+  const whole = new Map<string, { E: number[][]; start: number[] }>();
   schedule.intervals.forEach((iv, idx) => {
     const dirac = schedule.diracs.find((d) => d.t === iv.t0);
     if (dirac && idx > 0) xi = xi.map((v, i) => v + dot(ss.B[i], dirac.area));
-    const { M, start } = augmented(ss, iv);
+    const len = iv.t1 - iv.t0;
+    const key = `${len}|${iv.components.map((k) => `${k.input},${k.power},${k.sigma},${k.omega},${k.re},${k.im}`).join(';')}`;
+    let M: number[][] | null = null;
+    let start: number[] = [];
+    const build = () => {
+      if (!M) ({ M, start } = augmented(ss, iv));
+      return M!;
+    };
     const advance = (tau: number): Vec => {
-      const E = expm(M.map((row) => row.map((v) => v * tau)));
+      if (tau === len) {
+        let c = whole.get(key);
+        if (!c) {
+          const E = expm(build().map((row) => row.map((v) => v * tau)));
+          c = { E, start };
+          if (whole.size < 4096) whole.set(key, c);
+        }
+        return matvec(c.E, [...xi, ...c.start]).slice(0, n);
+      }
+      const E = expm(build().map((row) => row.map((v) => v * tau)));
       return matvec(E, [...xi, ...start]).slice(0, n);
     };
     times.forEach((t, k) => {

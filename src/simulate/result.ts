@@ -96,6 +96,11 @@ export interface RunResult {
     jumps: { part: string; kind: 'capacitor-voltage' | 'inductor-current'; before: number; after: number }[];
     energyLost: number;
   }[];
+  /**
+   * Each distinct switch configuration in order of first use (one entry when there are no switches).
+   * The top-level states, modes and traces[].paths are those of the configuration in force at the end.
+   */
+  configurations?: { from: number; closed: string[]; states: StateInfo[]; modes: Mode[]; paths: PathResponse[][] }[];
   /** closed forms of every part's voltage v(a) − v(b) and current a → b, same piece boundaries as the traces */
   parts?: { part: string; voltage: Piece[]; current: Piece[] }[];
   crossCheck: CrossCheck;

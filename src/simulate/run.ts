@@ -40,11 +40,23 @@ export interface Simulation {
   /** closed forms of every part's voltage and current (passive sign convention, a -> b) */
   parts: { part: string; voltage: Piece[]; current: Piece[] }[];
   events: EventReport[];
+  /** with switches: each distinct configuration (first used from `from`) with its own states and modes */
+  configurations: Omit<Configuration, 'circuit'>[];
   crossCheck: CrossCheck;
   notices: string[];
 }
 
 export const CROSS_CHECK_TOLERANCE = 1e-9;
+
+interface Configuration {
+  circuit: Circuit;
+  from: number;
+  closed: string[];
+  states: StateInfo[];
+  modes: Mode[];
+  /** per watch, per source */
+  paths: PathResponse[][];
+}
 
 interface Prepared {
   model: Model;
@@ -154,12 +166,27 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
 
   const times = new Float64Array(samples);
   for (let k = 0; k < samples; k++) times[k] = (span * k) / (samples - 1);
-  const firstP = prepare(eps[0].circuit);
+  // one entry per distinct switch configuration, in order of first use; the headline states,
+  // modes and path responses are those of the configuration in force at the end of the span
+  const configurations: Configuration[] = [];
+  for (const ep of eps) {
+    if (configurations.some((c) => c.circuit === ep.circuit)) continue;
+    const P = prepare(ep.circuit);
+    configurations.push({
+      circuit: ep.circuit,
+      from: ep.t0,
+      closed: ep.closed,
+      states: P.model.ss.states.map((st) => ({ name: st.name, part: st.part, kind: st.kind })),
+      modes: modesOf(P.modal.blocks),
+      paths: P.readouts.map((r) => pathResponses(P.model.ss, P.modal, r, span)),
+    });
+  }
+  const finalConfig = configurations.find((c) => c.circuit === eps[eps.length - 1].circuit)!;
   const signals = circuit.watches.map((watch, w) => ({
     watch,
     values: sample(pieces[w], times),
     pieces: pieces[w],
-    paths: pathResponses(firstP.model.ss, firstP.modal, firstP.readouts[w], span),
+    paths: finalConfig.paths[w],
   }));
   // relative to the largest watched value of the same unit: a signal that is zero up to
   // round-off (the voltage across a coil carrying DC) is not judged against its own noise
@@ -177,11 +204,12 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     tolerance: CROSS_CHECK_TOLERANCE,
     passed: maxRel <= CROSS_CHECK_TOLERANCE,
   };
-  const states: StateInfo[] = firstP.model.ss.states.map((s) => ({ name: s.name, part: s.part, kind: s.kind }));
-  const modes = modesOf(firstP.modal.blocks);
+  const states = finalConfig.states;
+  const modes = finalConfig.modes;
   void matvec;
   const parts = circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
-  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, crossCheck, notices };
+  const configs = configurations.map(({ circuit: _c, ...rest }) => rest);
+  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, configurations: configs, crossCheck, notices };
 }
 
 function fmt(v: number): string {

@@ -1,8 +1,9 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import { type Mat, type Vec, matmul, matvec } from '../linalg/dense.js';
-import { type C, c } from '../lti/complex.js';
+import { type C, c, cmul, csub } from '../lti/complex.js';
+import { type ScalarMode, project, scalarModes } from '../lti/scalar-modes.js';
 import type { Block, Modal } from '../lti/modal.js';
-import { type BlockSolution, type Forcing, blockSolutionTerms, blockStateAt, quasiTerm, solveBlockForced } from '../lti/response.js';
+import { type BlockSolution, type Forcing, type Particular, blockSolutionTerms, blockStateAt, particularOf, quasiTerm, solveBlockForced, withFree } from '../lti/response.js';
 import { simplifyTerms } from '../lti/simplify.js';
 import type { Component } from '../waveform/component.js';
 import type { InputSchedule, Interval } from '../waveform/schedule.js';
@@ -26,31 +27,160 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const gammas = readouts.map((r) => (ss.n ? matvec(transposeOf(modal.W), r.C) : []));
   let xm = ss.n ? matvec(modal.Winv, xi0) : [];
   const pieces: Piece[][] = readouts.map(() => []);
+  // Intervals of the same length and the same source components (the cycles of a pulse train)
+  // share their particular solutions, the read-out terms those give, and their end values.
+  const shapes = new Map<string, Shape>();
+  const first = schedule.intervals[0]?.t0;
+  const diracAt = new Map(schedule.diracs.map((d) => [d.t, d.area]));
+  const jumpAt = new Map(schedule.jumps.map((j) => [j.t, j.delta]));
+  const modeSets = modal.blocks.map((b) => scalarModes(b));
+  const outModes = readouts.map((_, w) => modal.blocks.map((b, k) => modeSets[k]?.map((m) => dotRC(pick(gammas[w], b), m.right)) ?? null));
   for (const iv of schedule.intervals) {
-    const dirac = schedule.diracs.find((d) => d.t === iv.t0);
-    if (dirac && iv.t0 > schedule.intervals[0].t0) xm = xm.map((v, i) => v + dot(beta[i], dirac.area));
-    const jump = schedule.jumps.find((j) => j.t === iv.t0);
-    const sols = modal.blocks.map((b) => solveBlockForced(b, pick(xm, b), forcingsFor(b, beta, iv.components), span));
-    readouts.forEach((r, w) => {
-      const terms = collect(modal.blocks, sols, gammas[w], span);
-      terms.push(...directTerms(r.D, iv.components), ...directTerms(r.D1, iv.slopes));
-      let impulseArea = 0;
-      if (dirac) impulseArea += dot(r.D, dirac.area);
-      if (jump) impulseArea += dot(r.D1, jump.delta);
-      pieces[w].push({ t0: iv.t0, t1: iv.t1, terms: simplifyTerms(terms), impulseArea });
+    const dirac = diracAt.get(iv.t0);
+    if (dirac && iv.t0 > first) xm = xm.map((v, i) => v + dot(beta[i], dirac));
+    const jump = jumpAt.get(iv.t0);
+    const tau = iv.t1 - iv.t0;
+    const key = shapeKey(iv, tau);
+    let shape = shapes.get(key);
+    if (!shape) {
+      shape = makeShape(modal, beta, gammas, readouts, iv, tau);
+      if (shapes.size < 4096) shapes.set(key, shape);
+    }
+    // free part per block: scalar modes carry η − η_p(0); clusters a real vector
+    const etas: (C[] | null)[] = [];
+    const clusterSols: (BlockSolution | null)[] = [];
+    modal.blocks.forEach((b, k) => {
+      const modes = modeSets[k];
+      const pt = shape!.particulars[k];
+      if (modes && pt.modes) {
+        etas.push(modes.map((m, i) => csub(project(m.left, pick(xm, b)), pt.modes![i].at0)));
+        clusterSols.push(null);
+      } else {
+        etas.push(null);
+        clusterSols.push(withFree(b, pt, pick(xm, b)));
+      }
     });
-    xm = advance(modal, sols, iv);
+    readouts.forEach((r, w) => {
+      const terms = shape!.readoutTerms[w].map(copyTerm);
+      modal.blocks.forEach((b, k) => {
+        const eta = etas[k];
+        if (eta) addFree(terms, modeSets[k]!, outModes[w][k]!, eta);
+        else terms.push(...blockSolutionTerms(b, { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, pick(gammas[w], b), tau));
+      });
+      let impulseArea = 0;
+      if (dirac) impulseArea += dot(r.D, dirac);
+      if (jump) impulseArea += dot(r.D1, jump);
+      pieces[w].push({ t0: iv.t0, t1: iv.t1, terms, impulseArea });
+    });
+    // state at the interval's end: particular end values (cached) plus the free parts carried over
+    const next = shape.end.slice();
+    modal.blocks.forEach((b, k) => {
+      const eta = etas[k];
+      if (eta) {
+        const modes = modeSets[k]!;
+        b.index.forEach((col, i) => {
+          let v = 0;
+          modes.forEach((m, l) => {
+            const e = cexpT(m.lambda, tau);
+            const z = cmul(eta[l], e);
+            v += m.right[i].re * z.re - m.right[i].im * z.im;
+          });
+          next[col] += v;
+        });
+      } else {
+        const v = blockStateAt(b, { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, tau);
+        b.index.forEach((col, i) => (next[col] += v[i]));
+      }
+    });
+    xm = next;
   }
   return { pieces, final: ss.n ? matvec(modal.W, xm) : [] };
 }
 
-function advance(modal: Modal, sols: BlockSolution[], iv: Interval): Vec {
-  const next = new Array<number>(modal.n).fill(0);
-  modal.blocks.forEach((b, k) => {
-    const v = blockStateAt(b, sols[k], iv.t1 - iv.t0);
-    b.index.forEach((col, i) => (next[col] = v[i]));
+function cexpT(l: C, tau: number): C {
+  const m = Math.exp(l.re * tau);
+  return l.im === 0 ? { re: m, im: 0 } : { re: m * Math.cos(l.im * tau), im: m * Math.sin(l.im * tau) };
+}
+
+function dotRC(g: Vec, v: C[]): C {
+  let re = 0;
+  let im = 0;
+  for (let i = 0; i < g.length; i++) {
+    re += g[i] * v[i].re;
+    im += g[i] * v[i].im;
+  }
+  return { re, im };
+}
+
+function copyTerm(t: Term): Term {
+  switch (t.kind) {
+    case 'exp':
+    case 'osc':
+      return { ...t };
+    case 'poly-exp':
+      return { ...t, polyCoefs: t.polyCoefs.slice() };
+    case 'quasi':
+      return { ...t, cosPoly: t.cosPoly.slice(), sinPoly: t.sinPoly.slice() };
+  }
+}
+
+/**
+ * Add the free response Re[Σ_ℓ (γ·v_ℓ)·η_ℓ·e^(λ_ℓ τ)] of one block to a term list, merging with a
+ * term of the same exponent when there is one. A conjugate pair becomes one damped cosine/sine.
+ */
+function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
+  if (modes.length === 1) {
+    const coef = out[0].re * eta[0].re - out[0].im * eta[0].im;
+    const lambda = modes[0].lambda.re;
+    const same = terms.find((t) => t.kind === 'exp' && t.lambda === lambda);
+    if (same && same.kind === 'exp') same.coef += coef;
+    else terms.push({ kind: 'exp', lambda, coef });
+    return;
+  }
+  // Re[C1·e^(λτ)] + Re[C2·e^(λ̄τ)] = Re[(C1 + conj C2)·e^(λτ)], λ = μ + jω (ω > 0 for modes[0])
+  const c1 = cmul(out[0], eta[0]);
+  const c2 = cmul(out[1], eta[1]);
+  const a = c1.re + c2.re;
+  const b = c1.im - c2.im;
+  const sigma = modes[0].lambda.re;
+  const omega = modes[0].lambda.im;
+  const same = terms.find((t) => t.kind === 'osc' && t.sigma === sigma && t.omega === omega);
+  if (same && same.kind === 'osc') {
+    same.cosCoef += a;
+    same.sinCoef -= b;
+  } else terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });
+}
+
+interface Shape {
+  particulars: Particular[];
+  /** per read-out: the terms of the particular parts and of the direct feed-through, simplified */
+  readoutTerms: Term[][];
+  /** modal state at the interval's end due to the particular parts alone */
+  end: number[];
+}
+
+function shapeKey(iv: Interval, tau: number): string {
+  return `${tau}|${iv.components.map((k) => `${k.input},${k.power},${k.sigma},${k.omega},${k.re},${k.im}`).join(';')}`;
+}
+
+function makeShape(modal: Modal, beta: Mat, gammas: Vec[], readouts: Readout[], iv: Interval, tau: number): Shape {
+  // series form wherever |s − λ|·τ < 1: no cancellation between particular and free parts on short intervals
+  const particulars = modal.blocks.map((b) => particularOf(b, forcingsFor(b, beta, iv.components), tau, 1));
+  const quasiOf = (pt: Particular) => (pt.modes ? pt.modes.flatMap((m) => m.quasi) : pt.cluster!.quasi);
+  const readoutTerms = readouts.map((r, w) => {
+    const terms: Term[] = [];
+    modal.blocks.forEach((b, k) => {
+      terms.push(...blockSolutionTerms(b, { quasi: quasiOf(particulars[k]), clusterFree: null }, pick(gammas[w], b), tau));
+    });
+    terms.push(...directTerms(r.D, iv.components), ...directTerms(r.D1, iv.slopes));
+    return simplifyTerms(terms);
   });
-  return next;
+  const end = new Array<number>(modal.n).fill(0);
+  modal.blocks.forEach((b, k) => {
+    const v = blockStateAt(b, { quasi: quasiOf(particulars[k]), clusterFree: null }, tau);
+    b.index.forEach((col, i) => (end[col] = v[i]));
+  });
+  return { particulars, readoutTerms, end };
 }
 
 /** Read-out terms that follow the inputs directly: Re[d·c·τ^p·e^(sτ)]. */
