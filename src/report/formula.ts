@@ -44,16 +44,29 @@ function expFactor(lambda: number, v: string): string {
 /** Terms smaller than this fraction of the largest one are left out. */
 const NEGLIGIBLE = 1e-12;
 
-function termScale(term: Term): number {
+/** Largest of |c_k|·s^k: a polynomial's size over a time scale s (s = 0: the constant alone). */
+function polySize(c: readonly number[], s: number): number {
+  let m = 0;
+  c.forEach((x, k) => (m = Math.max(m, Math.abs(x) * (k === 0 ? 1 : s ** k))));
+  return m;
+}
+
+/**
+ * Size of a term in the signal's unit, over `timeScale` seconds (for polynomial factors; without
+ * one, a decaying term's own time constant): what decides whether a term is rounding noise.
+ */
+function termScale(term: Term, timeScale: number): number {
   switch (term.kind) {
     case 'exp':
       return Math.abs(term.coef);
     case 'osc':
       return Math.hypot(term.cosCoef, term.sinCoef);
     case 'poly-exp':
-      return Math.max(0, ...term.polyCoefs.map(Math.abs));
-    case 'quasi':
-      return Math.max(0, ...term.cosPoly.map(Math.abs), ...term.sinPoly.map(Math.abs));
+      return polySize(term.polyCoefs, timeScale > 0 ? timeScale : term.lambda < 0 ? -1 / term.lambda : 0);
+    case 'quasi': {
+      const s = timeScale > 0 ? timeScale : term.sigma < 0 ? -1 / term.sigma : 0;
+      return Math.max(polySize(term.cosPoly, s), polySize(term.sinPoly, s));
+    }
   }
 }
 
@@ -130,10 +143,9 @@ function termItems(term: Term, v: string, coef: CoefFormat, floor: Floor): Item[
       const tau = -1 / term.lambda;
       const tauS = formatSI(tau, 's', { digits: 3 });
       const ratio = `(${v}/${tauS})`;
-      const scale = Math.max(0, ...term.polyCoefs.map((c, k) => Math.abs(c * tau ** k)));
       const inner: Item[] = term.polyCoefs
-        .map((c, k) => ({ a: c * tau ** k, k }))
-        .filter(({ a }) => Math.abs(a) > NEGLIGIBLE * scale)
+        .map((c, k) => ({ a: c * tau ** k, k, c }))
+        .filter(({ c, k }) => !negligibleCoef(c, k, floor.timeScale > 0 ? floor : { value: floor.value, timeScale: tau }))
         .map(({ a, k }) => ({
           negative: a < 0,
           body: k === 0 ? coef(Math.abs(a), 0) : `${one(coef(Math.abs(a), 0))}${ratio}${k > 1 ? superscript(k) : ''}`,
@@ -156,10 +168,12 @@ function joinItems(items: Item[]): string {
  * Terms below 1e-12 of the largest one, or within the absolute `floor`, are rounding noise and left out.
  */
 export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat, extra: Item[] = [], floor: Floor = { value: 0, timeScale: 0 }): string {
-  const scale = Math.max(0, ...terms.map(termScale));
-  const polynomial = (t: Term) => (t.kind === 'poly-exp' && t.lambda === 0) || (t.kind === 'quasi' && t.sigma === 0);
-  const keep = (t: Term) => termScale(t) > NEGLIGIBLE * scale && (polynomial(t) || termScale(t) > floor.value);
-  const items = terms.filter(keep).flatMap((t) => termItems(t, v, coef, floor));
+  const size = (t: Term) => termScale(t, floor.timeScale);
+  const scale = Math.max(0, ...terms.map(size));
+  // inside a kept term, coefficients below this are noise as well
+  const inner: Floor = { value: Math.max(floor.value, NEGLIGIBLE * scale), timeScale: floor.timeScale };
+  const keep = (t: Term) => size(t) > inner.value;
+  const items = terms.filter(keep).flatMap((t) => termItems(t, v, coef, inner));
   items.push(...extra);
   return items.length === 0 ? coef(0, 0) : joinItems(items);
 }

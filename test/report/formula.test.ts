@@ -40,3 +40,25 @@ describe('closed forms in words', () => {
     ]);
   });
 });
+
+describe('noise judgement across units', () => {
+  it('keeps ordinary terms beside a high-order polynomial whose coefficients are huge in per-second units', () => {
+    const lambda = -11255;
+    const poly = [0, 0, -13.41 * lambda ** 2, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, -19.22e-12 * (-lambda) ** 16];
+    const text = formatTerms(
+      [
+        { kind: 'poly-exp', lambda: 0, polyCoefs: [29.21, 40e3] },
+        { kind: 'poly-exp', lambda, polyCoefs: poly },
+        { kind: 'osc', sigma: -25887, omega: 58037, cosCoef: -2.4, sinCoef: -6.96 },
+      ],
+      't',
+      unitCoefs('A'),
+      [],
+      { value: 1e-12 * 20, timeScale: 50e-6 },
+    );
+    expect(text).toContain('29.21 A + 40 kA/s·t');
+    expect(text).toContain('cos(2π·9.237 kHz·t');
+    expect(text).toContain('13.41 A·(t/88.8 µs)²');
+    expect(text).not.toContain('¹⁶'); // 19 pA·(50 µs/88.8 µs)¹⁶ is far below the noise floor
+  });
+});
