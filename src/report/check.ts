@@ -2,7 +2,7 @@ import type { Circuit, Watch, WatchTarget } from '../circuit/circuit.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { heading, table } from './table.js';
 import { warningLine } from './text.js';
-import { describeSwitching, describeWaveform, isSource, kindName, partUnit } from './waveform.js';
+import { describeRatings, describeSwitching, describeWaveform, isSource, kindName, partUnit } from './waveform.js';
 
 function targetText(t: WatchTarget): string {
   switch (t.kind) {
@@ -50,6 +50,7 @@ export function formatCheck(circuit: Circuit): string {
         p.kind === 'switch' ? describeSwitching(p) : formatSIExact(p.value, partUnit(p)),
         p.initial !== undefined ? `initial ${formatSIExact(p.initial, p.kind === 'capacitor' ? 'V' : 'A')}` : '',
         direction(p.kind, p.a, p.b),
+        describeRatings(p),
       ]),
     ),
   );
@@ -70,6 +71,7 @@ export function formatCheck(circuit: Circuit): string {
   out.push(...heading('Analysis'));
   out.push(`  span: ${a.span === undefined ? 'chosen from the slowest mode' : formatSI(a.span, 's', { digits: 6, trim: true })}`);
   out.push(`  samples: ${a.samples}`);
+  if (a.derating !== undefined && circuit.parts.some((p) => p.ratings)) out.push(`  derating: parts flagged above ${formatPlain(a.derating * 100, 4)} % of a rating`);
   out.push(`  before t = 0: ${a.start === 'rest' ? 'every capacitor and inductor at zero' : 'settled at the DC operating point'} (a part's own initial value overrides)`);
   out.push(`  settling band: ${a.settle.kind === 'relative' ? `±${formatPlain(a.settle.fraction * 100, 6)} % of the transition` : `±${formatSIExact(a.settle.value, '')} (same unit as each signal)`}`);
   const params = Object.entries(circuit.params);

@@ -113,3 +113,15 @@ export function describePartValue(part: Part): string {
   if (part.initial !== undefined) text += `, initial ${formatSIExact(part.initial, part.kind === 'capacitor' ? 'V' : 'A')}`;
   return text;
 }
+
+/** A part's ratings in words (`rated 50 V, 2 A, 1 W, 5 J per pulse`); '' when none are given. */
+export function describeRatings(part: Part): string {
+  const r = part.ratings;
+  if (!r) return '';
+  const items: string[] = [];
+  if (r.voltage !== undefined) items.push(formatSIExact(r.voltage, 'V'));
+  if (r.current !== undefined) items.push(formatSIExact(r.current, 'A'));
+  if (r.power !== undefined) items.push(formatSIExact(r.power, 'W'));
+  if (r.pulseEnergy !== undefined) items.push(`${formatSIExact(r.pulseEnergy, 'J')} per pulse`);
+  return items.length > 0 ? `rated ${items.join(', ')}` : '';
+}

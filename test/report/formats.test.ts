@@ -142,3 +142,13 @@ describe('80 columns', () => {
     expect(long).toEqual([]);
   });
 });
+
+describe('check printout with ratings', () => {
+  it('shows what a part is rated for', () => {
+    const c = rcResult().circuit;
+    c.parts[2]!.ratings = { voltage: 16, pulseEnergy: 0.5 };
+    const t = formatCheck(c);
+    expect(t).toContain('rated 16 V, 500 mJ per pulse');
+    expect(t).toContain('derating: parts flagged above 80 % of a rating');
+  });
+});
