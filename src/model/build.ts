@@ -105,7 +105,7 @@ export function buildModel(circuit: Circuit): Model {
   };
 
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
-    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, physical, before, u0, du0);
+    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0, du0);
   const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
 
   return { ss, readout, descriptor: d, initialState, storage };
@@ -156,6 +156,7 @@ function consistentInitial(
   np: number,
   X: Mat,
   Xu: Mat[],
+  chosen: number[],
   physical: PhysicalQuantity[],
   beforeValues: Map<string, number>,
   u0: Vec,
@@ -200,16 +201,23 @@ function consistentInitial(
   Xu.forEach((Z, j) => {
     if (j < derivs.length) addInto(x, matvec(Z, derivs[j]));
   });
-  // report every capacitor/inductor whose value had to change
+  // report every capacitor/inductor whose value had to change; a change below 1e-9 of the
+  // circuit's largest stored value or source value is round-off, and the state keeps its value
   const zPlus = addVec(matvec(Zp, p), zu).map((v, i) => v * s[i]);
+  const values = physical.map((ph) => ({
+    ph,
+    before: beforeValues.get(ph.part.name) ?? 0,
+    after: ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0),
+  }));
+  const scale = Math.max(...values.flatMap((v) => [Math.abs(v.before), Math.abs(v.after)]), ...u0.map(Math.abs), 0);
   const jumps: InitialState['jumps'] = [];
-  for (const ph of physical) {
-    const before = beforeValues.get(ph.part.name) ?? 0;
-    const after = ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0);
-    if (Math.abs(after - before) > 1e-9 * Math.max(Math.abs(before), Math.abs(after), 1e-12)) {
-      jumps.push({ part: ph.part.name, kind: ph.kind, before, after });
-    }
+  for (const v of values) {
+    if (Math.abs(v.after - v.before) > 1e-9 * scale) jumps.push({ part: v.ph.part.name, kind: v.ph.kind, before: v.before, after: v.after });
   }
+  chosen.forEach((q, i) => {
+    const v = values[q];
+    if (Math.abs(v.after - v.before) <= 1e-9 * scale) x[i] = v.before;
+  });
   return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
 }
 
