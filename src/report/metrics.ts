@@ -3,6 +3,12 @@ import type { Metrics } from '../simulate/result.js';
 import { formatPlain, formatSI } from './si.js';
 import { table } from './table.js';
 
+/** A percentage with 4 significant digits (16.30, 0.5000), whole numbers from 10 000 on. */
+function percent(x: number): string {
+  if (x === 0) return '0';
+  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e4 ? x.toPrecision(4) : formatPlain(x, 4);
+}
+
 /** The metrics of one signal as a two-column block. */
 export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: number | null = null): string[] {
   // Values this far below the signal's size are rounding noise: show them as 0.
@@ -17,7 +23,7 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
     ...(limit !== null && !m.finalIsLimit ? [['steady state (t → ∞)', v(limit)]] : []),
     ['peak', `${v(m.peak.value)} at t = ${t(m.peak.time)}`],
     ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
-    ['overshoot', m.overshootPct === null ? none : `${formatPlain(m.overshootPct, 4)} %`],
+    ['overshoot', m.overshootPct === null ? none : `${percent(m.overshootPct)} %`],
     [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];

@@ -2,19 +2,22 @@ import { visibleWidth } from './color.js';
 
 /** Word-wraps text to `width` columns; continuation lines start with `indent`. */
 export function wrapWords(text: string, width = 80, indent = ''): string[] {
-  const words = text.split(/ +/);
+  const lead = /^ */.exec(text)![0];
+  const words = text.slice(lead.length).split(/ +/);
   const lines: string[] = [];
-  let line = '';
+  let line = lead;
+  let first = true;
   for (const w of words) {
-    const candidate = line === '' ? w : `${line} ${w}`;
-    if (line !== '' && visibleWidth(candidate) > width) {
+    const candidate = first ? line + w : `${line} ${w}`;
+    if (!first && visibleWidth(candidate) > width) {
       lines.push(line);
       line = indent + w;
     } else {
       line = candidate;
     }
+    first = false;
   }
-  if (line !== '') lines.push(line);
+  lines.push(line);
   return lines;
 }
 

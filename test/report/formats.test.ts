@@ -152,3 +152,11 @@ describe('check printout with ratings', () => {
     expect(t).toContain('derating: parts flagged above 80 % of a rating');
   });
 });
+
+describe('wrapping keeps indentation', () => {
+  it('indents the first line as given', async () => {
+    const { wrapWords } = await import('../../src/report/wrap.js');
+    expect(wrapWords('  nodes: a, b', 80, '    ')).toEqual(['  nodes: a, b']);
+    expect(wrapWords('  one two three', 10, '    ')).toEqual(['  one two', '    three']);
+  });
+});
