@@ -56,6 +56,9 @@ describe('rated', () => {
     const v = part('voltage-source V2 x -> gnd step to 5V at 1ms + sine amplitude 1V freq 1kHz rated 2A', 'V2');
     expect(v.ratings).toEqual({ current: 2 });
     expect(v.waveform!.terms).toHaveLength(2);
+    const c = loadCircuit(circuit('param Vs = 12V', 'voltage-source V2 x -> gnd Vs rated 3A', 'resistor R9 x -> gnd 1k'), 'r.rdn');
+    expect(c.parts.find((p) => p.name === 'V2')).toMatchObject({ waveform: { terms: [{ kind: 'constant', value: 12 }] }, ratings: { current: 3 } });
+    expect(part('current-source I2 gnd -> out table 0 0A, 1ms 1mA rated 40V', 'I2').ratings).toEqual({ voltage: 40 });
   });
 
   it('reads parameters declared with a rating unit', () => {
