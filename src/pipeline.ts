@@ -41,6 +41,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     start: sim.start,
     events: sim.events,
     parts: sim.parts,
+    configurations: sim.configurations,
     crossCheck: sim.crossCheck,
     notices: sim.notices,
   };
