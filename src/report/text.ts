@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../diagnostics.js';
 import type { RunResult } from '../simulate/result.js';
 import { crossCheckLines } from './crosscheck.js';
+import { energySection } from './energy.js';
 import { eventsSection } from './events.js';
 import { modesSection } from './modes.js';
 import { SAFETY_NOTICE } from './safety.js';
@@ -66,6 +67,9 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   for (const trace of result.traces) {
     out.push(...signalSection(trace, circuit, result.times, result.span, opts), '');
   }
+
+  const energy = energySection(result);
+  if (energy.length > 0) out.push(...energy, '');
 
   const warnings = circuit.warnings ?? [];
   if (warnings.length + result.notices.length > 0) {

@@ -1,3 +1,4 @@
+import type { Piece, Term } from '../../src/simulate/result.js';
 import { describe, expect, it } from 'vitest';
 import { csvNumber, formatCSV } from '../../src/report/csv.js';
 import { JSON_SCHEMA, formatJSON } from '../../src/report/json.js';
@@ -158,5 +159,28 @@ describe('wrapping keeps indentation', () => {
     const { wrapWords } = await import('../../src/report/wrap.js');
     expect(wrapWords('  nodes: a, b', 80, '    ')).toEqual(['  nodes: a, b']);
     expect(wrapWords('  one two three', 10, '    ')).toEqual(['  one two', '    three']);
+  });
+});
+
+describe('energy', () => {
+  it('balances the RC charge: the source delivers C·V², half is heat, half is stored (circuits textbook, from memory)', () => {
+    const r = rcResult();
+    // over [0, ∞) a 12 V step into 1 µF through 1 kΩ: delivered 144 µJ, heat 72 µJ, stored 72 µJ
+    const tau = 1e-3;
+    const forever = 1; // 1000 τ: e^(−1000) is nothing
+    const piece = (terms: Term[]): Piece[] => [{ t0: 0, t1: forever, impulseArea: 0, terms }];
+    r.parts = [
+      { part: 'V1', voltage: piece([{ kind: 'exp', lambda: 0, coef: 12 }]), current: piece([{ kind: 'exp', lambda: -1 / tau, coef: -0.012 }]) },
+      { part: 'R1', voltage: piece([{ kind: 'exp', lambda: -1 / tau, coef: 12 }]), current: piece([{ kind: 'exp', lambda: -1 / tau, coef: 0.012 }]) },
+      {
+        part: 'C1',
+        voltage: piece([{ kind: 'exp', lambda: 0, coef: 12 }, { kind: 'exp', lambda: -1 / tau, coef: -12 }]),
+        current: piece([{ kind: 'exp', lambda: -1 / tau, coef: 0.012 }]),
+      },
+    ];
+    const t = formatTextReport(r, { chart: false });
+    expect(t).toMatch(/delivered by the sources\s+144\.0 µJ/);
+    expect(t).toMatch(/turned into heat\s+72\.00 µJ/);
+    expect(t).toMatch(/change in stored energy\s+72\.00 µJ/);
   });
 });
