@@ -65,7 +65,8 @@ function pathLines(trace: Trace, path: PathResponse, circuit: Circuit, span: num
 export function signalSection(trace: Trace, circuit: Circuit, times: Float64Array, span: number, opts: SignalSectionOptions): string[] {
   const lines = heading(`Signal ${trace.label} (${trace.unit})`);
   lines.push('  closed form:');
-  for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values), 76)) lines.push(`    ${l}`);
+  if (trace.pieces.length === 0) lines.push('    not available for this signal (samples only)');
+  else for (const l of formatPieces(trace.label, trace.unit, trace.pieces, span, NOISE * maxAbs(trace.values), 76)) lines.push(`    ${l}`);
   if (trace.paths.length > 0) {
     lines.push('  step response from each source (that source alone, stepping from 0 at t = 0):');
     for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit, span));
