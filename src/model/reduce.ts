@@ -39,7 +39,7 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
     const Kalg = matmul(U2t, AZp, np);
     const ks = rankSplit(Kalg, np, 1e-10, scaleA);
     if (ks.rank === 0) {
-      requireZero(R.map((Rj) => matmul(U2t, Rj, m)), 'the circuit equations constrain the sources themselves');
+      requireZero(R.map((Rj) => matmul(U2t, Rj, m)), 'the circuit equations constrain the sources themselves', inputScale(R, scaleA));
       if (split.rank !== np) throw new ReductionError('the circuit equations do not determine every voltage and current');
       const U1t = transpose(split.range, split.rank);
       const square = matmul(U1t, M, np);
@@ -51,7 +51,7 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
     // Keep the q independent combinations of the algebraic rows; the others must involve sources only.
     const Qt = transpose(ks.range, ks.rank);
     const rest = transpose(ks.leftNull, Kalg.length - ks.rank);
-    requireZero(R.map((Rj) => matmul(rest, matmul(U2t, Rj, m), m)), 'the circuit equations constrain the sources themselves');
+    requireZero(R.map((Rj) => matmul(rest, matmul(U2t, Rj, m), m)), 'the circuit equations constrain the sources themselves', inputScale(R, scaleA));
     const Kq = matmul(Qt, Kalg, np);
     const Rq = R.map((Rj) => matmul(Qt, matmul(U2t, Rj, m), m));
     // Kq·p + Σ Rq[j]·u^(j) = 0  ⇒  p = Nk·p' − Kq⁺·Σ Rq[j]·u^(j)
@@ -90,16 +90,24 @@ function residualInputs(E: Mat, A: Mat, B: Mat, Zu: Mat[], m: number): Mat[] {
   return trimTrailingZero(R);
 }
 
+function inputScale(R: Mat[], scaleA: number): number {
+  return Math.max(1, scaleA, ...R.flatMap((Rj) => Rj.flat().map(Math.abs)));
+}
+
 function trimTrailingZero(list: Mat[]): Mat[] {
   const out = list.slice();
   while (out.length > 1 && out[out.length - 1].every((row) => row.every((v) => Math.abs(v) < 1e-300))) out.pop();
   return out;
 }
 
-function requireZero(blocks: Mat[], why: string): void {
+/** The blocks must vanish up to round-off relative to `scale` (the size of the terms they came from). */
+function requireZero(blocks: Mat[], why: string, scale: number): void {
   for (const b of blocks) {
     const big = Math.max(0, ...b.flat().map(Math.abs));
-    if (big > 1e-9) throw new ReductionError(why);
+    if (big > 1e-9 * scale) {
+      if (process.env.RINGDOWN_DEBUG) console.error('requireZero', big, scale);
+      throw new ReductionError(why);
+    }
   }
 }
 

@@ -1,5 +1,6 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Vec, matvec, zeros } from '../linalg/dense.js';
+import { type Vec, matvec, norm1, zeros } from '../linalg/dense.js';
+import { balance } from '../linalg/balance.js';
 import { expm } from '../linalg/expm.js';
 import type { Component } from '../waveform/component.js';
 import { type InputSchedule, type Interval, inputSlopes, inputValues } from '../waveform/schedule.js';
@@ -15,7 +16,7 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
   const out = readouts.map(() => new Array<number>(times.length).fill(NaN));
   let xi = xi0.slice();
   // the cycles of a pulse train repeat the same intervals: one exponential per distinct shape
-  const whole = new Map<string, { E: number[][]; start: number[] }>();
+  const whole = new Map<string, { E: number[][]; steps: number; d: number[] }>();
   schedule.intervals.forEach((iv, idx) => {
     const dirac = schedule.diracs.find((d) => d.t === iv.t0);
     if (dirac && idx > 0) xi = xi.map((v, i) => v + dot(ss.B[i], dirac.area));
@@ -27,18 +28,32 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
       if (!M) ({ M, start } = augmented(ss, iv));
       return M!;
     };
+    // Stiff circuits (nanosecond and millisecond modes together) make ‖M‖·τ large; rather than
+    // squaring one exponential many times, which loses the slow components' relative accuracy,
+    // step with e^(M·h), ‖M‖·h ≤ 1: round-off then accumulates only once per step and decays.
+    // The augmented matrix is balanced first (an exact diagonal similarity) so that badly scaled
+    // states do not inflate its norm.
+    const stepper = (tau: number) => {
+      const { B: Mb, d } = balance(build());
+      const steps = Math.max(1, Math.ceil(norm1(Mb) * tau));
+      return { E: expm(Mb.map((row) => row.map((v) => (v * tau) / steps))), steps, d };
+    };
+    const run = (c: { E: number[][]; steps: number; d: number[] }): Vec => {
+      let v = [...xi, ...start].map((x, i) => x / c.d[i]);
+      for (let k = 0; k < c.steps; k++) v = matvec(c.E, v);
+      return v.slice(0, n).map((x, i) => x * c.d[i]);
+    };
     const advance = (tau: number): Vec => {
       if (tau === len) {
         let c = whole.get(key);
         if (!c) {
-          const E = expm(build().map((row) => row.map((v) => v * tau)));
-          c = { E, start };
+          c = stepper(tau);
           if (whole.size < 4096) whole.set(key, c);
         }
-        return matvec(c.E, [...xi, ...c.start]).slice(0, n);
+        build();
+        return run(c);
       }
-      const E = expm(build().map((row) => row.map((v) => v * tau)));
-      return matvec(E, [...xi, ...start]).slice(0, n);
+      return run(stepper(tau));
     };
     times.forEach((t, k) => {
       if (t < iv.t0 || t >= iv.t1) return;

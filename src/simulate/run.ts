@@ -139,8 +139,13 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     const all = solveExact(ss, P.modal, [...P.readouts, ...P.partReadouts], schedule, xi0, span);
     const nw = P.readouts.length;
     const exact = { pieces: all.pieces.slice(0, nw), final: all.final };
-    exact.pieces.forEach((ps, w) => pieces[w].push(...ps));
-    all.pieces.slice(nw).forEach((ps, q) => partPieces[q].push(...ps));
+    // (a loop, not push(...): a long pulse train has more pieces than a call can take arguments)
+    exact.pieces.forEach((ps, w) => {
+      for (const p of ps) pieces[w].push(p);
+    });
+    all.pieces.slice(nw).forEach((ps, q) => {
+      for (const p of ps) partPieces[q].push(p);
+    });
 
     // independent check of this epoch
     const ct = checkTimes(ep.t0, ep.t1, schedule);

@@ -64,10 +64,10 @@ export function valueLeftOf(w: Waveform, t: number): number {
   return v;
 }
 
-export function buildSchedule(waves: Waveform[], span: number, from = 0): InputSchedule {
+export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = []): InputSchedule {
   const outside: InputSchedule['outside'] = [];
   const models = waves.map((w) => w.terms.filter((t) => t.kind !== 'impulse').map((t) => termModel(t, span)));
-  const raw = new Set<number>([from, span]);
+  const raw = new Set<number>([from, span, ...extraBreaks.filter((t) => t > from && t < span)]);
   for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.add(t);
   for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.add(t.at);
   const times = [...raw].sort((a, b) => a - b);
