@@ -42,6 +42,8 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     events: sim.events,
     parts: sim.parts,
     configurations: sim.configurations,
+    discharge: sim.discharge,
+    periodic: sim.periodic,
     crossCheck: sim.crossCheck,
     notices: sim.notices,
   };

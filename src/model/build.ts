@@ -3,6 +3,7 @@ import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, zeros } from '
 import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 import { type Descriptor, type Probe, buildDescriptor, currentProbe, voltageProbe } from './descriptor.js';
 import { ReductionError, independentRows, reduceDescriptor } from './reduce.js';
+import { reduceIndexOne } from './reduce-index1.js';
 import type { Readout, StateSpace, StateVariable } from './state-space.js';
 
 /**
@@ -42,7 +43,12 @@ export function buildModel(circuit: Circuit): Model {
   const Es = d.E.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
   const As = d.A.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
   const Bs = d.B.map((row, i) => row.map((v) => v * s[i]));
-  const red = reduceDescriptor(Es, As, Bs, d.nz, m);
+  // the index-one Schur complement on the circuit's own variables when it applies (exact zeros
+  // stay zeros), otherwise the general rank-revealing reduction on the equilibrated system
+  const direct = reduceIndexOne(d.E, d.A, d.B, d.nz, m);
+  const red = direct
+    ? { ...direct, Zp: direct.Zp.map((row, i) => row.map((v) => v / s[i])), Zu: direct.Zu.map((Z) => Z.map((row, i) => row.map((v) => v / s[i]))) }
+    : reduceDescriptor(Es, As, Bs, d.nz, m);
   const np = cols(red.Zp, 0);
   // z = S·Zp·p + Σ S·Zu[j]·u^(j)
   const SZp = red.Zp.map((row, i) => row.map((v) => v * s[i]));

@@ -1,5 +1,5 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Vec, matvec, norm1, zeros } from '../linalg/dense.js';
+import { type Vec, matmul, matvec, norm1, zeros } from '../linalg/dense.js';
 import { balance } from '../linalg/balance.js';
 import { expm } from '../linalg/expm.js';
 import type { Component } from '../waveform/component.js';
@@ -15,59 +15,84 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
   const n = ss.n;
   const out = readouts.map(() => new Array<number>(times.length).fill(NaN));
   let xi = xi0.slice();
-  // the cycles of a pulse train repeat the same intervals: one exponential per distinct shape
-  const whole = new Map<string, { E: number[][]; steps: number; d: number[] }>();
+  // the cycles of a pulse train repeat the same intervals: one propagator per distinct shape
+  const whole = new Map<string, Propagator>();
   schedule.intervals.forEach((iv, idx) => {
     const dirac = schedule.diracs.find((d) => d.t === iv.t0);
     if (dirac && idx > 0) xi = xi.map((v, i) => v + dot(ss.B[i], dirac.area));
     const len = iv.t1 - iv.t0;
     const key = `${len}|${iv.components.map((k) => `${k.input},${k.power},${k.sigma},${k.omega},${k.re},${k.im}`).join(';')}`;
-    let M: number[][] | null = null;
-    let start: number[] = [];
-    const build = () => {
-      if (!M) ({ M, start } = augmented(ss, iv));
-      return M!;
-    };
-    // Stiff circuits (nanosecond and millisecond modes together) make ‖M‖·τ large; rather than
-    // squaring one exponential many times, which loses the slow components' relative accuracy,
-    // step with e^(M·h), ‖M‖·h ≤ 1: round-off then accumulates only once per step and decays.
-    // The augmented matrix is balanced first (an exact diagonal similarity) so that badly scaled
-    // states do not inflate its norm.
-    const stepper = (tau: number) => {
-      const { B: Mb, d } = balance(build());
-      const steps = Math.max(1, Math.ceil(norm1(Mb) * tau));
-      return { E: expm(Mb.map((row) => row.map((v) => (v * tau) / steps))), steps, d };
-    };
-    const run = (c: { E: number[][]; steps: number; d: number[] }): Vec => {
-      let v = [...xi, ...start].map((x, i) => x / c.d[i]);
-      for (let k = 0; k < c.steps; k++) v = matvec(c.E, v);
-      return v.slice(0, n).map((x, i) => x * c.d[i]);
-    };
-    const advance = (tau: number): Vec => {
-      if (tau === len) {
-        let c = whole.get(key);
-        if (!c) {
-          c = stepper(tau);
-          if (whole.size < 4096) whole.set(key, c);
-        }
-        build();
-        return run(c);
+    let aug: { Mb: number[][]; d: number[]; start: number[]; rate: number } | null = null;
+    const get = () => {
+      if (!aug) {
+        const { M, start } = augmented(ss, iv);
+        const { B: Mb, d } = balance(M);
+        aug = { Mb, d, start, rate: norm1(Mb) };
       }
-      return run(stepper(tau));
+      return aug;
     };
-    times.forEach((t, k) => {
-      if (t < iv.t0 || t >= iv.t1) return;
-      const tau = t - iv.t0;
-      const x = advance(tau);
-      const u = inputValues(iv, ss.m, tau);
-      const du = inputSlopes(iv, ss.m, tau);
-      readouts.forEach((r, w) => {
-        out[w][k] = dot(r.C, x) + dot(r.D, u) + dot(r.D1, du);
-      });
-    });
-    xi = advance(iv.t1 - iv.t0);
+    const lift = (x: Vec) => {
+      const g = get();
+      return [...x, ...g.start].map((v, i) => v / g.d[i]);
+    };
+    const drop = (v: Vec) => v.slice(0, n).map((x, i) => x * get().d[i]);
+    // check times inside this interval, in order; the state is carried from one to the next
+    const inside = times.map((t, k) => ({ t, k })).filter((c) => c.t >= iv.t0 && c.t < iv.t1).sort((p, q) => p.t - q.t);
+    if (inside.length) {
+      let v = lift(xi);
+      let at = 0;
+      for (const c of inside) {
+        const tau = c.t - iv.t0;
+        v = propagator(get().Mb, get().rate, tau - at).apply(v);
+        at = tau;
+        const x = drop(v);
+        const u = inputValues(iv, ss.m, tau);
+        const du = inputSlopes(iv, ss.m, tau);
+        readouts.forEach((r, w) => {
+          out[w][c.k] = dot(r.C, x) + dot(r.D, u) + dot(r.D1, du);
+        });
+      }
+    }
+    let P = whole.get(key);
+    if (!P) {
+      P = propagator(get().Mb, get().rate, len);
+      if (whole.size < 4096) whole.set(key, P);
+    }
+    xi = drop(P.apply(lift(xi)));
   });
   return out;
+}
+
+interface Propagator {
+  apply(v: Vec): Vec;
+}
+
+/**
+ * e^(M·τ) for a balanced M. Stiff circuits (nanosecond and second modes together) make ‖M‖·τ
+ * large; instead of one exponential squared many times, which loses the slow components' relative
+ * accuracy, it steps with e^(M·h), ‖M‖·h ≤ 1, so that round-off enters once per step and decays.
+ * Beyond 4096 steps the step matrix is raised to its power by repeated squaring.
+ */
+function propagator(Mb: number[][], rate: number, tau: number): Propagator {
+  const steps = Math.max(1, Math.ceil(rate * tau));
+  const E = expm(Mb.map((row) => row.map((x) => (x * tau) / steps)));
+  if (steps <= 4096) {
+    return {
+      apply(v: Vec): Vec {
+        let w = v;
+        for (let k = 0; k < steps; k++) w = matvec(E, w);
+        return w;
+      },
+    };
+  }
+  let R: number[][] | null = null;
+  let base = E;
+  for (let k = steps; k > 0; k >>= 1) {
+    if (k & 1) R = R ? matmul(R, base) : base;
+    if (k > 1) base = matmul(base, base);
+  }
+  const P = R!;
+  return { apply: (v: Vec) => matvec(P, v) };
 }
 
 /** [[A, B·H], [0, S]] with the exosystem S generating every component of the interval. */

@@ -103,6 +103,17 @@ export interface RunResult {
   configurations?: { from: number; closed: string[]; states: StateInfo[]; modes: Mode[]; paths: PathResponse[][] }[];
   /** closed forms of every part's voltage v(a) − v(b) and current a → b, same piece boundaries as the traces */
   parts?: { part: string; voltage: Piece[]; current: Piece[] }[];
+  /** per capacitor: time to fall below a safe voltage once the sources are removed at the end of the span */
+  discharge?: { part: string; from: number; safeVoltage: number; time: number | null }[];
+  /**
+   * When the sources repeat from some time on: the periodic steady state (one period of closed forms
+   * per watch, with min, max, mean, RMS) and how many periods each signal takes to stay in its band.
+   */
+  periodic?: {
+    period: number;
+    from: number;
+    watches: { label: string; min: number; max: number; mean: number; rms: number; pieces: Piece[]; settledAfterPeriods: number | null }[];
+  } | null;
   crossCheck: CrossCheck;
   notices: string[];     // non-fatal remarks (state jumps at t = 0, inconsistent initial values, ...)
 }

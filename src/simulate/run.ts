@@ -8,7 +8,9 @@ import { type Modal, modalDecomposition } from '../lti/modal.js';
 import { chooseSpan, modesOf } from '../lti/modes.js';
 import { termsValue } from '../lti/term.js';
 import { type InputSchedule, buildSchedule, inputSlopes, inputValues, lastEventOf } from '../waveform/schedule.js';
-import { epochs, initialConfiguration, switchesOf } from './configure.js';
+import { type Epoch, epochs, initialConfiguration, switchesOf } from './configure.js';
+import { type DischargeInfo, dischargeTimes } from './discharge.js';
+import { type PeriodicSteadyState, findPeriod, periodicSteadyState } from './periodic.js';
 import { checkTimes, referenceValues } from './crosscheck.js';
 import type { CrossCheck, Mode, PathResponse, Piece, StateInfo } from './result.js';
 import { valuesBeforeStart } from './settled.js';
@@ -42,6 +44,10 @@ export interface Simulation {
   events: EventReport[];
   /** with switches: each distinct configuration (first used from `from`) with its own states and modes */
   configurations: Omit<Configuration, 'circuit'>[];
+  /** capacitor discharge once the sources are removed at the end of the span */
+  discharge: DischargeInfo[];
+  /** the periodic steady state, when the sources repeat from some time on within the span */
+  periodic: PeriodicSteadyState | null;
   crossCheck: CrossCheck;
   notices: string[];
 }
@@ -96,6 +102,12 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   void lastConfig;
   const samples = Math.max(2, Math.floor(opts.samples ?? circuit.analysis.samples));
   const eps = epochs(circuit, span);
+  // a repeating drive: the first period boundary after every other event, where the periodic
+  // steady state analysis starts (it needs the state there, so it becomes a breakpoint)
+  const periodic = findPeriod(allWaves, switchTimes);
+  const psFrom = periodic ? periodic.start + Math.ceil(Math.max(0, periodic.after - periodic.start) / periodic.period - 1e-9) * periodic.period : NaN;
+  const psWanted = periodic !== null && psFrom < span;
+  const ps: { state: Vec | null; epoch: Epoch | null } = { state: null, epoch: null };
 
   // state before t = 0
   const pre = initialConfiguration(circuit);
@@ -113,7 +125,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   eps.forEach((ep, k) => {
     const P = prepare(ep.circuit);
     const { ss } = P.model;
-    const schedule = buildSchedule(waves(ep.circuit), ep.t1, ep.t0);
+    const schedule = buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []);
     if (k === 0) for (const o of schedule.outside) notices.push(`a source impulse at t = ${o.t} s lies outside the analysis span and is ignored`);
     for (const n of ep.isolated) if (k === 0 || eps[k - 1].isolated.indexOf(n) < 0) notices.push(`from t = ${ep.t0} s node ${n} is cut off by an open switch; it reads as 0 V`);
     const iv0 = schedule.intervals[0];
@@ -136,7 +148,14 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let xi0 = init.x.map((v, i) => v - ss.Bx1[i].reduce((s, b, j) => s + b * u0[j], 0));
     const d0 = schedule.diracs.find((d) => d.t === ep.t0);
     if (d0 && (k === 0 || ep.t0 > 0)) xi0 = xi0.map((v, i) => v + ss.B[i].reduce((s, b, j) => s + b * d0.area[j], 0));
-    const all = solveExact(ss, P.modal, [...P.readouts, ...P.partReadouts], schedule, xi0, span);
+    const all = solveExact(ss, P.modal, [...P.readouts, ...P.partReadouts], schedule, xi0, span, psWanted ? [psFrom] : []);
+    if (psWanted && all.statesAt.has(psFrom)) {
+      ps.state = all.statesAt.get(psFrom)!;
+      ps.epoch = ep;
+    } else if (psWanted && psFrom === ep.t0) {
+      ps.state = xi0;
+      ps.epoch = ep;
+    }
     const nw = P.readouts.length;
     const exact = { pieces: all.pieces.slice(0, nw), final: all.final };
     // (a loop, not push(...): a long pulse train has more pieces than a call can take arguments)
@@ -213,8 +232,14 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const modes = finalConfig.modes;
   void matvec;
   const parts = circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
+  const discharge = dischargeTimes(circuit, values, span);
+  let steady: PeriodicSteadyState | null = null;
+  if (periodic && ps.state && ps.epoch) {
+    const P = prepare(ps.epoch.circuit);
+    steady = periodicSteadyState(circuit, P.model.ss, P.modal, P.readouts, waves(ps.epoch.circuit), psFrom, periodic.period, ps.state);
+  }
   const configs = configurations.map(({ circuit: _c, ...rest }) => rest);
-  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, configurations: configs, crossCheck, notices };
+  return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, configurations: configs, discharge, periodic: steady, crossCheck, notices };
 }
 
 function fmt(v: number): string {

@@ -1,0 +1,72 @@
+import { type Mat, matmul, zeros } from '../linalg/dense.js';
+import { solveSquare } from '../linalg/factor.js';
+import type { Reduction } from './reduce.js';
+
+/**
+ * The common case, solved on the circuit's own variables: the unknowns split into differential ones
+ * (a capacitor's node or an inductor's current: a nonzero column of E) and algebraic ones (the rest).
+ * When E restricted to the differential unknowns and A restricted to the algebraic ones are both
+ * nonsingular, the algebraic unknowns follow from a Schur complement:
+ *
+ *   z_a = −A_aa⁻¹·(A_ad·p + B_a·u),   E_dd·p' = (A_dd − A_da·A_aa⁻¹·A_ad)·p + (B_d − A_da·A_aa⁻¹·B_a)·u
+ *
+ * No rotated bases are involved, so a zero coupling stays an exact zero (the general reduction in
+ * reduce.ts mixes variables of very different scale and leaves round-off where the circuit has
+ * none). Returns null when the conditions do not hold; the caller then uses the general reduction.
+ */
+export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): Reduction | null {
+  const d: number[] = [];
+  const a: number[] = [];
+  for (let i = 0; i < nz; i++) (E[i].some((v) => v !== 0) || E.some((row) => row[i] !== 0) ? d : a).push(i);
+  const sub = (M: Mat, rows: number[], cols: number[]) => rows.map((i) => cols.map((j) => M[i][j]));
+  const Edd = sub(E, d, d);
+  const Aaa = sub(A, a, a);
+  if (!wellConditioned(Edd) || !wellConditioned(Aaa)) return null;
+  let AaaInvAad: Mat;
+  let AaaInvBa: Mat;
+  let F: Mat;
+  let G0: Mat;
+  try {
+    const Aad = sub(A, a, d);
+    const Ba = a.map((i) => B[i].slice());
+    AaaInvAad = a.length ? solveSquare(Aaa, Aad) : [];
+    AaaInvBa = a.length && m ? solveSquare(Aaa, Ba) : a.map(() => new Array<number>(m).fill(0));
+    const Ada = sub(A, d, a);
+    const Fr = sub(A, d, d).map((row, i) => row.map((v, j) => v - (a.length ? dotCol(Ada[i], AaaInvAad, j) : 0)));
+    const Gr = d.map((i, r) => B[i].map((v, j) => v - (a.length ? dotCol(Ada[r], AaaInvBa, j) : 0)));
+    F = d.length ? solveSquare(Edd, Fr) : [];
+    G0 = d.length && m ? solveSquare(Edd, Gr) : d.map(() => new Array<number>(m).fill(0));
+  } catch {
+    return null;
+  }
+  const np = d.length;
+  const Zp = zeros(nz, np);
+  const Zu0 = zeros(nz, m);
+  d.forEach((i, k) => (Zp[i][k] = 1));
+  a.forEach((i, r) => {
+    for (let k = 0; k < np; k++) Zp[i][k] = -AaaInvAad[r][k];
+    for (let j = 0; j < m; j++) Zu0[i][j] = -AaaInvBa[r][j];
+  });
+  void matmul;
+  return { Zp, Zu: [Zu0], F, G: [G0] };
+}
+
+function dotCol(row: number[], M: Mat, j: number): number {
+  let s = 0;
+  for (let k = 0; k < row.length; k++) s += row[k] * M[k][j];
+  return s;
+}
+
+/** Reciprocal condition estimate from an LU-free test: solve with the identity and bound the norms. */
+function wellConditioned(M: Mat): boolean {
+  const n = M.length;
+  if (n === 0) return true;
+  try {
+    const inv = solveSquare(M, M.map((_, i) => M.map((__, j) => (i === j ? 1 : 0))));
+    const norm = (X: Mat) => Math.max(...X.map((row) => row.reduce((s, v) => s + Math.abs(v), 0)));
+    const cond = norm(M) * norm(inv);
+    return Number.isFinite(cond) && cond < 1e12;
+  } catch {
+    return false;
+  }
+}

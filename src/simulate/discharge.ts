@@ -1,0 +1,73 @@
+import type { Circuit } from '../circuit/circuit.js';
+import { buildModel } from '../model/build.js';
+import { modalDecomposition } from '../lti/modal.js';
+import { termsValue } from '../lti/term.js';
+import type { InputSchedule } from '../waveform/schedule.js';
+import { configure, isClosedAt, switchesOf } from './configure.js';
+import { solveExact } from './solve.js';
+
+/**
+ * How long each capacitor takes to fall below a safe voltage once the sources are removed at the
+ * end of the span (voltage and current sources become open circuits; switches stay as they are):
+ * the zero-input response from the capacitor voltages and inductor currents at that moment, in
+ * closed form, and its last crossing of the safe level found by bisection on the closed form.
+ */
+export interface DischargeInfo {
+  part: string;
+  /** capacitor voltage when the sources are removed */
+  from: number;
+  safeVoltage: number;
+  /** seconds until |v| stays below safeVoltage; 0 when already below; null when it never gets there */
+  time: number | null;
+}
+
+/** 60 V DC: a commonly used safe-to-touch level for DC (common practice, from memory). */
+export const SAFE_DC_VOLTAGE = 60;
+
+export function dischargeTimes(circuit: Circuit, values: Map<string, number>, span: number, safeVoltage = SAFE_DC_VOLTAGE): DischargeInfo[] {
+  const caps = circuit.parts.filter((p) => p.kind === 'capacitor');
+  if (caps.length === 0) return [];
+  const closed = new Set(switchesOf(circuit).filter((p) => isClosedAt(p, span)).map((p) => p.name));
+  const withSwitches = configure(circuit, closed).circuit;
+  const parts = withSwitches.parts.filter((p) => p.kind !== 'voltage-source' && p.kind !== 'current-source');
+  const used = new Set(parts.flatMap((p) => [p.a, p.b]));
+  const bare: Circuit = { ...withSwitches, parts, nodes: withSwitches.nodes.filter((n) => used.has(n)) };
+  let model;
+  try {
+    model = buildModel(bare);
+  } catch {
+    return caps.map((c) => ({ part: c.name, from: values.get(c.name) ?? 0, safeVoltage, time: null }));
+  }
+  const init = model.initialState(values, [], []);
+  const modal = modalDecomposition(model.ss.A);
+  const slowest = Math.max(0, ...modal.blocks.flatMap((b) => b.eig.map((e) => (e.re < 0 ? -1 / e.re : Infinity))));
+  const readouts = model.storage.filter((s) => s.kind === 'capacitor-voltage');
+  return readouts.map((st) => {
+    const from = values.get(st.part.name) ?? 0;
+    if (!Number.isFinite(slowest)) return { part: st.part.name, from, safeVoltage, time: null };
+    // the horizon: long enough for the slowest mode to take any voltage below the level
+    const horizon = slowest * Math.max(1, Math.log((Math.abs(from) * 1e3 + 1) / safeVoltage)) * 4;
+    const sched: InputSchedule = { intervals: [{ t0: 0, t1: horizon, components: [], slopes: [] }], diracs: [], jumps: [], outside: [], approximation: [] };
+    const pieces = solveExact(model.ss, modal, [st.readout], sched, init.x, horizon).pieces[0];
+    const v = (t: number) => termsValue(pieces[0].terms, t);
+    if (Math.abs(v(horizon)) >= safeVoltage) return { part: st.part.name, from, safeVoltage, time: null };
+    // last time |v| ≥ level: scan backwards on a fine grid, then bisect
+    const N = 4096;
+    let hi = 0;
+    let lo = 0;
+    for (let k = N; k >= 0; k--) {
+      const t = (horizon * k) / N;
+      if (Math.abs(v(t)) >= safeVoltage) {
+        lo = t;
+        hi = Math.min(horizon, (horizon * (k + 1)) / N);
+        break;
+      }
+    }
+    for (let k = 0; k < 200 && hi - lo > 1e-15 * hi; k++) {
+      const mid = (lo + hi) / 2;
+      if (Math.abs(v(mid)) >= safeVoltage) lo = mid;
+      else hi = mid;
+    }
+    return { part: st.part.name, from, safeVoltage, time: hi };
+  });
+}
