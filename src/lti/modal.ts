@@ -1,4 +1,5 @@
-import { EigenvalueDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { eig } from '../linalg/eig.js';
 import { type Mat, identity, matmul, zeros } from '../linalg/dense.js';
 import { solveSquare } from '../linalg/factor.js';
 
@@ -36,10 +37,9 @@ const PARALLEL = 0.2; // sine of the angle below which two eigen-directions coun
 export function modalDecomposition(A: Mat): Modal {
   const n = A.length;
   if (n === 0) return { n, W: [], Winv: [], blocks: [] };
-  const e = new EigenvalueDecomposition(new Matrix(A), { assumeSymmetric: false });
-  const re = e.realEigenvalues;
-  const im = e.imaginaryEigenvalues;
-  const V = e.eigenvectorMatrix.to2DArray();
+  // balanced Hessenberg QR (src/linalg/eig.ts): balancing matters for circuits whose states
+  // differ in scale by many orders (nanohenry currents next to millifarad voltages)
+  const { re, im, V } = eig(A);
   // groups: a real eigenvalue alone, or a conjugate pair (columns i, i+1 = Re v, Im v)
   const groups: number[][] = [];
   for (let i = 0; i < n; i++) {
