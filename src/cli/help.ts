@@ -4,9 +4,12 @@ Examples:
   ringdown run filter.rdn                             full text report with charts
   ringdown run filter.rdn --format csv --out v.csv    samples for a spreadsheet
   ringdown run filter.rdn --format json               everything, for other programs
+  ringdown run filter.rdn --format numbers            key=value lines, for scripts
   ringdown check filter.rdn                           the circuit as ringdown reads it
 
-Exit codes: 0 ok, 1 internal error, 2 problems in the input, 3 the in-run cross-check failed.
+Exit codes: 0 ok, 1 internal error, 2 problems in the input, 3 the in-run cross-check failed,
+4 a part's stress is above its derated rating (a CI job can gate on it), 5 kept for a danger
+caution.
 `;
 
 export const RUN_EXAMPLES = `

@@ -49,7 +49,8 @@ function buildProgram(io: CliIO, setCode: (code: number) => void): Command {
 
 /**
  * The ringdown command line. `argv` is process.argv (node, script, arguments...).
- * Returns the exit code: 0 ok, 1 internal error, 2 input errors, 3 cross-check failed.
+ * Returns the exit code: 0 ok, 1 internal error, 2 input errors, 3 cross-check failed,
+ * 4 a rating exceeded after derating (5 is kept for a danger caution).
  */
 export async function main(argv: string[], io: CliIO = processIO()): Promise<number> {
   let code = EXIT_OK;

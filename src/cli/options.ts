@@ -18,5 +18,5 @@ export function parseSamplesOption(text: string): number {
   return n;
 }
 
-export type Format = 'text' | 'json' | 'csv';
-export const FORMATS: readonly Format[] = ['text', 'json', 'csv'];
+export type Format = 'text' | 'json' | 'csv' | 'numbers';
+export const FORMATS: readonly Format[] = ['text', 'json', 'csv', 'numbers'];

@@ -2,10 +2,14 @@ import { writeFile } from 'node:fs/promises';
 import { analyzeText } from '../pipeline.js';
 import { colorEnabled } from '../report/color.js';
 import { formatCSV } from '../report/csv.js';
+import { runRatings } from '../measure/ratings.js';
 import { formatJSON } from '../report/json.js';
+import { formatNumbers } from '../report/numbers.js';
+import { formatSI } from '../report/si.js';
+import { RATING_NAMES } from '../report/stress.js';
 import { formatTextReport } from '../report/text.js';
 import type { RunResult } from '../simulate/result.js';
-import { EXIT_CROSS_CHECK, EXIT_INPUT, EXIT_OK } from './exit.js';
+import { EXIT_CROSS_CHECK, EXIT_INPUT, EXIT_OK, EXIT_RATING } from './exit.js';
 import { printWarnings, reportFailure } from './failure.js';
 import { readCircuitText } from './input.js';
 import type { CliIO } from './io.js';
@@ -26,9 +30,24 @@ function render(result: RunResult, opts: RunOptions, color: boolean): string {
       return formatJSON(result);
     case 'csv':
       return formatCSV(result);
+    case 'numbers':
+      return formatNumbers(result);
     case 'text':
       return formatTextReport(result, { chart: opts.chart, color });
   }
+}
+
+/** Exit code 4, with one line per check on standard error, when a stress is above its derated limit. */
+function ratingsExit(result: RunResult, io: CliIO): number {
+  const r = runRatings(result);
+  if (r.overLimit === 0) return EXIT_OK;
+  const pct = `${Number((r.derating * 100).toPrecision(4))} %`;
+  for (const c of r.checks.filter((x) => x.overLimit)) {
+    const stress = c.stress === Infinity ? 'unbounded (an impulse in the ideal model)' : formatSI(c.stress, c.unit);
+    const over = c.overRating ? `above the rating itself (${formatSI(c.value, c.unit)})` : `above the limit ${formatSI(c.limit, c.unit)} (${pct} of ${formatSI(c.value, c.unit)})`;
+    io.stderr.write(`ringdown: RATING EXCEEDED: ${c.part} ${RATING_NAMES[c.rating]} ${stress} is ${over}\n`);
+  }
+  return EXIT_RATING;
 }
 
 /** `ringdown run FILE`: analyse, write the report, return the exit code. */
@@ -64,7 +83,7 @@ export async function runCommand(file: string, opts: RunOptions, io: CliIO): Pro
       );
       return EXIT_CROSS_CHECK;
     }
-    return EXIT_OK;
+    return ratingsExit(result, io);
   } catch (e) {
     return reportFailure(e, source, io, opts.debug === true);
   }

@@ -2,9 +2,10 @@ import type { SettleBand } from '../circuit/circuit.js';
 import type { Metrics, Piece } from '../simulate/result.js';
 import { findPeakAndValley } from './extrema.js';
 import { overshootPercent } from './overshoot.js';
+import { keepsSwinging } from './repeating.js';
 import { riseTime } from './rise.js';
 import { bandHalfWidth, settlingTime } from './settling.js';
-import { buildTrack, endValue, startValue } from './track.js';
+import { buildTrack, endValue, startValue, type Track } from './track.js';
 import { hasTransition } from './transition.js';
 
 /**
@@ -12,22 +13,23 @@ import { hasTransition } from './transition.js';
  *
  * - initial: value at the first sample time (t = 0+);
  * - final: value at the end of the span (left-hand limit there);
- * - peak / valley: largest / smallest value, extrema located on the closed form;
+ * - peak / valley: largest / smallest value, extrema located on the closed form; a time within
+ *   1e-12 of the span from the start is the start itself (rounding noise of the root finder);
  * - overshootPct, riseTime (10 → 90 %): relative to the transition initial → final, null without one
  *   (no transition: final − initial is rounding noise, or under 0.1 % of the peak-to-valley excursion);
  * - settlingTime: last time outside the band around final; null for a relative band without a
  *   transition.
+ * - overshootPct, riseTime and settlingTime are all null when the signal keeps swinging to the end
+ *   of the span (see `isPeriodicSignal`): it makes no single transition.
  *
  * `pieces` is the exact closed form; when empty, the samples are used (linear interpolation).
  */
 export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand): Metrics {
-  const track = buildTrack(times, values, pieces);
-  const initial = startValue(track);
-  const final = endValue(track);
-  const { peak, valley } = findPeakAndValley(track);
-  const scale = Math.max(Math.abs(peak.value), Math.abs(valley.value));
-  const moving = hasTransition(initial, final, scale, peak.value - valley.value);
-
+  const a = analyse(times, values, pieces, band);
+  const { track, initial, final, peak, valley, moving } = a;
+  if (a.periodic) {
+    return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, riseTime: null, settlingTime: null };
+  }
   const rise = moving ? riseTime(track, initial, final) : null;
   const half = bandHalfWidth(band, initial, final);
   const settle = half === null || (band.kind === 'relative' && !moving) ? null : settlingTime(track, final, half);
@@ -42,4 +44,28 @@ export function computeMetrics(times: Float64Array, values: Float64Array, pieces
     riseTime: rise ? rise.duration : null,
     settlingTime: settle,
   };
+}
+
+/**
+ * Whether the signal keeps swinging to the end of the span (a sinusoid that never stops, or a
+ * repeating drive it follows without settling), so that it makes no single transition.
+ */
+export function isPeriodicSignal(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand): boolean {
+  return analyse(times, values, pieces, band).periodic;
+}
+
+function analyse(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand) {
+  const track: Track = buildTrack(times, values, pieces);
+  const initial = startValue(track);
+  const final = endValue(track);
+  const { peak, valley } = findPeakAndValley(track);
+  const span = track.end - track.start;
+  for (const e of [peak, valley]) if (Math.abs(e.time - track.start) <= 1e-12 * span) e.time = track.start;
+  const scale = Math.max(Math.abs(peak.value), Math.abs(valley.value));
+  const excursion = peak.value - valley.value;
+  const moving = hasTransition(initial, final, scale, excursion);
+  // the band the signal must stay in to count as settled; without a transition, 2 % of the swing
+  const half = bandHalfWidth(band, initial, final) ?? 0.02 * excursion;
+  const periodic = keepsSwinging(pieces, track, final, half, scale);
+  return { track, initial, final, peak, valley, moving, periodic };
 }

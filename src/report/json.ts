@@ -1,3 +1,5 @@
+import { runRatings } from '../measure/ratings.js';
+import { runStress } from '../measure/stress.js';
 import type { RunResult } from '../simulate/result.js';
 
 /** Identifies the layout of the JSON output; see doc/OUTPUT.md. */
@@ -15,9 +17,12 @@ export function resultToJSONValue(result: RunResult): Record<string, unknown> {
   return JSON.parse(formatJSON(result)) as Record<string, unknown>;
 }
 
-/** The whole run result as JSON text (two-space indent, trailing newline). */
+/**
+ * The whole run result as JSON text (two-space indent, trailing newline), with the part stress
+ * figures (`stress`) and the rating checks (`ratings`) added.
+ */
 export function formatJSON(result: RunResult): string {
-  const text = JSON.stringify({ schema: JSON_SCHEMA, ...result }, replacer, 2);
+  const text = JSON.stringify({ schema: JSON_SCHEMA, ...result, stress: runStress(result), ratings: runRatings(result) }, replacer, 2);
   // Arrays of plain numbers (samples, coefficients) on one line each: same JSON, far fewer lines.
   return text.replace(/\[(\s*(?:-?[\d.eE+-]+|null)(?:,\s*(?:-?[\d.eE+-]+|null))*\s*)\]/g, (_m, inner: string) => `[${inner.replace(/\s+/g, '')}]`) + '\n';
 }

@@ -9,8 +9,11 @@ function percent(x: number): string {
   return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e4 ? x.toPrecision(4) : formatPlain(x, 4);
 }
 
-/** The metrics of one signal as a two-column block. */
-export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: number | null = null): string[] {
+/**
+ * The metrics of one signal as a two-column block. `periodic`: the signal keeps swinging to the
+ * end of the span, so overshoot, rise and settling give way to one line saying so.
+ */
+export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: number | null = null, periodic = false): string[] {
   // Values this far below the signal's size are rounding noise: show them as 0.
   const scale = Math.max(Math.abs(m.peak.value), Math.abs(m.valley.value), Math.abs(m.initial), Math.abs(m.final));
   const v = (x: number) => formatSI(Math.abs(x) <= 1e-12 * scale ? 0 : x, unit);
@@ -27,7 +30,9 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
     [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];
+  if (periodic) rows.splice(rows.length - 3, 3, ['overshoot, rise, settling', 'no single transition (periodic)']);
   const lines = table(rows, '    ');
+  if (periodic) return lines;
   if (limit !== null && !m.finalIsLimit) {
     const half = band.kind === 'relative' ? band.fraction * Math.abs(m.final - m.initial) : band.value;
     if (Math.abs(limit - m.final) > Math.max(half, 1e-9 * scale)) {

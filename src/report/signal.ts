@@ -1,6 +1,7 @@
 import type { Circuit } from '../circuit/circuit.js';
 import { evaluatePieces } from '../measure/evaluate.js';
 import { steadyStateLimit } from '../measure/limit.js';
+import { isPeriodicSignal } from '../measure/metrics.js';
 import type { PathResponse, Trace } from '../simulate/result.js';
 import { renderChart } from './chart.js';
 import { formatPieces, formatTerms, impulseItem, unitCoefs } from './formula.js';
@@ -72,7 +73,8 @@ export function signalSection(trace: Trace, circuit: Circuit, times: Float64Arra
     for (const p of trace.paths) lines.push(...pathLines(trace, p, circuit, span));
   }
   lines.push('  measurements:');
-  lines.push(...metricsLines(trace.metrics, trace.unit, circuit.analysis.settle, steadyStateLimit(trace.pieces)));
+  const periodic = isPeriodicSignal(times, trace.values, trace.pieces, circuit.analysis.settle);
+  lines.push(...metricsLines(trace.metrics, trace.unit, circuit.analysis.settle, steadyStateLimit(trace.pieces), periodic));
   if (opts.chart && times.length > 1) {
     const sample = trace.pieces.length > 0 ? (t: number) => evaluatePieces(trace.pieces, t) : interpolate(times, trace.values);
     const start = times[0]!;

@@ -7,6 +7,7 @@ import { modesSection } from './modes.js';
 import { SAFETY_NOTICE } from './safety.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { signalSection } from './signal.js';
+import { ratingsSection, ratingsVerdict, stressSection } from './stress.js';
 import { circuitSection } from './summary.js';
 import { heading } from './table.js';
 import { wrapWords } from './wrap.js';
@@ -33,7 +34,8 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   const titleLines = wrapWords(`ringdown report: ${circuit.title ?? circuit.file}`, 80, '  ');
   const out: string[] = [...titleLines, '═'.repeat(Math.max(...titleLines.map((l) => [...l].length))), ''];
 
-  out.push(...crossCheckLines(result.crossCheck, opts.color), '');
+  out.push(...crossCheckLines(result.crossCheck, opts.color));
+  out.push(...ratingsVerdict(result, opts.color), '');
   out.push(...circuitSection(circuit, result.states), '');
 
   const spanText = `${formatSI(result.span, 's')}${result.spanChosen ? ' (chosen from the slowest mode)' : ''}`;
@@ -70,6 +72,11 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
 
   const energy = energySection(result);
   if (energy.length > 0) out.push(...energy, '');
+
+  const stress = stressSection(result);
+  if (stress.length > 0) out.push(...stress, '');
+  const ratings = ratingsSection(result, opts.color);
+  if (ratings.length > 0) out.push(...ratings, '');
 
   const warnings = circuit.warnings ?? [];
   if (warnings.length + result.notices.length > 0) {

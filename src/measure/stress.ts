@@ -1,0 +1,210 @@
+import type { PartKind } from '../circuit/circuit.js';
+import { integrateProduct } from '../lti/integrate.js';
+import type { Piece, RunResult } from '../simulate/result.js';
+import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
+import { switchVoltagesByKVL } from './kvl.js';
+import { TIE, clipPieces, peakMagnitude, termsOmega, termsRate, type MagnitudePeak } from './peak.js';
+
+/**
+ * What each part goes through over the analysed span, from the exact closed forms of its voltage
+ * and current (RunResult.parts):
+ *
+ * - peak |v| and peak |i|, each with its time (extrema by root-finding the derivative per piece);
+ * - peak instantaneous power |v·i| with its time (root of v'·i + v·i' per piece); for resistors and
+ *   switches this is the peak dissipation;
+ * - heat: ∫ v·i dt over the span, resistors and switches only (closed-form integral per piece);
+ * - I²t = ∫ i² dt over the span (the pulse figure of fuses and wires);
+ * - peak stored energy ½·C·v² (capacitors) or ½·L·i² (inductors), at the peak |v| or |i|.
+ *
+ * A Dirac impulse in v or i (an ideal step straight into a capacitor, an inductor current cut with
+ * no path) has no finite peak, and makes the power, heat or I²t it enters unbounded. Those figures
+ * are Infinity here and listed in `unbounded`; no finite stand-in is made up.
+ * Energy lost inside switching instants (RunResult.events) is not part of these figures.
+ * A switch's voltage is taken by Kirchhoff's voltage law around the other parts (see kvl.ts).
+ */
+export type StressQuantity = 'voltage' | 'current' | 'power' | 'energy' | 'i2t' | 'stored';
+
+export interface PartStress {
+  part: string;
+  kind: PartKind;
+  /** peak |v|, V, and when (Infinity: a Dirac impulse) */
+  voltage: MagnitudePeak;
+  /** peak |i|, A, and when */
+  current: MagnitudePeak;
+  /** peak |v·i|, W, and when */
+  power: MagnitudePeak;
+  /** J dissipated over the span: resistors and switches; null for other parts */
+  energy: number | null;
+  /** A²·s, ∫ i² dt over the span */
+  i2t: number;
+  /** J, ½·C·(peak |v|)² or ½·L·(peak |i|)²; null for other parts */
+  storedPeak: number | null;
+  /** the figures above that a Dirac impulse makes unbounded (their value is Infinity) */
+  unbounded: StressQuantity[];
+}
+
+type PartForms = NonNullable<RunResult['parts']>[number];
+
+/** Relative size below which an impulse area or a value counts as rounding noise. */
+const NOISE = 1e-12;
+
+interface Impulse {
+  t: number;
+  area: number;
+}
+
+function impulsesIn(pieces: readonly Piece[], start: number, end: number, scale: number): Impulse[] {
+  const floor = NOISE * scale * Math.max(end - start, 0);
+  const out: Impulse[] = [];
+  for (const p of pieces) {
+    if (p.impulseArea !== 0 && p.t0 >= start && p.t0 <= end && Math.abs(p.impulseArea) > floor) out.push({ t: p.t0, area: p.impulseArea });
+  }
+  return out;
+}
+
+/** Peak |y| of the ordinary (impulse-free) part of a closed form over [start, end]. */
+export function peakOfPieces(pieces: readonly Piece[], start: number, end: number, times?: ArrayLike<number>): MagnitudePeak {
+  const best: MagnitudePeak = { value: 0, time: start };
+  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
+    const p = peakMagnitude({
+      f: (t) => pieceValue(piece, t),
+      df: (t) => pieceDerivative(piece, t),
+      lo,
+      hi,
+      omega: termsOmega(piece.terms),
+      rate: termsRate(piece.terms),
+      extra: times,
+    });
+    if (p.value > best.value * (1 + TIE)) {
+      best.value = p.value;
+      best.time = p.time;
+    }
+  }
+  return best;
+}
+
+/** Peak |v·i| of the ordinary parts, piece by piece (the two lists share their boundaries). */
+function peakOfProduct(v: readonly Piece[], i: readonly Piece[], start: number, end: number, times?: ArrayLike<number>): MagnitudePeak {
+  const best: MagnitudePeak = { value: 0, time: start };
+  for (const { piece: pv, index, lo, hi } of clipPieces(v, start, end)) {
+    const pi = i[index];
+    if (!pi) continue;
+    const p = peakMagnitude({
+      f: (t) => pieceValue(pv, t) * pieceValue(pi, t),
+      df: (t) => pieceDerivative(pv, t) * pieceValue(pi, t) + pieceValue(pv, t) * pieceDerivative(pi, t),
+      lo,
+      hi,
+      omega: termsOmega(pv.terms) + termsOmega(pi.terms),
+      rate: termsRate(pv.terms) + termsRate(pi.terms),
+      extra: times,
+    });
+    if (p.value > best.value * (1 + TIE)) {
+      best.value = p.value;
+      best.time = p.time;
+    }
+  }
+  return best;
+}
+
+/** ∫ f·g dt over [start, end], piece by piece in closed form. */
+function integralOfProduct(f: readonly Piece[], g: readonly Piece[], start: number, end: number): number {
+  let sum = 0;
+  for (const { piece: pf, index, lo, hi } of clipPieces(f, start, end)) {
+    const pg = g[index];
+    if (!pg || !(hi > lo)) continue;
+    let part = integrateProduct(pf.terms, pg.terms, hi - pf.t0);
+    if (lo > pf.t0) part -= integrateProduct(pf.terms, pg.terms, lo - pf.t0);
+    sum += part;
+  }
+  return sum;
+}
+
+/** Whether the other signal is (within noise) zero on both sides of t. */
+function zeroAround(pieces: readonly Piece[], t: number, scale: number): boolean {
+  const floor = NOISE * scale;
+  const idx = pieces.findIndex((p) => p.t0 === t);
+  const after = idx >= 0 ? pieceValue(pieces[idx]!, t) : evaluatePiecesBefore(pieces, t);
+  return Math.abs(evaluatePiecesBefore(pieces, t)) <= floor && Math.abs(after) <= floor;
+}
+
+/** The stress figures of one part over [start, end]. */
+export function partStress(forms: PartForms, kind: PartKind, value: number, start: number, end: number, times?: ArrayLike<number>): PartStress {
+  const v = peakOfPieces(forms.voltage, start, end, times);
+  const i = peakOfPieces(forms.current, start, end, times);
+  const power = peakOfProduct(forms.voltage, forms.current, start, end, times);
+  const dissipative = kind === 'resistor' || kind === 'switch';
+  let energy: number | null = dissipative ? integralOfProduct(forms.voltage, forms.current, start, end) : null;
+  let i2t = integralOfProduct(forms.current, forms.current, start, end);
+  const unbounded: StressQuantity[] = [];
+
+  const vImp = impulsesIn(forms.voltage, start, end, v.value);
+  const iImp = impulsesIn(forms.current, start, end, i.value);
+  const firstAt = (list: Impulse[]) => Math.min(...list.map((x) => x.t));
+  if (vImp.length > 0) {
+    v.value = Infinity;
+    v.time = firstAt(vImp);
+    unbounded.push('voltage');
+  }
+  if (iImp.length > 0) {
+    i.value = Infinity;
+    i.time = firstAt(iImp);
+    unbounded.push('current');
+    i2t = Infinity;
+    unbounded.push('i2t');
+  }
+  // An impulse in one signal carries power only where the other is not zero around that instant.
+  const powerAt = [
+    ...vImp.filter((x) => iImp.some((y) => y.t === x.t) || !zeroAround(forms.current, x.t, i.value)),
+    ...iImp.filter((x) => vImp.some((y) => y.t === x.t) || !zeroAround(forms.voltage, x.t, v.value)),
+  ];
+  if (powerAt.length > 0) {
+    power.value = Infinity;
+    power.time = firstAt(powerAt);
+    unbounded.push('power');
+    if (energy !== null) {
+      energy = Infinity;
+      unbounded.push('energy');
+    }
+  }
+
+  let storedPeak: number | null = null;
+  if (kind === 'capacitor') storedPeak = 0.5 * value * v.value * v.value;
+  if (kind === 'inductor') storedPeak = 0.5 * value * i.value * i.value;
+  if (storedPeak === Infinity) unbounded.push('stored');
+  return { part: forms.part, kind, voltage: v, current: i, power, energy, i2t, storedPeak, unbounded };
+}
+
+const cache = new WeakMap<RunResult, PartStress[]>();
+
+/**
+ * Stress figures of every part of a run, in circuit order; empty when the run carries no
+ * per-part closed forms. Computed once per result.
+ */
+export function runStress(result: RunResult): PartStress[] {
+  const hit = cache.get(result);
+  if (hit) return hit;
+  const out: PartStress[] = [];
+  if (result.parts && result.times.length > 0) {
+    const start = result.times[0]!;
+    const end = result.times[result.times.length - 1]!;
+    const all = switchVoltagesByKVL(result.circuit, result.parts);
+    for (const part of result.circuit.parts) {
+      const forms = all.find((p) => p.part === part.name);
+      if (!forms) continue;
+      const s = partStress(forms, part.kind, part.value, start, end, result.times);
+      out.push(snapTimes(s, start, end));
+    }
+  }
+  cache.set(result, out);
+  return out;
+}
+
+/** A time within 1e-12 of the span from its start is reported as the start itself (rounding noise). */
+export function snapTime(t: number, start: number, end: number): number {
+  return Math.abs(t - start) <= 1e-12 * Math.abs(end - start) ? start : t;
+}
+
+function snapTimes(s: PartStress, start: number, end: number): PartStress {
+  for (const p of [s.voltage, s.current, s.power]) p.time = snapTime(p.time, start, end);
+  return s;
+}
