@@ -2,7 +2,7 @@ import type { PartKind } from '../circuit/circuit.js';
 import { integrateProduct } from '../lti/integrate.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
-import { switchVoltagesByKVL } from './kvl.js';
+import { switchVoltagesByKVL, withJumpImpulses } from './kvl.js';
 import { TIE, clipPieces, peakMagnitude, termsOmega, termsRate, type MagnitudePeak } from './peak.js';
 
 /**
@@ -20,7 +20,8 @@ import { TIE, clipPieces, peakMagnitude, termsOmega, termsRate, type MagnitudePe
  * no path) has no finite peak, and makes the power, heat or I²t it enters unbounded. Those figures
  * are Infinity here and listed in `unbounded`; no finite stand-in is made up.
  * Energy lost inside switching instants (RunResult.events) is not part of these figures.
- * A switch's voltage is taken by Kirchhoff's voltage law around the other parts (see kvl.ts).
+ * A switch's voltage is taken by Kirchhoff's voltage law around the other parts, and the state
+ * jumps of switching instants count as the impulses they are (see kvl.ts).
  */
 export type StressQuantity = 'voltage' | 'current' | 'power' | 'energy' | 'i2t' | 'stored';
 
@@ -187,7 +188,7 @@ export function runStress(result: RunResult): PartStress[] {
   if (result.parts && result.times.length > 0) {
     const start = result.times[0]!;
     const end = result.times[result.times.length - 1]!;
-    const all = switchVoltagesByKVL(result.circuit, result.parts);
+    const all = switchVoltagesByKVL(result.circuit, withJumpImpulses(result.circuit, result.parts, result.events ?? []));
     for (const part of result.circuit.parts) {
       const forms = all.find((p) => p.part === part.name);
       if (!forms) continue;
