@@ -106,12 +106,22 @@ function monomials(t: Term): Mono[] {
  * own characteristic polynomial), the series is that exact low-order rational function.
  */
 function clusterGroup(lambda: number, coefs: readonly number[]): Group | null {
-  const L = coefs.length;
   const m = coefs.map((v, j) => v * factorial(j));
   const rho = Math.abs(lambda) > 0 ? Math.abs(lambda) : Math.max(1, ...m.slice(1).map((v, j) => (Math.abs(v) / (Math.abs(m[0]!) || 1)) ** (1 / (j + 1))));
   const ms = m.map((v, j) => v / rho ** j);
   const scale = Math.max(...ms.map(Math.abs));
   if (!(scale > 0)) return null;
+  // trailing moments at rounding level (a Jordan block that is nilpotent up to rounding) add
+  // nothing at the cluster's own frequency scale: drop them
+  while (ms.length > 1 && Math.abs(ms[ms.length - 1]!) <= 1e-13 * scale) ms.pop();
+  const L = ms.length;
+  if (L < coefs.length && L <= 2) {
+    // an exact double (or simple) pole: Σ m_j/(s − λ)^(j+1) over (s − λ)^L
+    const lin = [-lambda, 1];
+    let num: number[] = [];
+    for (let j = 0; j < L; j++) num = padd(num, ppow(lin, L - j - 1).map((v) => v * m[j]!));
+    return { num, den: ppow(lin, L) };
+  }
   for (let r = 1; 2 * r + 1 <= L && r <= 6; r++) {
     // Σ_{i<r} a_i·m̃_{j+i} = m̃_{j+r}, j = 0..r−1
     const H = Array.from({ length: r }, (_, j) => Array.from({ length: r }, (_, i) => ms[j + i]!));

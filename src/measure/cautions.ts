@@ -114,13 +114,17 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
     const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
     const energy = 0.5 * part.value * big.value * big.value;
     if (energy > LIMITS.storedEnergy.value) {
+      // above the touch-safe DC level the charge can shock; below it a short (a dropped tool) still sparks and burns
+      const shock = Math.abs(big.value) > LIMITS.safeDC.value;
       out.push({
         id: 'stored-energy',
-        severity: 'danger',
+        severity: shock ? 'danger' : 'warning',
         title: `${p.part} stores a hazardous energy`,
         detail:
           `${p.part} (${formatSI(part.value, 'F')}) holds up to ½·C·v² = ${formatSI(energy, 'J')} at ${formatSI(big.value, 'V')} (t = ${formatSI(big.time, 's')}). ` +
-          'A discharge through the body or a tool can burn or shock: provide a bleeder and measure before touching.',
+          (shock
+            ? 'A discharge through the body or a tool can shock or burn: provide a bleeder and measure before touching.'
+            : 'Below 60 V it is not a shock hazard, but a short circuit (a dropped tool) releases it as a spark or burn.'),
         threshold: `½·C·v² > ${formatSI(LIMITS.storedEnergy.value, 'J', { trim: true })}`,
         source: LIMITS.storedEnergy.source,
         parts: [p.part],

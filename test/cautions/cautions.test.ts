@@ -51,6 +51,12 @@ describe('stored energy and charge left (IEC 61010-1 350 mJ, from memory; 60 V D
     expect(c?.detail).toContain('352.8 mJ');
     expect(ids(bank('83.5V'))).not.toContain('stored-energy');
   });
+  it('above 350 mJ but below 60 V (1 mF at 48 V: 1.152 J) is a warning, not a danger', () => {
+    const low = [`voltage-source V1 in -> gnd 48V`, 'resistor R1 in -> out 1ohm', 'capacitor C1 out -> gnd 1mF', 'watch node out', 'span 10ms'];
+    const c = cautions(run(low)).find((x) => x.id === 'stored-energy');
+    expect(c?.severity).toBe('warning');
+    expect(c?.detail).toContain('1.152 J');
+  });
   it('a capacitor held at 61 V at the end of the span is flagged, 59 V is not', () => {
     const held = (v: string) => [`voltage-source V1 in -> gnd ${v}`, 'resistor R1 in -> out 1k', 'capacitor C1 out -> gnd 1uF', 'watch node out', 'span 1ms'];
     const c = cautions(run(held('61V'))).find((x) => x.id === 'charged-at-end');
