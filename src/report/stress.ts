@@ -14,6 +14,11 @@ function amount(x: number, unit: string): string {
   return x === Infinity ? UNBOUNDED : formatSI(x, unit);
 }
 
+/** I²t without an SI prefix: "nA²s" would read as (nA)²·s. */
+function i2tText(x: number): string {
+  return x === Infinity ? UNBOUNDED : `${formatPlain(x, 4)} A²s`;
+}
+
 /** A peak with its time, "12.00 V at 0 s"; a peak of zero has no time worth giving. */
 function peakText(p: { value: number; time: number }, unit: string): string {
   if (p.value === 0) return formatSI(0, unit);
@@ -58,7 +63,7 @@ export function stressSection(result: RunResult): string[] {
   const energyRows = stress.map((s) => [
     s.part,
     s.energy === null ? '' : amount(pe(s.energy), 'J'),
-    amount(pt(s.i2t), 'A²s'),
+    i2tText(pt(s.i2t)),
     s.storedPeak === null ? '' : amount(s.storedPeak, 'J'),
   ]);
   out.push(
