@@ -111,7 +111,9 @@ export function buildModel(circuit: Circuit): Model {
   };
 
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
-    consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0, du0);
+    red.index1
+      ? index1Initial(circuit, d, red.index1, s, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0)
+      : consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0, du0);
   const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
 
   return { ss, readout, descriptor: d, initialState, storage };
@@ -169,21 +171,7 @@ function consistentInitial(
   du0: Vec,
 ): InitialState {
   const nz = d.nz;
-  // stored charge/flux E·z− from the parts' initial values, in scaled rows
-  const q = new Array<number>(nz).fill(0);
-  const node = (n: string) => d.nodes.indexOf(n);
-  for (const p of circuit.parts) {
-    const v0 = beforeValues.get(p.name) ?? 0;
-    if (p.kind === 'capacitor') {
-      const a = node(p.a);
-      const b = node(p.b);
-      if (a >= 0) q[a] += p.value * v0;
-      if (b >= 0) q[b] -= p.value * v0;
-    } else if (p.kind === 'inductor') {
-      const k = d.branchIndex.get(p.name)!;
-      q[k] += p.value * v0;
-    }
-  }
+  const q = storedCharge(circuit, d, beforeValues);
   const qs = q.map((v, i) => v * s[i]);
   const derivs = [u0, du0];
   const zu = new Array<number>(nz).fill(0);
@@ -207,15 +195,68 @@ function consistentInitial(
   Xu.forEach((Z, j) => {
     if (j < derivs.length) addInto(x, matvec(Z, derivs[j]));
   });
-  // report every capacitor/inductor whose value had to change; a change below 1e-9 of the
-  // circuit's largest stored value or source value is round-off, and the state keeps its value
-  const zPlus = addVec(matvec(Zp, p), zu).map((v, i) => v * s[i]);
+  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
+}
+
+/** Stored charge (KCL rows) and flux (inductor rows) E·z− from capacitor voltages and inductor currents. */
+function storedCharge(circuit: Circuit, d: Descriptor, beforeValues: Map<string, number>): Vec {
+  const q = new Array<number>(d.nz).fill(0);
+  const node = (n: string) => d.nodes.indexOf(n);
+  for (const p of circuit.parts) {
+    const v0 = beforeValues.get(p.name) ?? 0;
+    if (p.kind === 'capacitor') {
+      const a = node(p.a);
+      const b = node(p.b);
+      if (a >= 0) q[a] += p.value * v0;
+      if (b >= 0) q[b] -= p.value * v0;
+    } else if (p.kind === 'inductor') {
+      q[d.branchIndex.get(p.name)!] += p.value * v0;
+    }
+  }
+  return q;
+}
+
+/** Index-one case: E_dd·p = q_d (charge and flux conserved; nothing else can change them). */
+function index1Initial(
+  circuit: Circuit,
+  d: Descriptor,
+  idx: { d: number[]; Edd: Mat },
+  s: number[],
+  Zp: Mat,
+  Zu: Mat[],
+  np: number,
+  X: Mat,
+  Xu: Mat[],
+  chosen: number[],
+  physical: PhysicalQuantity[],
+  beforeValues: Map<string, number>,
+  u0: Vec,
+): InitialState {
+  const q = storedCharge(circuit, d, beforeValues);
+  const p = np ? solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]) : [];
+  const zu = new Array<number>(d.nz).fill(0);
+  if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
+  const x = np ? matvec(X, p) : [];
+  if (Xu[0]) addInto(x, matvec(Xu[0], u0));
+  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  return { x, jumps, residual: 0 };
+}
+
+/**
+ * Which capacitors/inductors changed value in the instant; a change below 1e-9 of the circuit's
+ * largest stored value or source value is round-off, and then the state keeps its value exactly.
+ */
+function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, number>, Zp: Mat, zu: Vec, p: Vec, s: number[], u0: Vec, chosen: number[], x: Vec): InitialState['jumps'] {
+  const zPlus = addVec(Zp.length && p.length ? matvec(Zp, p) : new Array<number>(zu.length).fill(0), zu).map((v, i) => v * s[i]);
   const values = physical.map((ph) => ({
     ph,
     before: beforeValues.get(ph.part.name) ?? 0,
     after: ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0),
   }));
-  const scale = Math.max(...values.flatMap((v) => [Math.abs(v.before), Math.abs(v.after)]), ...u0.map(Math.abs), 0);
+  let scale = 0;
+  for (const v of values) scale = Math.max(scale, Math.abs(v.before), Math.abs(v.after));
+  for (const u of u0) scale = Math.max(scale, Math.abs(u));
   const jumps: InitialState['jumps'] = [];
   for (const v of values) {
     if (Math.abs(v.after - v.before) > 1e-9 * scale) jumps.push({ part: v.ph.part.name, kind: v.ph.kind, before: v.before, after: v.after });
@@ -224,7 +265,7 @@ function consistentInitial(
     const v = values[q];
     if (Math.abs(v.after - v.before) <= 1e-9 * scale) x[i] = v.before;
   });
-  return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
+  return jumps;
 }
 
 function rowTimes(row: Vec, M: Mat, c: number): Vec {

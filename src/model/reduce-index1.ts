@@ -48,7 +48,7 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     for (let j = 0; j < m; j++) Zu0[i][j] = -AaaInvBa[r][j];
   });
   void matmul;
-  return { Zp, Zu: [Zu0], F, G: [G0] };
+  return { Zp, Zu: [Zu0], F, G: [G0], index1: { d, Edd } };
 }
 
 function dotCol(row: number[], M: Mat, j: number): number {

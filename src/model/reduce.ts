@@ -18,6 +18,12 @@ export interface Reduction {
   Zu: Mat[];
   F: Mat;
   G: Mat[];
+  /**
+   * Set by the index-one reduction: p are the differential unknowns `d` themselves and
+   * E_dd·p = the stored charges/fluxes of those rows, so the state after an instant follows
+   * from charge and flux conservation alone (no algebraic branch can carry an impulse).
+   */
+  index1?: { d: number[]; Edd: Mat };
 }
 
 export class ReductionError extends Error {}
