@@ -106,7 +106,7 @@ export function pinvSolve(a: Mat, b: Mat, aCols = cols(a), relTol = 1e-12): Mat 
   const s = svd.diagonal;
   const U = svd.leftSingularVectors.to2DArray();
   const V = svd.rightSingularVectors.to2DArray();
-  const tol = relTol * Math.max(...s, 0);
+  const tol = relTol * s.reduce((m, v) => Math.max(m, v), 0);
   const out = zeros(aCols, bc);
   for (let k = 0; k < s.length; k++) {
     if (s[k] <= tol) continue;

@@ -60,8 +60,8 @@ function seriesSolution(T: Mat, xi0: Vec, g0: Vec, g1: Vec, span: number): Vec[]
     b0 = matvec(T, b0);
     b1 = matvec(T, b1);
     fact *= j + 1;
-    const size = Math.max(...a.map(Math.abs), ...b0.map((v) => Math.abs(v) * span), ...b1.map((v) => Math.abs(v) * span * span));
-    if (size * span ** (j + 1) / (fact * (j + 1)) < 1e-20 * (1 + Math.max(...out[0].map(Math.abs)))) break;
+    const size = Math.max(maxAbsVec(a), maxAbsVec(b0) * span, maxAbsVec(b1) * span * span);
+    if (size * span ** (j + 1) / (fact * (j + 1)) < 1e-20 * (1 + maxAbsVec(out[0]))) break;
   }
   return out;
 }
@@ -135,11 +135,11 @@ function clusterSeries(T: Mat, w: Vec, span: number): { mu: number; powers: Vec[
   const N = shift(T, mu);
   const powers: Vec[] = [w.slice()];
   let fact = 1;
-  const base = Math.max(...w.map(Math.abs), 1e-300);
+  const base = Math.max(maxAbsVec(w), 1e-300);
   for (let j = 1; j < 200; j++) {
     const next = matvec(N, powers[j - 1]);
     fact *= j;
-    const size = Math.max(...next.map(Math.abs));
+    const size = maxAbsVec(next);
     if (size === 0) break;
     powers.push(next);
     if (j >= k && (size * Math.abs(span) ** j) / fact < 1e-18 * base) break;
@@ -148,3 +148,9 @@ function clusterSeries(T: Mat, w: Vec, span: number): { mu: number; powers: Vec[
 }
 
 export { identity };
+
+function maxAbsVec(v: Vec): number {
+  let m = 0;
+  for (const x of v) m = Math.max(m, Math.abs(x));
+  return m;
+}

@@ -293,7 +293,9 @@ function identityOf(n: number): Mat {
 }
 
 function maxAbsMat(M: Mat): number {
-  return Math.max(0, ...M.flat().map(Math.abs));
+  let m = 0;
+  for (const row of M) for (const v of row) m = Math.max(m, Math.abs(v));
+  return m;
 }
 
 function transposeOf(M: Mat): Mat {

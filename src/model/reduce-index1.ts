@@ -63,7 +63,7 @@ function wellConditioned(M: Mat): boolean {
   if (n === 0) return true;
   try {
     const inv = solveSquare(M, M.map((_, i) => M.map((__, j) => (i === j ? 1 : 0))));
-    const norm = (X: Mat) => Math.max(...X.map((row) => row.reduce((s, v) => s + Math.abs(v), 0)));
+    const norm = (X: Mat) => X.reduce((m, row) => Math.max(m, row.reduce((s, v) => s + Math.abs(v), 0)), 0);
     const cond = norm(M) * norm(inv);
     return Number.isFinite(cond) && cond < 1e12;
   } catch {

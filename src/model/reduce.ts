@@ -1,4 +1,4 @@
-import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, transpose, zeros } from '../linalg/dense.js';
+import { type Mat, type Vec, add, cols, matmul, matvec, maxAbs, pickRows, transpose, zeros } from '../linalg/dense.js';
 import { orthonormalize, pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 
 /**
@@ -32,10 +32,10 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
   let Zp: Mat = Array.from({ length: nz }, (_, i) => Array.from({ length: nz }, (_, j) => (i === j ? 1 : 0)));
   let np = nz;
   let Zu: Mat[] = [zeros(nz, m)];
-  const scaleA = Math.max(1e-300, ...A.flat().map(Math.abs));
+  const scaleA = Math.max(1e-300, maxAbs(A));
   // rank decisions are relative to the size of the matrices themselves, so that a direction that
   // only round-off connects to a capacitor or inductor does not count as a state
-  const scaleE = Math.max(1e-300, ...E.flat().map(Math.abs)) * 1e3;
+  const scaleE = Math.max(1e-300, maxAbs(E)) * 1e3;
   for (let iter = 0; iter <= nz + 1; iter++) {
     const M = matmul(E, Zp, np);
     const R = residualInputs(E, A, B, Zu, m);
@@ -68,7 +68,7 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
     }
     // round-off below 1e-14 of the (equilibrated) matrices' scale is no coupling: without this, a
     // derivative-of-source term of size 1e-32 would survive as a spurious Dirac read-out
-    const floor = 1e-14 * Math.max(scaleA, scaleE / 1e3, ...B.flat().map(Math.abs));
+    const floor = 1e-14 * Math.max(scaleA, scaleE / 1e3, maxAbs(B));
     Zu = trimTrailingZero(newZu.map((Z) => Z.map((row) => row.map((v) => (Math.abs(v) < floor ? 0 : v)))));
     const Nk = ks.nullSpace;
     np = np - ks.rank;
@@ -97,7 +97,7 @@ function residualInputs(E: Mat, A: Mat, B: Mat, Zu: Mat[], m: number): Mat[] {
 }
 
 function inputScale(R: Mat[], scaleA: number): number {
-  return Math.max(1, scaleA, ...R.flatMap((Rj) => Rj.flat().map(Math.abs)));
+  return Math.max(1, scaleA, ...R.map(maxAbs));
 }
 
 function trimTrailingZero(list: Mat[]): Mat[] {
@@ -109,7 +109,7 @@ function trimTrailingZero(list: Mat[]): Mat[] {
 /** The blocks must vanish up to round-off relative to `scale` (the size of the terms they came from). */
 function requireZero(blocks: Mat[], why: string, scale: number): void {
   for (const b of blocks) {
-    const big = Math.max(0, ...b.flat().map(Math.abs));
+    const big = maxAbs(b);
     if (big > 1e-9 * scale) {
       if (process.env.RINGDOWN_DEBUG) console.error('requireZero', big, scale);
       throw new ReductionError(why);

@@ -80,10 +80,10 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     if (!p) {
       const model = buildModel(c);
       const partReadouts = circuit.parts.flatMap((part) => [
-        readoutFor(c, model, { ...pseudoWatch, target: { kind: 'part-voltage', part: part.name } }),
-        readoutFor(c, model, { ...pseudoWatch, target: { kind: 'part-current', part: part.name } }),
+        readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-voltage', part: part.name } }),
+        readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-current', part: part.name } }),
       ]);
-      p = { model, modal: modalDecomposition(model.ss.A), readouts: circuit.watches.map((w) => readoutFor(c, model, w)), partReadouts };
+      p = { model, modal: modalDecomposition(model.ss.A), readouts: circuit.watches.map((w) => readoutFor(circuit, c, model, w)), partReadouts };
       prepared.set(c, p);
     }
     return p;
@@ -214,7 +214,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   }));
   // relative to the largest watched value of the same unit: a signal that is zero up to
   // round-off (the voltage across a coil carrying DC) is not judged against its own noise
-  const peakOf = signals.map((s, w) => Math.max(refMax[w], ...Array.from(s.values, Math.abs)));
+  const peakOf = signals.map((s, w) => {
+    let m = refMax[w];
+    for (const v of s.values) m = Math.max(m, Math.abs(v));
+    return m;
+  });
   let maxRel = 0;
   signals.forEach((s, w) => {
     const scale = Math.max(...signals.map((o, v) => (o.watch.unit === s.watch.unit ? peakOf[v] : 0)));
@@ -256,10 +260,15 @@ function storedEnergy(c: Circuit, values: Map<string, number>): number {
   return e;
 }
 
-function readoutFor(c: Circuit, model: Model, w: Watch): Readout {
+/**
+ * A watched quantity in one switch configuration `c` of the circuit `orig`. A part removed from
+ * the configuration (an open switch) still has a voltage across its terminals; its current is 0.
+ */
+function readoutFor(orig: Circuit, c: Circuit, model: Model, w: Watch): Readout {
   const d = model.descriptor;
   const t = w.target;
-  const part = (name: string): Part | undefined => c.parts.find((q) => q.name === name);
+  const part = (name: string): Part | undefined => c.parts.find((q) => q.name === name) ?? orig.parts.find((q) => q.name === name);
+  const present = (name: string) => c.parts.some((q) => q.name === name);
   switch (t.kind) {
     case 'node':
       return model.readout(voltageProbe(d, t.node, GROUND));
@@ -271,7 +280,7 @@ function readoutFor(c: Circuit, model: Model, w: Watch): Readout {
     }
     case 'part-current': {
       const p = part(t.part);
-      return model.readout(p ? currentProbe(d, p) : emptyProbe(d));
+      return model.readout(p && present(t.part) ? currentProbe(d, p) : emptyProbe(d));
     }
   }
 }
