@@ -22,16 +22,24 @@ export function cols(m: Mat, fallback = 0): number {
 export function matmul(a: Mat, b: Mat, bCols = cols(b)): Mat {
   const n = a.length;
   const k = b.length;
-  const out = zeros(n, bCols);
+  // flat typed arrays: the i-k-j loop then runs on contiguous memory
+  const B = new Float64Array(k * bCols);
+  for (let p = 0; p < k; p++) {
+    const bp = b[p];
+    for (let j = 0; j < bCols; j++) B[p * bCols + j] = bp[j];
+  }
+  const out: Mat = new Array(n);
+  const row = new Float64Array(bCols);
   for (let i = 0; i < n; i++) {
+    row.fill(0);
     const ai = a[i];
-    const oi = out[i];
     for (let p = 0; p < k; p++) {
       const aip = ai[p];
       if (aip === 0) continue;
-      const bp = b[p];
-      for (let j = 0; j < bCols; j++) oi[j] += aip * bp[j];
+      const off = p * bCols;
+      for (let j = 0; j < bCols; j++) row[j] += aip * B[off + j];
     }
+    out[i] = Array.from(row);
   }
   return out;
 }

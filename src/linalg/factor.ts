@@ -1,4 +1,5 @@
-import { Matrix, SingularValueDecomposition, LuDecomposition } from 'ml-matrix';
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { luFactor, luSingular, luSolve } from './lu.js';
 import { type Mat, cols, zeros } from './dense.js';
 
 
@@ -88,14 +89,13 @@ export function orthonormalize(a: Mat, k: number): Mat {
   return q.map((row) => keep.map((j) => row[j]));
 }
 
-/** Solve a·x = b for a square nonsingular a (LU with partial pivoting). */
+/** Solve a·x = b for a square nonsingular a (LU with partial pivoting on typed arrays). */
 export function solveSquare(a: Mat, b: Mat): Mat {
   if (a.length === 0) return [];
-  const lu = new LuDecomposition(new Matrix(a));
-  if (lu.isSingular()) throw new Error('singular matrix in solveSquare');
-  const bc = cols(b);
-  if (bc === 0) return a.map(() => []);
-  return lu.solve(new Matrix(b)).to2DArray();
+  const f = luFactor(a);
+  if (luSingular(f)) throw new Error('singular matrix in solveSquare');
+  if (cols(b) === 0) return a.map(() => []);
+  return luSolve(f, b);
 }
 
 /** Least-squares / minimum-norm solution via the pseudo-inverse from an SVD. */
