@@ -1,9 +1,10 @@
-import { formatSI } from '../report/si.js';
+import { formatSI } from '../units/si.js';
 import { integrateProduct } from '../lti/integrate.js';
-import type { Piece, RunResult, Term } from '../simulate/result.js';
-import { evaluatePiecesBefore } from './evaluate.js';
-import { findPeakAndValley } from './extrema.js';
-import { buildTrack, endValue } from './track.js';
+import type { Piece, RunResult } from '../simulate/result.js';
+import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
+import { derivativeTerms, extremaOnGrid, type Located } from './grid.js';
+import { clipPieces } from './peak.js';
+import { StressGrids } from './stress.js';
 
 /**
  * Safety cautions drawn from a run: hazardous voltages, stored energy, slow discharge, interrupted
@@ -59,8 +60,14 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   const out: Caution[] = [];
   const parts = result.parts ?? [];
   const partOf = (name: string) => result.circuit.parts.find((p) => p.name === name);
-  const track = (pieces: Piece[]) => buildTrack(result.times, new Float64Array(0), pieces);
   const span = result.span;
+  const grids = searchGrids(result);
+  const memo = new Map<Piece[], Extremes>();
+  const track = (pieces: Piece[]) => {
+    let e = memo.get(pieces);
+    if (!e) memo.set(pieces, (e = extremes(pieces, result, grids)));
+    return e;
+  };
 
   // (a) voltages beyond extra-low voltage
   const dcOver: { part: string; peak: number; time: number }[] = [];
@@ -68,7 +75,7 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   const window = periodicWindow(result);
   for (const p of parts) {
     if (p.voltage.length === 0) continue;
-    const { peak, valley } = findPeakAndValley(track(p.voltage));
+    const { peak, valley } = track(p.voltage);
     const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
     if (Math.abs(big.value) > LIMITS.elvDC.value) dcOver.push({ part: p.part, peak: big.value, time: big.time });
     if (window) {
@@ -110,7 +117,7 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
     const part = partOf(p.part);
     if (!part || part.kind !== 'capacitor' || p.voltage.length === 0) continue;
     const tr = track(p.voltage);
-    const { peak, valley } = findPeakAndValley(tr);
+    const { peak, valley } = tr;
     const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
     const energy = 0.5 * part.value * big.value * big.value;
     if (energy > LIMITS.storedEnergy.value) {
@@ -130,7 +137,7 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
         parts: [p.part],
       });
     }
-    const vEnd = endValue(tr);
+    const vEnd = tr.end;
     if (Math.abs(vEnd) > LIMITS.safeDC.value) {
       out.push({
         id: 'charged-at-end',
@@ -198,7 +205,7 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   // (e) very fast edges
   const edges: { what: string; part?: string; rate: number; time: number }[] = [];
   const consider = (what: string, pieces: Piece[], part?: string) => {
-    const e = maxSlope(result, pieces);
+    const e = maxSlope(result, pieces, grids);
     if (e && Math.abs(e.rate) > LIMITS.fastEdge.value) edges.push({ what, part, rate: e.rate, time: e.time });
   };
   for (const t of result.traces) if (t.unit === 'V') consider(t.label, t.pieces);
@@ -265,36 +272,47 @@ export function rmsOver(pieces: Piece[], a: number, b: number): number {
   return Math.sqrt(Math.max(0, sum) / (b - a));
 }
 
-/** d/dτ of a term, as a term of the same kind. */
-export function derivativeTerm(t: Term): Term {
-  switch (t.kind) {
-    case 'exp':
-      return { kind: 'exp', lambda: t.lambda, coef: t.lambda === 0 ? 0 : t.coef * t.lambda };
-    case 'osc':
-      return {
-        kind: 'osc',
-        sigma: t.sigma,
-        omega: t.omega,
-        cosCoef: t.sigma * t.cosCoef + t.omega * t.sinCoef,
-        sinCoef: t.sigma * t.sinCoef - t.omega * t.cosCoef,
-      };
-    case 'poly-exp': {
-      const c = t.polyCoefs;
-      return { kind: 'poly-exp', lambda: t.lambda, polyCoefs: c.map((v, k) => t.lambda * v + (k + 1 < c.length ? (k + 1) * c[k + 1]! : 0)) };
-    }
-    case 'quasi': {
-      const n = Math.max(t.cosPoly.length, t.sinPoly.length);
-      const P = (k: number) => t.cosPoly[k] ?? 0;
-      const S = (k: number) => t.sinPoly[k] ?? 0;
-      const cosPoly: number[] = [];
-      const sinPoly: number[] = [];
-      for (let k = 0; k < n; k++) {
-        cosPoly.push(t.sigma * P(k) + (k + 1) * P(k + 1) + t.omega * S(k));
-        sinPoly.push(t.sigma * S(k) + (k + 1) * S(k + 1) - t.omega * P(k));
-      }
-      return { kind: 'quasi', sigma: t.sigma, omega: t.omega, cosPoly, sinPoly };
-    }
+interface Extremes {
+  peak: Located;
+  valley: Located;
+  /** the value at the end of the span */
+  end: number;
+}
+
+/** The search grids for the cautions: the sample times, and the time scales of every part voltage and watch. */
+function searchGrids(result: RunResult): StressGrids {
+  const g = new StressGrids(result.times);
+  const [start, end] = spanOf(result);
+  for (const p of result.parts ?? []) g.include(p.voltage, start, end);
+  for (const t of result.traces) g.include(t.pieces, start, end);
+  return g;
+}
+
+function spanOf(result: RunResult): [number, number] {
+  const n = result.times.length;
+  return n > 0 ? [result.times[0]!, result.times[n - 1]!] : [0, 0];
+}
+
+/**
+ * Largest and smallest value of a closed form over the span (impulses left out), located exactly:
+ * piece ends and the roots of the derivative, bracketed on a shared grid and refined by Brent's method.
+ */
+function extremes(pieces: readonly Piece[], result: RunResult, grids: StressGrids): Extremes {
+  const [start, end] = spanOf(result);
+  const peak: Located = { value: -Infinity, time: start };
+  const valley: Located = { value: Infinity, time: start };
+  let last = NaN;
+  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
+    const g = grids.grid(piece, lo, hi);
+    const f = (t: number) => pieceValue(piece, t);
+    const { max, min } = extremaOnGrid(g.ts, g.sum(piece.terms), g.sum(derivativeTerms(piece)), f, (t) => pieceDerivative(piece, t));
+    if (max.value > peak.value) Object.assign(peak, max);
+    if (min.value < valley.value) Object.assign(valley, min);
+    last = f(hi);
   }
+  if (peak.value === -Infinity) peak.value = NaN;
+  if (valley.value === Infinity) valley.value = NaN;
+  return { peak, valley, end: last };
 }
 
 /**
@@ -302,10 +320,16 @@ export function derivativeTerm(t: Term): Term {
  * and its extrema are located by root-finding its own derivative (the measurement track).
  * Jumps between pieces (ideal steps) and impulses are not counted.
  */
-export function maxSlope(result: RunResult, pieces: Piece[]): { rate: number; time: number } | undefined {
+export function maxSlope(result: RunResult, pieces: Piece[], grids?: StressGrids): { rate: number; time: number } | undefined {
   if (pieces.length === 0) return undefined;
-  const d: Piece[] = pieces.map((p) => ({ t0: p.t0, t1: p.t1, impulseArea: 0, terms: p.terms.map(derivativeTerm) }));
-  const { peak, valley } = findPeakAndValley(buildTrack(result.times, new Float64Array(0), d));
+  const d: Piece[] = pieces.map((p) => ({ t0: p.t0, t1: p.t1, impulseArea: 0, terms: derivativeTerms(p) }));
+  let g = grids;
+  if (!g) {
+    g = new StressGrids(result.times);
+    const [start, end] = spanOf(result);
+    g.include(pieces, start, end);
+  }
+  const { peak, valley } = extremes(d, result, g);
   if (Number.isNaN(peak.value)) return undefined;
   return Math.abs(peak.value) >= Math.abs(valley.value) ? { rate: peak.value, time: peak.time } : { rate: valley.value, time: valley.time };
 }

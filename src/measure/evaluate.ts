@@ -140,3 +140,35 @@ export function maxOmega(piece: Piece): number {
   for (const term of piece.terms) if (term.kind === 'osc' || term.kind === 'quasi') w = Math.max(w, Math.abs(term.omega));
   return w;
 }
+
+/** d/dτ of a term, as a term of the same kind. */
+export function derivativeTerm(t: Term): Term {
+  switch (t.kind) {
+    case 'exp':
+      return { kind: 'exp', lambda: t.lambda, coef: t.lambda === 0 ? 0 : t.coef * t.lambda };
+    case 'osc':
+      return {
+        kind: 'osc',
+        sigma: t.sigma,
+        omega: t.omega,
+        cosCoef: t.sigma * t.cosCoef + t.omega * t.sinCoef,
+        sinCoef: t.sigma * t.sinCoef - t.omega * t.cosCoef,
+      };
+    case 'poly-exp': {
+      const c = t.polyCoefs;
+      return { kind: 'poly-exp', lambda: t.lambda, polyCoefs: c.map((v, k) => t.lambda * v + (k + 1 < c.length ? (k + 1) * c[k + 1]! : 0)) };
+    }
+    case 'quasi': {
+      const n = Math.max(t.cosPoly.length, t.sinPoly.length);
+      const P = (k: number) => t.cosPoly[k] ?? 0;
+      const S = (k: number) => t.sinPoly[k] ?? 0;
+      const cosPoly: number[] = [];
+      const sinPoly: number[] = [];
+      for (let k = 0; k < n; k++) {
+        cosPoly.push(t.sigma * P(k) + (k + 1) * P(k + 1) + t.omega * S(k));
+        sinPoly.push(t.sigma * S(k) + (k + 1) * S(k + 1) - t.omega * P(k));
+      }
+      return { kind: 'quasi', sigma: t.sigma, omega: t.omega, cosPoly, sinPoly };
+    }
+  }
+}

@@ -65,7 +65,8 @@ export function peakMagnitude(s: PeakSearch): MagnitudePeak {
   return best;
 }
 
-function searchGrid(s: PeakSearch): number[] {
+/** The search grid of peakMagnitude (sorted; may hold repeated times). */
+export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 'extra'>): number[] {
   const { lo, hi } = s;
   const width = hi - lo;
   const m = Math.min(MAX_INTERVALS, Math.max(MIN_INTERVALS, Math.ceil((width * s.omega) / PHASE_STEP)));

@@ -3,7 +3,8 @@ import { integrateProduct } from '../lti/integrate.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
 import { switchVoltagesByKVL, withJumpImpulses } from './kvl.js';
-import { TIE, clipPieces, peakMagnitude, termsOmega, termsRate, type MagnitudePeak } from './peak.js';
+import { GridSet, derivativeTerms, peakOnGrid, type GridBasis } from './grid.js';
+import { TIE, clipPieces, termsOmega, termsRate, type MagnitudePeak } from './peak.js';
 
 /**
  * What each part goes through over the analysed span, from the exact closed forms of its voltage
@@ -63,46 +64,116 @@ function impulsesIn(pieces: readonly Piece[], start: number, end: number, scale:
   return out;
 }
 
-/** Peak |y| of the ordinary (impulse-free) part of a closed form over [start, end]. */
-export function peakOfPieces(pieces: readonly Piece[], start: number, end: number, times?: ArrayLike<number>): MagnitudePeak {
+/**
+ * The grid and the time scales it must resolve for each stretch between piece boundaries: the
+ * fastest oscillation and decay among all the given signals there, doubled (a product v·i holds
+ * the sum of the frequencies and rates of its factors). Sharing one grid per stretch lets every
+ * part reuse the same precomputed exponentials (grid.ts).
+ */
+export class StressGrids {
+  private readonly set: GridSet;
+  private readonly scales = new Map<string, { omega: number; rate: number }>();
+
+  constructor(times?: ArrayLike<number>) {
+    this.set = new GridSet(times);
+  }
+
+  /** Takes the time scales of these pieces into account (call for every signal before searching). */
+  include(pieces: readonly Piece[], start: number, end: number): void {
+    for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
+      const key = `${piece.t0}|${lo}|${hi}`;
+      const s = this.scales.get(key) ?? { omega: 0, rate: 0 };
+      s.omega = Math.max(s.omega, termsOmega(piece.terms));
+      s.rate = Math.max(s.rate, termsRate(piece.terms));
+      this.scales.set(key, s);
+    }
+  }
+
+  grid(piece: Piece, lo: number, hi: number): GridBasis {
+    const s = this.scales.get(`${piece.t0}|${lo}|${hi}`) ?? { omega: termsOmega(piece.terms), rate: termsRate(piece.terms) };
+    return this.set.get(piece.t0, lo, hi, 2 * s.omega, 2 * s.rate);
+  }
+}
+
+/** A piece's value and derivative on a grid, computed once per part. */
+class OnGrid {
+  private readonly memo = new Map<Piece, { g: GridBasis; v?: Float64Array; d?: Float64Array }>();
+  constructor(private readonly grids: StressGrids) {}
+  private entry(piece: Piece, lo: number, hi: number) {
+    const g = this.grids.grid(piece, lo, hi);
+    let e = this.memo.get(piece);
+    if (!e || e.g !== g) {
+      e = { g };
+      this.memo.set(piece, e);
+    }
+    return e;
+  }
+  grid(piece: Piece, lo: number, hi: number): GridBasis {
+    return this.entry(piece, lo, hi).g;
+  }
+  value(piece: Piece, lo: number, hi: number): Float64Array {
+    const e = this.entry(piece, lo, hi);
+    return (e.v ??= e.g.sum(piece.terms));
+  }
+  derivative(piece: Piece, lo: number, hi: number): Float64Array {
+    const e = this.entry(piece, lo, hi);
+    return (e.d ??= e.g.sum(derivativeTerms(piece)));
+  }
+}
+
+function keepLarger(best: MagnitudePeak, p: MagnitudePeak): void {
+  if (p.value > best.value * (1 + TIE)) {
+    best.value = p.value;
+    best.time = p.time;
+  }
+}
+
+function peakOn(pieces: readonly Piece[], start: number, end: number, on: OnGrid): MagnitudePeak {
   const best: MagnitudePeak = { value: 0, time: start };
   for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
-    const p = peakMagnitude({
-      f: (t) => pieceValue(piece, t),
-      df: (t) => pieceDerivative(piece, t),
-      lo,
-      hi,
-      omega: termsOmega(piece.terms),
-      rate: termsRate(piece.terms),
-      extra: times,
-    });
-    if (p.value > best.value * (1 + TIE)) {
-      best.value = p.value;
-      best.time = p.time;
-    }
+    const g = on.grid(piece, lo, hi);
+    keepLarger(best, peakOnGrid(g.ts, on.derivative(piece, lo, hi), (t) => pieceValue(piece, t), (t) => pieceDerivative(piece, t)));
   }
   return best;
 }
 
+/**
+ * Peak |y| of the ordinary (impulse-free) part of a closed form over [start, end]: the ends of each
+ * piece and every root of the derivative (bracketed on a grid, refined by Brent's method).
+ */
+export function peakOfPieces(pieces: readonly Piece[], start: number, end: number, times?: ArrayLike<number>, grids?: StressGrids): MagnitudePeak {
+  let g = grids;
+  if (!g) {
+    g = new StressGrids(times);
+    g.include(pieces, start, end);
+  }
+  return peakOn(pieces, start, end, new OnGrid(g));
+}
+
 /** Peak |v·i| of the ordinary parts, piece by piece (the two lists share their boundaries). */
-function peakOfProduct(v: readonly Piece[], i: readonly Piece[], start: number, end: number, times?: ArrayLike<number>): MagnitudePeak {
+function peakOfProduct(v: readonly Piece[], i: readonly Piece[], start: number, end: number, on: OnGrid): MagnitudePeak {
   const best: MagnitudePeak = { value: 0, time: start };
   for (const { piece: pv, index, lo, hi } of clipPieces(v, start, end)) {
     const pi = i[index];
     if (!pi) continue;
-    const p = peakMagnitude({
-      f: (t) => pieceValue(pv, t) * pieceValue(pi, t),
-      df: (t) => pieceDerivative(pv, t) * pieceValue(pi, t) + pieceValue(pv, t) * pieceDerivative(pi, t),
-      lo,
-      hi,
-      omega: termsOmega(pv.terms) + termsOmega(pi.terms),
-      rate: termsRate(pv.terms) + termsRate(pi.terms),
-      extra: times,
-    });
-    if (p.value > best.value * (1 + TIE)) {
-      best.value = p.value;
-      best.time = p.time;
-    }
+    const g = on.grid(pv, lo, hi);
+    const V = on.value(pv, lo, hi);
+    const DV = on.derivative(pv, lo, hi);
+    // the lists share their boundaries, so i normally has the same grid; if not, i is summed on v's
+    const same = on.grid(pi, lo, hi) === g;
+    const I = same ? on.value(pi, lo, hi) : g.sum(pi.terms);
+    const DI = same ? on.derivative(pi, lo, hi) : g.sum(derivativeTerms(pi));
+    const DP = new Float64Array(g.length);
+    for (let k = 0; k < DP.length; k++) DP[k] = DV[k]! * I[k]! + V[k]! * DI[k]!;
+    keepLarger(
+      best,
+      peakOnGrid(
+        g.ts,
+        DP,
+        (t) => pieceValue(pv, t) * pieceValue(pi, t),
+        (t) => pieceDerivative(pv, t) * pieceValue(pi, t) + pieceValue(pv, t) * pieceDerivative(pi, t),
+      ),
+    );
   }
   return best;
 }
@@ -129,10 +200,25 @@ function zeroAround(pieces: readonly Piece[], t: number, scale: number): boolean
 }
 
 /** The stress figures of one part over [start, end]. */
-export function partStress(forms: PartForms, kind: PartKind, value: number, start: number, end: number, times?: ArrayLike<number>): PartStress {
-  const v = peakOfPieces(forms.voltage, start, end, times);
-  const i = peakOfPieces(forms.current, start, end, times);
-  const power = peakOfProduct(forms.voltage, forms.current, start, end, times);
+export function partStress(
+  forms: PartForms,
+  kind: PartKind,
+  value: number,
+  start: number,
+  end: number,
+  times?: ArrayLike<number>,
+  grids?: StressGrids,
+): PartStress {
+  let g = grids;
+  if (!g) {
+    g = new StressGrids(times);
+    g.include(forms.voltage, start, end);
+    g.include(forms.current, start, end);
+  }
+  const on = new OnGrid(g);
+  const v = peakOn(forms.voltage, start, end, on);
+  const i = peakOn(forms.current, start, end, on);
+  const power = peakOfProduct(forms.voltage, forms.current, start, end, on);
   const dissipative = kind === 'resistor' || kind === 'switch';
   let energy: number | null = dissipative ? integralOfProduct(forms.voltage, forms.current, start, end) : null;
   let i2t = integralOfProduct(forms.current, forms.current, start, end);
@@ -189,10 +275,16 @@ export function runStress(result: RunResult): PartStress[] {
     const start = result.times[0]!;
     const end = result.times[result.times.length - 1]!;
     const all = switchVoltagesByKVL(result.circuit, withJumpImpulses(result.circuit, result.parts, result.events ?? []));
+    const grids = new StressGrids(result.times);
+    for (const forms of all) {
+      grids.include(forms.voltage, start, end);
+      grids.include(forms.current, start, end);
+    }
+    const byName = new Map(all.map((p) => [p.part, p]));
     for (const part of result.circuit.parts) {
-      const forms = all.find((p) => p.part === part.name);
+      const forms = byName.get(part.name);
       if (!forms) continue;
-      const s = partStress(forms, part.kind, part.value, start, end, result.times);
+      const s = partStress(forms, part.kind, part.value, start, end, result.times, grids);
       out.push(snapTimes(s, start, end));
     }
   }
