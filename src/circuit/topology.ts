@@ -142,19 +142,23 @@ function warnDanglingNodes(parts: readonly Part[], sink: DiagnosticSink, termina
       t.push({ part: p, end: end as 0 | 1 });
     });
   }
+  const names = [...touches.keys(), GROUND];
+  let suggested = 0;
   for (const [node, t] of touches) {
     if (t.length !== 1) continue;
     const { part, end } = t[0]!;
     if (part.kind === 'current-source') continue; // already an error from the cut-set check
     const loc = terminals?.get(part.name)?.[end] ?? part.loc;
-    const others = [...touches.keys()].filter((n) => n !== node);
-    raise(sink, 'warning', loc, `node '${node}' is connected only to ${part.name}, so ${part.name} carries no current`, {
-      hint: suggestion(node, others),
-    });
+    // Looking for a near name costs a pass over every node: done for the first few only, so a
+    // large generated file full of open ends stays fast.
+    const hint = suggested++ < MAX_SUGGESTIONS ? suggestion(node, names) : 'this end of the part is left open';
+    raise(sink, 'warning', loc, `node '${node}' is connected only to ${part.name}, so ${part.name} carries no current`, { hint });
   }
 }
 
-function suggestion(node: string, others: string[]): string {
-  const near = closest(node, [...others, GROUND]);
+const MAX_SUGGESTIONS = 20;
+
+function suggestion(node: string, names: string[]): string {
+  const near = closest(node, names);
   return near ? `did you mean '${near}'? otherwise this end is left open` : 'this end of the part is left open';
 }

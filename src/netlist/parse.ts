@@ -4,7 +4,9 @@ import { raise, StatementAbandoned, type DiagnosticExtras, type DiagnosticSink }
 import type { SourceLocation } from './location.js';
 import { looksLikeResistorCode, parseQuantity } from './quantity.js';
 import { didYouMean } from './suggest.js';
+import { checkCircuitSize, checkFileSize, expressionTooComplex } from './size.js';
 import { tokenizeLine, type Token, type TokenKind } from './tokenize.js';
+import { MAX_LINE_CHARS } from '../circuit/limits.js';
 
 /** Statement keywords, in the order the language description lists them. */
 export const STATEMENT_KEYWORDS = [
@@ -70,12 +72,20 @@ const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 
 /** Parses a whole file; problems go to `sink` and the statement is skipped. */
 export function parseNetlist(text: string, file: string, sink: DiagnosticSink): Netlist {
+  checkFileSize(text, file);
   const statements: Statement[] = [];
   const brokenPartLines: number[] = [];
   // A byte-order mark some editors add is not part of the first statement.
   const lines = text.replace(/^\uFEFF/, '').split('\n');
   lines.forEach((line, index) => {
     const lineNo = index + 1;
+    if (line.length > MAX_LINE_CHARS) {
+      raise(sink, 'error', { file, line: lineNo, col: MAX_LINE_CHARS + 1, length: 1 }, `this line has ${line.length} characters, more than the ${MAX_LINE_CHARS} allowed`, {
+        hint: 'a statement fits on one line of reasonable length; put long waveforms in a table file',
+      });
+      if (/^\s*(resistor|capacitor|inductor|voltage-source|current-source|switch)\b/.test(line)) brokenPartLines.push(lineNo);
+      return;
+    }
     const tokens = tokenizeLine(line, lineNo, file, sink);
     if (!tokens) {
       if (/^\s*(resistor|capacitor|inductor|voltage-source|current-source|switch)\b/.test(line)) brokenPartLines.push(lineNo);
@@ -89,6 +99,7 @@ export function parseNetlist(text: string, file: string, sink: DiagnosticSink): 
       if ((PART_KINDS as readonly string[]).includes(tokens[0]!.text)) brokenPartLines.push(lineNo);
     }
   });
+  checkCircuitSize(statements, sink);
   return { file, statements, brokenPartLines };
 }
 
@@ -282,6 +293,8 @@ class LineParser {
           return this.table(tok.loc);
         case 'expression': {
           const text = this.expect('string', 'the expression in double quotes, such as "5*sin(2*pi*50*t)"');
+          const tooComplex = expressionTooComplex(text.inner!);
+          if (tooComplex) this.fail(text.loc, tooComplex, { hint: 'move constant parts into param lines' });
           return { kind: 'expression', text: text.inner!, textLoc: text.loc, args: this.keyArgs('expression', TERM_KEYS.expression, tok.loc), loc: this.spanFrom(tok.loc) };
         }
         default:
@@ -442,7 +455,11 @@ class LineParser {
       if (typeof q === 'string') this.fail(tok.loc, q, { expected: 'a number with optional prefix and unit, such as 4.7kΩ, 470nF or 4k7' });
       return { kind: 'literal', text: tok.text, value: q.value, unit: q.unit, loc: tok.loc };
     }
-    if (tok.kind === 'expr') return { kind: 'expr', text: tok.inner!, loc: tok.loc };
+    if (tok.kind === 'expr') {
+      const tooComplex = expressionTooComplex(tok.inner!, 1);
+      if (tooComplex) this.fail(tok.loc, tooComplex, { hint: 'split it into several param lines' });
+      return { kind: 'expr', text: tok.inner!, loc: tok.loc };
+    }
     if (tok.kind === 'word' && IDENTIFIER.test(tok.text)) {
       const node: ValueNode = { kind: 'ref', name: tok.text, loc: tok.loc };
       if (looksLikeResistorCode(tok.text)) {

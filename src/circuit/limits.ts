@@ -1,0 +1,36 @@
+/**
+ * The sizes ringdown accepts, in one place. Each limit is checked where the input is first seen
+ * and refused with an input error (exit code 2) that says which limit was passed; none of them
+ * is close to what a hand-written or generated board-level circuit needs.
+ */
+
+/** Bytes of circuit text (UTF-8). Checked before anything is parsed, so a wrong file is refused at once. */
+export const MAX_FILE_BYTES = 5 * 1024 * 1024;
+
+/** Characters on one line. A statement fits on one line; long inline tables belong in a table file. */
+export const MAX_LINE_CHARS = 100_000;
+
+/**
+ * Characters inside one parenthesized value or one `expression "…"`. The expression evaluator
+ * works recursively, so a very long chain of operators would exhaust the call stack.
+ */
+export const MAX_EXPRESSION_CHARS = 1_000;
+
+/** Parentheses nested inside one expression, for the same reason. */
+export const MAX_EXPRESSION_NESTING = 64;
+
+/** Part statements in one file. */
+export const MAX_PARTS = 5_000;
+
+/** Distinct node names (gnd excepted) in one file. */
+export const MAX_NODES = 5_000;
+
+/** Sample points of a run (`samples`, `--samples`). Enforced in src/circuit/analysis.ts, which has the same number. */
+export const MAX_SAMPLES = 1_000_000;
+
+/**
+ * States (independent capacitor voltages and inductor currents) of one switch configuration.
+ * Enforced by the solver, after the model is built; describeStructure (src/circuit/structure.ts)
+ * predicts the count from the graph alone.
+ */
+export const MAX_STATES = 2_000;
