@@ -48,7 +48,19 @@ export function isClosedAt(p: Part, t: number): boolean {
   return closed;
 }
 
+const memo = new WeakMap<Circuit, Map<string, { circuit: Circuit; isolated: string[] }>>();
+
+/** The circuit of one switch configuration; the same configuration always gives the same object. */
 export function configure(circuit: Circuit, closed: Set<string>): { circuit: Circuit; isolated: string[] } {
+  const key = [...closed].sort().join('\u0000');
+  let byKey = memo.get(circuit);
+  if (!byKey) memo.set(circuit, (byKey = new Map()));
+  let hit = byKey.get(key);
+  if (!hit) byKey.set(key, (hit = build(circuit, closed)));
+  return hit;
+}
+
+function build(circuit: Circuit, closed: Set<string>): { circuit: Circuit; isolated: string[] } {
   const parts: Part[] = [];
   for (const p of circuit.parts) {
     if (p.kind !== 'switch') {

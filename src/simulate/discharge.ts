@@ -27,6 +27,11 @@ export const SAFE_DC_VOLTAGE = 60;
 export function dischargeTimes(circuit: Circuit, values: Map<string, number>, span: number, safeVoltage = SAFE_DC_VOLTAGE): DischargeInfo[] {
   const caps = circuit.parts.filter((p) => p.kind === 'capacitor');
   if (caps.length === 0) return [];
+  // nothing to wait for when no capacitor is above the level (and no inductor carries current
+  // that could charge one above it): skip building the source-free circuit
+  const charged = caps.some((c) => Math.abs(values.get(c.name) ?? 0) >= safeVoltage);
+  const energised = circuit.parts.some((p) => p.kind === 'inductor' && (values.get(p.name) ?? 0) !== 0);
+  if (!charged && !energised) return caps.map((c) => ({ part: c.name, from: values.get(c.name) ?? 0, safeVoltage, time: 0 }));
   const closed = new Set(switchesOf(circuit).filter((p) => isClosedAt(p, span)).map((p) => p.name));
   const withSwitches = configure(circuit, closed).circuit;
   const parts = withSwitches.parts.filter((p) => p.kind !== 'voltage-source' && p.kind !== 'current-source');

@@ -111,7 +111,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
 
   // state before t = 0
   const pre = initialConfiguration(circuit);
-  const before = valuesBeforeStart(circuit, pre.circuit);
+  const before = valuesBeforeStart(circuit, pre.circuit, prepare(pre.circuit).model);
   if (before.note) notices.push(before.note);
 
   const pieces: Piece[][] = circuit.watches.map(() => []);

@@ -1,5 +1,5 @@
 import type { Circuit } from '../circuit/circuit.js';
-import { buildModel } from '../model/build.js';
+import type { Model } from '../model/build.js';
 import { solveSquare } from '../linalg/factor.js';
 import type { Waveform } from '../circuit/circuit.js';
 import { valueLeftOf } from '../waveform/schedule.js';
@@ -11,12 +11,11 @@ import { valueLeftOf } from '../waveform/schedule.js';
  *    initial state, sources at their t = 0− values): ξ' = 0 ⇒ ξ = −A⁻¹·B·u(0−), solved exactly.
  * A part's own `initial` value overrides either.
  */
-export function valuesBeforeStart(circuit: Circuit, pre: Circuit): { values: Map<string, number>; mode: 'settled' | 'rest'; note?: string } {
+export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model): { values: Map<string, number>; mode: 'settled' | 'rest'; note?: string } {
   const values = new Map<string, number>();
   let mode = circuit.analysis.start;
   let note: string | undefined;
   if (mode === 'settled') {
-    const model = buildModel(pre);
     const { ss } = model;
     const waves: Waveform[] = ss.inputs.map((name) => pre.parts.find((p) => p.name === name)!.waveform!);
     const u = waves.map((w) => valueLeftOf(w, 0));

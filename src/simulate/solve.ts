@@ -28,7 +28,8 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const statesAt = new Map<number, Vec>();
   const wanted = new Set(recordAt);
   const beta = matmul(modal.Winv, ss.B, ss.m);
-  const gammas = readouts.map((r) => (ss.n ? matvec(transposeOf(modal.W), r.C) : []));
+  const Wt = ss.n ? transposeOf(modal.W) : [];
+  const gammas = readouts.map((r) => (ss.n ? matvec(Wt, r.C) : []));
   let xm = ss.n ? matvec(modal.Winv, xi0) : [];
   const pieces: Piece[][] = readouts.map(() => []);
   // Intervals of the same length and the same source components (the cycles of a pulse train)
