@@ -9,6 +9,8 @@ import { simulate } from './simulate/run.js';
 export interface AnalyzeOptions {
   samples?: number;
   span?: number;
+  /** compute every part's closed forms (stress, energy, cautions); default true */
+  partSignals?: boolean;
 }
 
 /** circuit → model → exact solution → metrics: the whole run as one value. */
@@ -40,7 +42,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     traces,
     start: sim.start,
     events: sim.events,
-    parts: sim.parts,
+    parts: opts.partSignals === false ? undefined : sim.parts,
     configurations: sim.configurations,
     discharge: sim.discharge,
     periodic: sim.periodic,

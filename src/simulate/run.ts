@@ -19,6 +19,11 @@ import { pathResponses, solveExact } from './solve.js';
 export interface SimulateOptions {
   span?: number;
   samples?: number;
+  /**
+   * Closed forms of every part's voltage and current (for stress, energy and cautions). Default
+   * true; a caller that only wants the watched samples (CSV) saves their cost with false.
+   */
+  partSignals?: boolean;
 }
 
 /** A switching event as the run saw it. */
@@ -79,7 +84,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let p = prepared.get(c);
     if (!p) {
       const model = buildModel(c);
-      const partReadouts = circuit.parts.flatMap((part) => [
+      const partReadouts = opts.partSignals === false ? [] : circuit.parts.flatMap((part) => [
         readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-voltage', part: part.name } }),
         readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-current', part: part.name } }),
       ]);
@@ -235,7 +240,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const states = finalConfig.states;
   const modes = finalConfig.modes;
   void matvec;
-  const parts = circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
+  const parts = opts.partSignals === false ? [] : circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
   const discharge = dischargeTimes(circuit, values, span);
   let steady: PeriodicSteadyState | null = null;
   if (periodic && ps.state && ps.epoch) {
