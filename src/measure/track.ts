@@ -64,10 +64,16 @@ function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array)
   const m = Math.min(MAX_INTERVALS, wanted);
   const grid: number[] = [];
   for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
-  for (let k = 0; k < times.length; k++) {
-    const t = times[k]!;
-    if (t > lo && t < hi) grid.push(t);
+  // only the samples inside (lo, hi): binary search, not a scan (a pulse train has tens of
+  // thousands of pieces)
+  let a = 0;
+  let b = times.length;
+  while (a < b) {
+    const mid = (a + b) >> 1;
+    if (times[mid]! <= lo) a = mid + 1;
+    else b = mid;
   }
+  for (let k = a; k < times.length && times[k]! < hi; k++) grid.push(times[k]!);
   grid.sort((x, y) => x - y);
 
   const ts: number[] = [];
