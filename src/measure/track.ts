@@ -45,7 +45,10 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     const lo = Math.max(piece.t0, start);
     const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
     if (hi < lo || (hi === lo && stretches.length > 0)) continue;
-    stretches.push(pieceStretch(piece, lo, hi, times));
+    // a piece covering a small part of the span needs proportionally fewer grid intervals
+    // (a long pulse train has tens of thousands of short pieces); never fewer than 8
+    const share = end > start ? (hi - lo) / (end - start) : 1;
+    stretches.push(pieceStretch(piece, lo, hi, times, Math.max(8, Math.ceil(MIN_INTERVALS * share))));
   }
   if (stretches.length === 0) {
     // Every piece lies outside the span: measure the last piece over the span.
@@ -54,13 +57,13 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   return { stretches, start, end };
 }
 
-function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array): Stretch {
+function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array, minIntervals = MIN_INTERVALS): Stretch {
   const f = (t: number) => pieceValue(piece, t);
   if (hi === lo) return { f, ts: [lo], ys: [f(lo)] };
   const df = (t: number) => pieceDerivative(piece, t);
 
   const width = hi - lo;
-  const wanted = Math.max(MIN_INTERVALS, Math.ceil((width * maxOmega(piece)) / PHASE_STEP));
+  const wanted = Math.max(minIntervals, Math.ceil((width * maxOmega(piece)) / PHASE_STEP));
   const m = Math.min(MAX_INTERVALS, wanted);
   const grid: number[] = [];
   for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
