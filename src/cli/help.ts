@@ -8,8 +8,9 @@ Examples:
   ringdown check filter.rdn                           the circuit as ringdown reads it
 
 Exit codes: 0 ok, 1 internal error, 2 problems in the input, 3 the in-run cross-check failed,
-4 a part's stress is above its derated rating (a CI job can gate on it), 5 kept for a danger
-caution.
+4 a part's stress is above its derated rating (a CI job can gate on it), 5 a danger caution
+fired (hazardous voltage or stored energy, no discharge path, interrupted inductor current).
+When several apply: 3 first (no figure can be trusted), then 5 (people), then 4 (parts).
 `;
 
 export const RUN_EXAMPLES = `
@@ -17,6 +18,7 @@ Examples:
   ringdown run snubber.rdn
   ringdown run snubber.rdn --span 2ms --samples 4001
   ringdown run snubber.rdn --format json --out result.json
+  ringdown run snubber.rdn --no-chart --plot snubber.svg
   ringdown run snubber.rdn --format csv > samples.csv
   cat snubber.rdn | ringdown run - --no-chart
 `;

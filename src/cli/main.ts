@@ -25,12 +25,13 @@ function buildProgram(io: CliIO, setCode: (code: number) => void): Command {
     .argument('<file>', 'circuit file, or - to read standard input')
     .addOption(new Option('--format <format>', 'report format').choices(FORMATS).default('text'))
     .option('--out <file>', 'write the report to this file instead of standard output')
+    .option('--plot <file.svg>', 'also write a figure of the watched signals as an SVG file')
     .option('--samples <n>', 'number of sample points (overrides the file)', parseSamplesOption)
     .option('--span <time>', 'length of the analysis, e.g. 2ms (overrides the file)', parseSpanOption)
     .option('--no-chart', 'leave the charts out of the text report')
     .option('--debug', 'print stack traces of internal errors')
     .addHelpText('after', RUN_EXAMPLES)
-    .action(async (file: string, opts: { format: Format; out?: string; samples?: number; span?: number; chart: boolean; debug?: boolean }) => {
+    .action(async (file: string, opts: { format: Format; out?: string; plot?: string; samples?: number; span?: number; chart: boolean; debug?: boolean }) => {
       setCode(await runCommand(file, opts, io));
     });
 
@@ -50,7 +51,7 @@ function buildProgram(io: CliIO, setCode: (code: number) => void): Command {
 /**
  * The ringdown command line. `argv` is process.argv (node, script, arguments...).
  * Returns the exit code: 0 ok, 1 internal error, 2 input errors, 3 cross-check failed,
- * 4 a rating exceeded after derating (5 is kept for a danger caution).
+ * 4 a rating exceeded after derating, 5 a danger caution; of 3, 5 and 4 the first that applies.
  */
 export async function main(argv: string[], io: CliIO = processIO()): Promise<number> {
   let code = EXIT_OK;

@@ -2,14 +2,16 @@ import { writeFile } from 'node:fs/promises';
 import { analyzeText } from '../pipeline.js';
 import { colorEnabled } from '../report/color.js';
 import { formatCSV } from '../report/csv.js';
+import { runCautions } from '../measure/cautions.js';
 import { runRatings } from '../measure/ratings.js';
 import { formatJSON } from '../report/json.js';
 import { formatNumbers } from '../report/numbers.js';
-import { formatSI } from '../report/si.js';
+import { formatSI } from '../units/si.js';
+import { renderSVG } from '../report/svg.js';
 import { RATING_NAMES } from '../report/stress.js';
 import { formatTextReport } from '../report/text.js';
 import type { RunResult } from '../simulate/result.js';
-import { EXIT_CROSS_CHECK, EXIT_INPUT, EXIT_OK, EXIT_RATING } from './exit.js';
+import { EXIT_CROSS_CHECK, EXIT_DANGER, EXIT_INPUT, EXIT_OK, EXIT_RATING, exitPriority } from './exit.js';
 import { printWarnings, reportFailure } from './failure.js';
 import { readCircuitText } from './input.js';
 import type { CliIO } from './io.js';
@@ -18,6 +20,8 @@ import type { Format } from './options.js';
 export interface RunOptions {
   format: Format;
   out?: string;
+  /** also write the SVG figure to this file */
+  plot?: string;
   samples?: number;
   span?: number;
   chart: boolean;
@@ -35,6 +39,13 @@ function render(result: RunResult, opts: RunOptions, color: boolean): string {
     case 'text':
       return formatTextReport(result, { chart: opts.chart, color });
   }
+}
+
+/** Exit code 5, with one line per caution on standard error, when a danger caution fires. */
+function dangerExit(result: RunResult, io: CliIO): number {
+  const danger = runCautions(result).filter((c) => c.severity === 'danger');
+  for (const c of danger) io.stderr.write(`ringdown: DANGER: ${c.title}${c.parts && c.parts.length > 0 ? ` (${c.parts.join(', ')})` : ''}\n`);
+  return danger.length > 0 ? EXIT_DANGER : EXIT_OK;
 }
 
 /** Exit code 4, with one line per check on standard error, when a stress is above its derated limit. */
@@ -75,15 +86,25 @@ export async function runCommand(file: string, opts: RunOptions, io: CliIO): Pro
     } else {
       io.stdout.write(output);
     }
+    if (opts.plot !== undefined) {
+      try {
+        await writeFile(opts.plot, renderSVG(result), 'utf8');
+      } catch (e) {
+        io.stderr.write(`ringdown: cannot write ${opts.plot}: ${(e as Error).message}\n`);
+        return EXIT_INPUT;
+      }
+    }
 
+    // every applicable code is announced on standard error; the most important one is returned
+    const codes = [dangerExit(result, io), ratingsExit(result, io)];
     if (!result.crossCheck.passed) {
       const c = result.crossCheck;
       io.stderr.write(
         `ringdown: CROSS-CHECK FAILED: the closed form and ${c.method} differ by ${c.maxRelError.toExponential(1)} (limit ${c.tolerance.toExponential(1)}); do not rely on these results\n`,
       );
-      return EXIT_CROSS_CHECK;
+      codes.push(EXIT_CROSS_CHECK);
     }
-    return ratingsExit(result, io);
+    return exitPriority(codes);
   } catch (e) {
     return reportFailure(e, source, io, opts.debug === true);
   }

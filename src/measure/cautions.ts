@@ -333,3 +333,23 @@ export function maxSlope(result: RunResult, pieces: Piece[], grids?: StressGrids
   if (Number.isNaN(peak.value)) return undefined;
   return Math.abs(peak.value) >= Math.abs(valley.value) ? { rate: peak.value, time: peak.time } : { rate: valley.value, time: valley.time };
 }
+
+const SEVERITY_ORDER: Record<Caution['severity'], number> = { danger: 0, warning: 1, info: 2 };
+
+const runCache = new WeakMap<RunResult, Caution[]>();
+
+/**
+ * The cautions of a run, with the run's own discharge analysis (RunResult.discharge), danger first,
+ * then warnings, then notes (each group in the order found). Computed once per result.
+ */
+export function runCautions(result: RunResult): Caution[] {
+  const hit = runCache.get(result);
+  if (hit) return hit;
+  const list = cautions(result, { discharge: result.discharge ?? [] });
+  const out = list
+    .map((c, i) => ({ c, i }))
+    .sort((x, y) => SEVERITY_ORDER[x.c.severity] - SEVERITY_ORDER[y.c.severity] || x.i - y.i)
+    .map((x) => x.c);
+  runCache.set(result, out);
+  return out;
+}

@@ -1,6 +1,6 @@
 import type { Piece, Term } from '../simulate/result.js';
 import { formatPlain, formatSI } from './si.js';
-import { wrapFormula } from './wrap.js';
+import { wrapFormula, wrapWords } from './wrap.js';
 
 /**
  * Closed forms written for people: `12 V − 12 V·e^(−t/1.00 ms)`.
@@ -179,33 +179,62 @@ export function formatTerms(terms: readonly Term[], v: string, coef: CoefFormat,
 }
 
 /** The time variable of a piece starting at t0. */
-export function timeVariable(t0: number): string {
-  return t0 === 0 ? 't' : `(t ${t0 < 0 ? '+' : MINUS} ${formatSI(Math.abs(t0), 's', { digits: 4, trim: true })})`;
+export function timeVariable(t0: number, digits = 4): string {
+  return t0 === 0 ? 't' : `(t ${t0 < 0 ? '+' : MINUS} ${formatSI(Math.abs(t0), 's', { digits, trim: true })})`;
+}
+
+/**
+ * Significant digits (at least 4, at most 15) that write every one of these times as a different
+ * text: boundaries 1 µs apart near 990 µs need more than four.
+ */
+export function distinctDigits(times: readonly number[]): number {
+  const uniq = [...new Set(times)];
+  for (let d = 4; d < 15; d++) {
+    const texts = new Set(uniq.map((t) => formatSI(t, 's', { digits: d, trim: true })));
+    if (texts.size === uniq.length) return d;
+  }
+  return 15;
 }
 
 /** `δ(t − 1 ms)` with an area. */
-export function impulseItem(area: number, t0: number, unit: string): Item {
-  const v = t0 === 0 ? 't' : timeVariable(t0).slice(1, -1);
+export function impulseItem(area: number, t0: number, unit: string, digits = 4): Item {
+  const v = t0 === 0 ? 't' : timeVariable(t0, digits).slice(1, -1);
   return { negative: area < 0, body: `${formatSI(Math.abs(area), unit === '' ? 's' : `${unit}·s`, { digits: 4, trim: true })}·δ(${v})` };
 }
+
+/** Intervals shown at the start and at the end of a long list (the JSON keeps them all). */
+export const FIRST_INTERVALS = 3;
+export const LAST_INTERVALS = 2;
 
 /**
  * The closed form of a signal, one line per piece inside [0, span]:
  *   v(out) = 12 V − 12 V·e^(−t/1.00 ms)                       (a single piece from 0)
  *   v(out) = … for 1.000 ms ≤ t < 2.000 ms                     (several pieces)
+ * With more than five intervals, the first three and the last two are written, and a line says
+ * how many were left out. Interval times carry the digits that keep neighbouring boundaries apart.
  */
 export function formatPieces(label: string, unit: string, pieces: readonly Piece[], span: number, noise = 0, width = Infinity): string[] {
   const coef = unitCoefs(unit);
   const shown = pieces.filter((p, i) => p.t0 < span || i === 0);
   if (shown.length === 0) return [`${label} = ${coef(0, 0)}`];
-  return shown.flatMap((p, i) => {
-    const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit)] : [];
+  const digits = distinctDigits(shown.flatMap((p, i) => (i === shown.length - 1 ? [p.t0] : [p.t0, p.t1])));
+  const at = (t: number) => formatSI(t, 's', { digits, trim: true });
+  const one = (p: Piece, i: number): string[] => {
+    const extra = p.impulseArea !== 0 ? [impulseItem(p.impulseArea, p.t0, unit, digits)] : [];
     const floor = { value: noise, timeScale: Math.max(0, Math.min(p.t1, span) - p.t0) };
-    const body = formatTerms(p.terms, timeVariable(p.t0), coef, extra, floor);
+    const body = formatTerms(p.terms, timeVariable(p.t0, digits), coef, extra, floor);
     if (shown.length === 1 && p.t0 <= 0) return wrapFormula(`${label} = `, body, width);
-    const from = formatSI(p.t0, 's', { digits: 4, trim: true });
     const last = i === shown.length - 1;
-    const range = last ? `t ≥ ${from}` : `${from} ≤ t < ${formatSI(p.t1, 's', { digits: 4, trim: true })}`;
+    const range = last ? `t ≥ ${at(p.t0)}` : `${at(p.t0)} ≤ t < ${at(p.t1)}`;
     return [`for ${range}:`, ...wrapFormula(`  ${label} = `, body, width - 2)];
-  });
+  };
+  if (shown.length <= FIRST_INTERVALS + LAST_INTERVALS) return shown.flatMap(one);
+  const head = shown.slice(0, FIRST_INTERVALS).flatMap((p, i) => one(p, i));
+  const tailStart = shown.length - LAST_INTERVALS;
+  const tail = shown.slice(tailStart).flatMap((p, i) => one(p, tailStart + i));
+  const left = tailStart - FIRST_INTERVALS;
+  const from = shown[FIRST_INTERVALS]!;
+  const to = shown[tailStart - 1]!;
+  const gap = `… ${left} more interval${left === 1 ? '' : 's'} left out (${at(from.t0)} ≤ t < ${at(to.t1)}; the JSON output has every interval)`;
+  return [...head, ...(Number.isFinite(width) ? wrapWords(gap, width, '  ') : [gap]), ...tail];
 }

@@ -1,3 +1,5 @@
+import { pathTransfers } from '../lti/transfer.js';
+import { runCautions } from '../measure/cautions.js';
 import { runRatings } from '../measure/ratings.js';
 import { runStress } from '../measure/stress.js';
 import type { RunResult } from '../simulate/result.js';
@@ -19,10 +21,22 @@ export function resultToJSONValue(result: RunResult): Record<string, unknown> {
 
 /**
  * The whole run result as JSON text (two-space indent, trailing newline), with the part stress
- * figures (`stress`) and the rating checks (`ratings`) added.
+ * figures (`stress`), the rating checks (`ratings`), the safety cautions (`cautions`) and the
+ * transfer functions (`transfers`) added; `discharge` and `periodic` are always present (empty
+ * list, null) so that readers need not test for them.
  */
 export function formatJSON(result: RunResult): string {
-  const text = JSON.stringify({ schema: JSON_SCHEMA, ...result, stress: runStress(result), ratings: runRatings(result) }, replacer, 2);
+  const value = {
+    schema: JSON_SCHEMA,
+    ...result,
+    discharge: result.discharge ?? [],
+    periodic: result.periodic ?? null,
+    stress: runStress(result),
+    ratings: runRatings(result),
+    cautions: runCautions(result),
+    transfers: pathTransfers(result, { allConfigurations: true }),
+  };
+  const text = JSON.stringify(value, replacer, 2);
   // Arrays of plain numbers (samples, coefficients) on one line each: same JSON, far fewer lines.
   return text.replace(/\[(\s*(?:-?[\d.eE+-]+|null)(?:,\s*(?:-?[\d.eE+-]+|null))*\s*)\]/g, (_m, inner: string) => `[${inner.replace(/\s+/g, '')}]`) + '\n';
 }

@@ -1,15 +1,21 @@
 import type { Diagnostic } from '../diagnostics.js';
 import type { RunResult } from '../simulate/result.js';
+import { pathTransfers } from '../lti/transfer.js';
+import { runCautions } from '../measure/cautions.js';
+import { cautionsSection } from './cautions.js';
 import { crossCheckLines } from './crosscheck.js';
+import { dischargeSection } from './discharge.js';
 import { energySection } from './energy.js';
 import { eventsSection } from './events.js';
 import { modesSection } from './modes.js';
+import { periodicSection } from './periodic.js';
 import { SAFETY_NOTICE } from './safety.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { signalSection } from './signal.js';
 import { ratingsSection, ratingsVerdict, stressSection } from './stress.js';
 import { circuitSection } from './summary.js';
 import { heading } from './table.js';
+import { formatTransfers } from './transfer.js';
 import { wrapWords } from './wrap.js';
 
 export interface TextReportOptions {
@@ -25,6 +31,12 @@ export interface TextReportOptions {
 export function warningLine(d: Diagnostic): string {
   const where = d.loc ? `line ${d.loc.line}: ` : '';
   return `${where}${d.message}${d.hint ? ` (${d.hint})` : ''}`;
+}
+
+/** "Transfer functions": every source → watch H(s), long lines wrapped at the terms. */
+function transferLines(result: RunResult): string[] {
+  const lines = formatTransfers(pathTransfers(result, { allConfigurations: true }));
+  return lines.flatMap((l, i) => (i < 2 ? [l] : wrapWords(l, 80, '      ')));
 }
 
 /** The full human-readable report of a run. */
@@ -63,12 +75,19 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   } else {
     out.push(...modesSection(result.modes), '');
   }
+  const transfers = transferLines(result);
+  if (transfers.length > 0) out.push(...transfers, '');
   const events = eventsSection(result);
   if (events.length > 0) out.push(...events, '');
 
   for (const trace of result.traces) {
     out.push(...signalSection(trace, circuit, result.times, result.span, opts), '');
   }
+
+  const periodic = periodicSection(result);
+  if (periodic.length > 0) out.push(...periodic, '');
+  const discharge = dischargeSection(result);
+  if (discharge.length > 0) out.push(...discharge, '');
 
   const energy = energySection(result);
   if (energy.length > 0) out.push(...energy, '');
@@ -77,6 +96,8 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   if (stress.length > 0) out.push(...stress, '');
   const ratings = ratingsSection(result, opts.color);
   if (ratings.length > 0) out.push(...ratings, '');
+
+  out.push(...cautionsSection(runCautions(result), opts.color), '');
 
   const warnings = circuit.warnings ?? [];
   if (warnings.length + result.notices.length > 0) {
