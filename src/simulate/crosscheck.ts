@@ -17,17 +17,19 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
   let xi = xi0.slice();
   // the cycles of a pulse train repeat the same intervals: one propagator per distinct shape
   const whole = new Map<string, Propagator>();
+  const augs = new Map<string, { Mb: number[][]; d: number[]; start: number[]; rate: number }>();
   schedule.intervals.forEach((iv, idx) => {
     const dirac = schedule.diracs.find((d) => d.t === iv.t0);
     if (dirac && idx > 0) xi = xi.map((v, i) => v + dot(ss.B[i], dirac.area));
     const len = iv.t1 - iv.t0;
     const key = `${len}|${iv.components.map((k) => `${k.input},${k.power},${k.sigma},${k.omega},${k.re},${k.im}`).join(';')}`;
-    let aug: { Mb: number[][]; d: number[]; start: number[]; rate: number } | null = null;
     const get = () => {
+      let aug = augs.get(key);
       if (!aug) {
         const { M, start } = augmented(ss, iv);
         const { B: Mb, d } = balance(M);
         aug = { Mb, d, start, rate: norm1(Mb) };
+        if (augs.size < 4096) augs.set(key, aug);
       }
       return aug;
     };
