@@ -154,6 +154,8 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   // (c) discharge after the sources are removed
   for (const d of extra.discharge ?? []) {
     const safe = formatSI(d.safeVoltage, 'V', { trim: true });
+    // below the safe level with nothing to discharge it: it stays there, which is not a hazard
+    if (d.time === null && Math.abs(d.from) < d.safeVoltage) continue;
     if (d.time === null) {
       out.push({
         id: 'no-discharge-path',

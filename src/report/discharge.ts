@@ -23,7 +23,9 @@ export function dischargeSection(result: RunResult): string[] {
   for (const d of list) {
     const from = formatSI(d.from, 'V');
     const text =
-      d.time === null
+      d.time === null && Math.abs(d.from) < d.safeVoltage
+        ? `${d.part}: ${from}, below ${formatSI(d.safeVoltage, 'V', { trim: true })}, but nothing discharges it (it keeps its charge)`
+        : d.time === null
         ? `${d.part}: from ${from}, no discharge path (it never falls below ${formatSI(d.safeVoltage, 'V', { trim: true })})`
         : d.time === 0
           ? `${d.part}: ${from}, already below ${formatSI(d.safeVoltage, 'V', { trim: true })}`

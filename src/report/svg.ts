@@ -41,6 +41,28 @@ export function tickLabel(value: number, unit: string, step: number): string {
   return formatSI(value, unit, { digits: 3, trim: true });
 }
 
+/** Approximate width of one character of the 11 px annotation font. */
+const CHAR_W = 6.2;
+
+/** A text's box: x, baseline y, width, height (above the baseline). */
+interface Box {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+function overlaps(a: Box, b: Box): boolean {
+  return a.x < b.x + b.w && b.x < a.x + a.w && a.y - a.h < b.y && b.y - b.h < a.y;
+}
+
+/** Text cut to fit `width` pixels at about `charW` per character, with an ellipsis when cut. */
+export function fitText(text: string, width: number, charW: number): string {
+  const max = Math.max(4, Math.floor(width / charW));
+  const chars = [...text];
+  return chars.length <= max ? text : chars.slice(0, max - 1).join('').trimEnd() + '…';
+}
+
 export function renderSVG(result: RunResult, opts: SVGOptions = {}): string {
   const width = Math.max(320, opts.width ?? 860);
   const units = (['V', 'A'] as const).filter((u) => result.traces.some((t) => t.unit === u));
@@ -66,7 +88,7 @@ export function renderSVG(result: RunResult, opts: SVGOptions = {}): string {
   );
   out.push(`<title>${escapeXML(title || 'ringdown response')}</title>`);
   out.push(`<rect class="background" x="0" y="0" width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`);
-  if (title) out.push(`<text class="figure-title" x="${n(margin.left)}" y="30" font-size="16" font-weight="600" fill="${INK}">${escapeXML(title)}</text>`);
+  if (title) out.push(`<text class="figure-title" x="${n(margin.left)}" y="30" font-size="16" font-weight="600" fill="${INK}">${escapeXML(fitText(title, width - margin.left - margin.right, 9.2))}</text>`);
 
   let colourIndex = 0;
   units.forEach((unit, p) => {
@@ -118,7 +140,8 @@ export function renderSVG(result: RunResult, opts: SVGOptions = {}): string {
     traces.forEach((t, i) => {
       const m = t.metrics;
       const half = Number.isFinite(m.final) && Number.isFinite(m.initial) ? bandHalfWidth(result.circuit.analysis.settle, m.initial, m.final) : null;
-      if (half === null || m.settlingTime === null || !Number.isFinite(m.settlingTime)) return;
+      // a band the signal never leaves (settled at the start) says nothing: not drawn
+      if (half === null || m.settlingTime === null || !Number.isFinite(m.settlingTime) || !(m.settlingTime > t0)) return;
       const yTop = y(m.final + half);
       const yBot = y(m.final - half);
       out.push(
@@ -146,6 +169,7 @@ export function renderSVG(result: RunResult, opts: SVGOptions = {}): string {
 
     // measurements over the traces
     out.push(`<g class="annotations" font-size="11">`);
+    const placed: Box[] = [];
     traces.forEach((t, i) => {
       const m = t.metrics;
       const col = colours[i]!;
@@ -163,11 +187,20 @@ export function renderSVG(result: RunResult, opts: SVGOptions = {}): string {
         const py = y(pk.value);
         out.push(`<circle class="peak-marker" data-trace="${escapeXML(t.label)}" cx="${n(px)}" cy="${n(py)}" r="3.5" fill="#ffffff" stroke="${col}" stroke-width="1.8"/>`);
         let text = `peak ${formatSI(pk.value, t.unit, { digits: 4 })}`;
-        if (m.overshootPct !== null && Number.isFinite(m.overshootPct) && m.overshootPct > 0) text += `, overshoot ${m.overshootPct.toFixed(1)} %`;
+        // an overshoot relative to a transition far smaller than the swing itself (a current pulse
+        // that starts and ends near zero) is not a useful figure on a plot
+        const swing = Math.max(Math.abs(pk.value), Math.abs(m.valley?.value ?? 0));
+        const transition = Math.abs(m.final - m.initial);
+        if (m.overshootPct !== null && Number.isFinite(m.overshootPct) && m.overshootPct > 0 && transition >= 0.01 * swing) text += `, overshoot ${m.overshootPct.toFixed(1)} %`;
         const right = px < plotW - 190;
         const above = py > 18;
+        const w = text.length * CHAR_W;
+        const box: Box = { x: right ? px + 7 : px - 7 - w, y: above ? py - 7 : py + 15, w, h: 13 };
+        // move a label that would cover an earlier one (two traces peaking at nearly the same point)
+        for (let tries = 0; tries < 8 && placed.some((b) => overlaps(b, box)); tries++) box.y += above ? -14 : 14;
+        placed.push(box);
         out.push(
-          `<text class="peak-label" x="${n(px + (right ? 7 : -7))}" y="${n(above ? py - 7 : py + 15)}" text-anchor="${right ? 'start' : 'end'}" fill="${col}">${escapeXML(text)}</text>`,
+          `<text class="peak-label" x="${n(right ? box.x : box.x + w)}" y="${n(box.y)}" text-anchor="${right ? 'start' : 'end'}" fill="${col}">${escapeXML(text)}</text>`,
         );
       }
     });
