@@ -307,7 +307,7 @@ function extremes(pieces: readonly Piece[], result: RunResult, grids: StressGrid
   for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
     const g = grids.grid(piece, lo, hi);
     const f = (t: number) => pieceValue(piece, t);
-    const { max, min } = extremaOnGrid(g.ts, g.sum(piece.terms), g.sum(derivativeTerms(piece)), f, (t) => pieceDerivative(piece, t));
+    const { max, min } = extremaOnGrid(g.ts, g.sum(derivativeTerms(piece)), f, (t) => pieceDerivative(piece, t));
     if (max.value > peak.value) Object.assign(peak, max);
     if (min.value < valley.value) Object.assign(valley, min);
     last = f(hi);

@@ -161,21 +161,16 @@ export function peakOnGrid(ts: Float64Array, dfs: Float64Array, f: (t: number) =
 }
 
 /**
- * Largest and smallest value of f on [ts[0], ts[last]]: the ends, every grid time (from `fs`, then
- * evaluated exactly when it wins) and every root of f' bracketed on the grid and refined by Brent's
- * method. The earliest time wins a tie.
+ * Largest and smallest value of f on [ts[0], ts[last]]: the ends and every root of f' bracketed by
+ * a sign change of `dfs` (f' on the grid) and refined by Brent's method on the exact `df`, each
+ * evaluated with the exact `f`. The earliest time wins a tie.
  */
-export function extremaOnGrid(
-  ts: Float64Array,
-  fs: Float64Array,
-  dfs: Float64Array,
-  f: (t: number) => number,
-  df: (t: number) => number,
-): { max: Located; min: Located } {
+export function extremaOnGrid(ts: Float64Array, dfs: Float64Array, f: (t: number) => number, df: (t: number) => number): { max: Located; min: Located } {
   const n = ts.length;
   const max: Located = { value: -Infinity, time: ts[0]! };
   const min: Located = { value: Infinity, time: ts[0]! };
-  const consider = (t: number, y: number) => {
+  const consider = (t: number) => {
+    const y = f(t);
     if (y > max.value) {
       max.value = y;
       max.time = t;
@@ -185,14 +180,7 @@ export function extremaOnGrid(
       min.time = t;
     }
   };
-  // grid times by their grid values; the winners are evaluated exactly below
-  let kMax = 0;
-  let kMin = 0;
-  for (let k = 1; k < n; k++) {
-    if (fs[k]! > fs[kMax]!) kMax = k;
-    if (fs[k]! < fs[kMin]!) kMin = k;
-  }
-  const candidates: number[] = [ts[0]!];
+  consider(ts[0]!);
   for (let k = 1; k < n; k++) {
     const a = ts[k - 1]!;
     const b = ts[k]!;
@@ -200,10 +188,10 @@ export function extremaOnGrid(
     const db = dfs[k]!;
     if (da !== 0 && db !== 0 && (da < 0) !== (db < 0)) {
       const r = findRoot(df, a, b, 1e-14, da, db);
-      if (r > a && r < b) candidates.push(r);
+      if (r > a && r < b) consider(r);
+    } else if (db === 0 || k === n - 1) {
+      consider(b);
     }
-    if (k === kMax || k === kMin || k === n - 1) candidates.push(b);
   }
-  for (const t of candidates) consider(t, f(t));
   return { max, min };
 }

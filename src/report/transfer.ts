@@ -96,7 +96,16 @@ export function transferUnit(t: Pick<PathTransfer, 'unit' | 'sourceUnit'>): stri
 
 /** One path: "v(out) from V1 (V/V): H(s) = 1000 / (s + 1000)". */
 export function formatTransfer(t: PathTransfer): string {
-  return `${t.watch} from ${t.source} (${transferUnit(t)}): ${formatRational(t.h)}`;
+  const head = `${t.watch} from ${t.source} (${transferUnit(t)})`;
+  const coefs = [...t.h.num, ...t.h.den];
+  // a network of high order has coefficients beyond floating-point range (an RC ladder of 100
+  // sections: (1/RC)¹⁰⁰): say so rather than print a polynomial that rounded to 0 or ∞
+  const lost = coefs.some((c) => !Number.isFinite(c)) || (t.h.num.every((c) => c === 0) && Number.isFinite(t.dcGain) && t.dcGain !== 0);
+  if (lost) {
+    const dc = Number.isFinite(t.dcGain) ? `; DC gain ${formatCoefficient(t.dcGain)}` : '';
+    return `${head}: order ${t.h.den.length - 1}, its coefficients are beyond floating-point range${dc}`;
+  }
+  return `${head}: ${formatRational(t.h)}`;
 }
 
 /** A report section: a heading, then one line per path (grouped by switch configuration when there are several). */
