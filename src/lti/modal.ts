@@ -40,10 +40,23 @@ export function modalDecomposition(A: Mat): Modal {
   // balanced Hessenberg QR (src/linalg/eig.ts): balancing matters for circuits whose states
   // differ in scale by many orders (nanohenry currents next to millifarad voltages)
   const { re, im, V } = eig(A);
+  // Eigenvalues within round-off of zero (a capacitor or inductor with nothing to discharge it)
+  // are exactly zero; a conjugate pair that collapsed there gets an invariant subspace below.
+  let norm = 0;
+  for (const row of A) norm = Math.max(norm, row.reduce((acc, v) => acc + Math.abs(v), 0));
+  const tiny = 1e-12 * norm;
+  const snapped = new Set<number>();
+  for (let i = 0; i < n; i++) {
+    if (Math.hypot(re[i], im[i]) <= tiny) {
+      if (im[i] !== 0) snapped.add(i);
+      re[i] = 0;
+      im[i] = 0;
+    }
+  }
   // groups: a real eigenvalue alone, or a conjugate pair (columns i, i+1 = Re v, Im v)
   const groups: number[][] = [];
   for (let i = 0; i < n; i++) {
-    if (im[i] !== 0 && i + 1 < n && im[i + 1] === -im[i]) {
+    if ((im[i] !== 0 && i + 1 < n && im[i + 1] === -im[i]) || (snapped.has(i) && snapped.has(i + 1))) {
       groups.push([i, i + 1]);
       i++;
     } else groups.push([i]);
@@ -52,13 +65,23 @@ export function modalDecomposition(A: Mat): Modal {
   const find = (i: number): number => (parent[i] === i ? i : (parent[i] = find(parent[i])));
   const scaleOf = (i: number) => Math.hypot(re[i], im[i]);
   const colSine = (a: number[], b: number[]) => subspaceSine(V, a, b);
-  for (let g = 0; g < groups.length; g++) {
+  // Merge (a) equal eigenvalues, whatever their eigenvectors (repeated poles of identical
+  // sections, several zero poles), and (b) close eigenvalues with nearly parallel eigenvectors
+  // (critical damping and its neighbourhood). Sorted by real part, only neighbours within the
+  // closeness window are compared.
+  const order = groups.map((_, g) => g).sort((a, b) => re[groups[a][0]] - re[groups[b][0]]);
+  for (let x = 0; x < order.length; x++) {
+    const g = order[x];
     const G = groups[g];
-    for (let h = 0; h < g; h++) {
+    for (let y = x + 1; y < order.length; y++) {
+      const h = order[y];
       const H = groups[h];
-      const dist = Math.min(...G.flatMap((i) => H.map((j) => Math.hypot(re[i] - re[j], im[i] - im[j]))));
       const big = Math.max(...G.map(scaleOf), ...H.map(scaleOf));
-      if (dist <= CLOSE * big && colSine(G, H) < PARALLEL) parent[find(g)] = find(h);
+      if (re[H[0]] - re[G[0]] > CLOSE * big + tiny) break;
+      let dist = Infinity;
+      for (const i of G) for (const j of H) dist = Math.min(dist, Math.hypot(re[i] - re[j], im[i] - im[j]));
+      const equal = dist <= 1e-9 * big + tiny;
+      if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
   const members = new Map<number, number[]>();
@@ -74,7 +97,7 @@ export function modalDecomposition(A: Mat): Modal {
     const eig = idx.map((i) => ({ re: re[i], im: im[i] }));
     // a complex pair this close to the real axis has nearly parallel complex eigenvectors:
     // evaluate it as a cluster (series around its mean) rather than as two complex modes
-    const nearRealPair = gs.length === 1 && idx.length === 2 && Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]);
+    const nearRealPair = gs.length === 1 && idx.length === 2 && (Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]) || snapped.has(idx[0]));
     const isCluster = gs.length > 1 || nearRealPair;
     const kind: Block['kind'] = isCluster ? 'cluster' : idx.length === 2 ? 'pair' : 'real';
     const basis = isCluster ? invariantSubspace(A, eig) : idx.map((i) => V.map((row) => row[i]));
@@ -90,7 +113,8 @@ export function modalDecomposition(A: Mat): Modal {
   const blocks: Block[] = cols.map((index, b) => ({
     kind: specs[b].kind,
     index,
-    T: index.map((i) => index.map((j) => Tfull[i][j])),
+    // a pole snapped to zero is exactly zero in its block too
+    T: specs[b].kind === 'real' && specs[b].eig[0].re === 0 ? [[0]] : index.map((i) => index.map((j) => Tfull[i][j])),
     eig: specs[b].eig,
   }));
   return { n, W, Winv, blocks };
@@ -121,6 +145,26 @@ function subspaceSine(V: Mat, a: number[], b: number[]): number {
  */
 function invariantSubspace(A: Mat, eig: { re: number; im: number }[]): number[][] {
   const n = A.length;
+  const k0 = eig.length;
+  if (eig.every((e) => e.im === 0 && e.re === eig[0].re)) {
+    // one repeated real eigenvalue μ: the null space of the lowest power of (A − μI) that has
+    // enough of it. Low powers keep the slow modes apart from the null space, which a high power
+    // of a stiff matrix would squash into round-off.
+    const shifted = A.map((row, r) => row.map((v, c) => v - (r === c ? eig[0].re : 0)));
+    let P = shifted;
+    for (let j = 1; j <= k0; j++) {
+      const svd = new SingularValueDecomposition(new Matrix(P), { autoTranspose: false });
+      const sv = svd.diagonal;
+      const top = Math.max(...sv);
+      const small = sv.map((v, i) => ({ v, i })).filter((x) => x.v <= 1e-9 * top).length;
+      if (small >= k0 || j === k0) {
+        const Vv = svd.rightSingularVectors.to2DArray();
+        const order = sv.map((_, i) => i).sort((x, y) => sv[x] - sv[y]).slice(0, k0);
+        return order.map((jj) => Vv.map((row) => row[jj]));
+      }
+      P = matmul(shifted, P, n);
+    }
+  }
   let P = identity(n);
   const seen = new Set<number>();
   eig.forEach((l, i) => {

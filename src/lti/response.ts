@@ -73,7 +73,7 @@ export function particularOf(b: Block, forcings: Forcing[], horizon: number, ser
   const quasi: VQuasi[] = [];
   const at0 = new Array<number>(k).fill(0);
   for (const f of forcings) {
-    const vecs = clusterParticular(b, f);
+    const vecs = clusterParticular(b, f, horizon);
     quasi.push({ kappa: f.s, vecs });
     vecs[0]?.forEach((v, i) => (at0[i] += v.re));
   }
@@ -123,14 +123,53 @@ function scalarParticular(lambda: C, p: number, s: C, G: C, span: number, series
   return { kappa: s, coefs };
 }
 
+/**
+ * A source at (or near) the rate of a cluster's poles, e.g. a constant current charging two
+ * capacitors that nothing discharges: with N = T − sI (small or nilpotent there),
+ *   ∫0^τ e^(T(τ−u))·g·u^p·e^(su) du = e^(sτ)·Σ_j Nʲ·g·τ^(j+p+1)·p!/(j+p+1)!
+ * (the beta integral ∫0^τ (τ−u)ʲ·u^p du = τ^(j+p+1)·j!·p!/(j+p+1)!), summed until negligible.
+ */
+function clusterResonant(b: Block, f: Forcing, horizon: number): C[][] {
+  const k = b.T.length;
+  const Nre = b.T.map((row, i) => row.map((v, j) => v - (i === j ? f.s.re : 0)));
+  const Nim = f.s.im;
+  // N·v for complex v, N = Nre − j·Nim·I
+  const apply = (v: C[]): C[] =>
+    Nre.map((row, i) => {
+      let re = 0;
+      let im = 0;
+      for (let j = 0; j < k; j++) {
+        re += row[j] * v[j].re;
+        im += row[j] * v[j].im;
+      }
+      return c(re + Nim * v[i].im, im - Nim * v[i].re);
+    });
+  const vecs: C[][] = Array.from({ length: f.power + 1 }, () => b.T.map(() => c(0)));
+  let v = f.g.slice();
+  let denom = 1; // (j+p+1)!/p!, built up as j grows
+  const size0 = Math.max(...v.map((z) => Math.hypot(z.re, z.im)), 1e-300);
+  for (let j = 0; j < 80; j++) {
+    denom = j === 0 ? factorialRatio(f.power) : denom * (j + f.power + 1);
+    vecs.push(v.map((z) => cscale(z, 1 / denom)));
+    v = apply(v);
+    const size = Math.max(...v.map((z) => Math.hypot(z.re, z.im)));
+    if (size === 0 || (j >= k && (size * horizon ** (j + 1)) / (denom * (j + f.power + 2)) < 1e-18 * size0)) break;
+  }
+  return vecs;
+}
+
+/** (p+1)!/p! = p + 1: the first denominator of the resonant series. */
+function factorialRatio(p: number): number {
+  return p + 1;
+}
+
 /** (sI − T)·q_p = g;  (sI − T)·q_j = −(j+1)·q_(j+1). */
-function clusterParticular(b: Block, f: Forcing): C[][] {
+function clusterParticular(b: Block, f: Forcing, horizon: number): C[][] {
   const k = b.T.length;
   const radius = Math.max(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
   const near = Math.min(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
-  if (near <= 1e-9 * Math.max(radius, Math.hypot(f.s.re, f.s.im), 1e-300)) {
-    throw new Error('a source drives a repeated pole of the circuit at exactly its own rate; this case is not supported');
-  }
+  if (near * horizon < 1) return clusterResonant(b, f, horizon);
+  void radius;
   // real 2k×2k form of (sI − T) acting on [Re q; Im q]
   const M: number[][] = [];
   for (let i = 0; i < k; i++) {

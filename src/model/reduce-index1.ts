@@ -33,8 +33,13 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     AaaInvAad = a.length ? solveSquare(Aaa, Aad) : [];
     AaaInvBa = a.length && m ? solveSquare(Aaa, Ba) : a.map(() => new Array<number>(m).fill(0));
     const Ada = sub(A, d, a);
-    const Fr = sub(A, d, d).map((row, i) => row.map((v, j) => v - (a.length ? dotCol(Ada[i], AaaInvAad, j) : 0)));
-    const Gr = d.map((i, r) => B[i].map((v, j) => v - (a.length ? dotCol(Ada[r], AaaInvBa, j) : 0)));
+    // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
+    // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
+    const chop = (v: number, mag: number) => (Math.abs(v) <= 1e-13 * mag ? 0 : v);
+    const Fr = sub(A, d, d).map((row, i) =>
+      row.map((v, j) => (a.length ? chop(v - dotCol(Ada[i], AaaInvAad, j), Math.abs(v) + dotColAbs(Ada[i], AaaInvAad, j)) : v)),
+    );
+    const Gr = d.map((i, r) => B[i].map((v, j) => (a.length ? chop(v - dotCol(Ada[r], AaaInvBa, j), Math.abs(v) + dotColAbs(Ada[r], AaaInvBa, j)) : v)));
     F = d.length ? solveSquare(Edd, Fr) : [];
     G0 = d.length && m ? solveSquare(Edd, Gr) : d.map(() => new Array<number>(m).fill(0));
   } catch {
@@ -50,6 +55,12 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
   });
   void matmul;
   return { Zp, Zu: [Zu0], F, G: [G0], index1: { d, Edd } };
+}
+
+function dotColAbs(row: number[], M: Mat, j: number): number {
+  let s = 0;
+  for (let k = 0; k < row.length; k++) s += Math.abs(row[k] * M[k][j]);
+  return s;
 }
 
 function dotCol(row: number[], M: Mat, j: number): number {

@@ -95,10 +95,12 @@ function propagator(Mb: number[][], rate: number, tau: number): Propagator {
       },
     };
   }
+  if (!Number.isFinite(steps)) throw new Error(`cross-check: the state matrix is not finite (rate ${rate})`);
   let R: number[][] | null = null;
   let base = E;
-  for (let k = steps; k > 0; k >>= 1) {
-    if (k & 1) R = R ? matmul(R, base) : base;
+  // plain arithmetic, not bit operations: the step count can exceed 2³¹
+  for (let k = steps; k > 0; k = Math.floor(k / 2)) {
+    if (k % 2 === 1) R = R ? matmul(R, base) : base;
     if (k > 1) base = matmul(base, base);
   }
   const P = R!;

@@ -1,5 +1,6 @@
 import type { Circuit, Part, Watch, Waveform } from '../circuit/circuit.js';
 import { GROUND } from '../circuit/circuit.js';
+import { InputError } from '../diagnostics.js';
 import { currentProbe, emptyProbe, voltageProbe } from '../model/descriptor.js';
 import { type Model, buildModel } from '../model/build.js';
 import type { Readout } from '../model/state-space.js';
@@ -119,6 +120,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const before = valuesBeforeStart(circuit, pre.circuit, prepare(pre.circuit).model);
   if (before.note) notices.push(before.note);
 
+  const approx = new Map<string, number>();
   const pieces: Piece[][] = circuit.watches.map(() => []);
   const partPieces: Piece[][] = circuit.parts.flatMap(() => [[], []]);
   const events: EventReport[] = [];
@@ -130,8 +132,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   eps.forEach((ep, k) => {
     const P = prepare(ep.circuit);
     const { ss } = P.model;
-    const schedule = buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []);
+    const schedule = scheduleOrInputError(circuit, ss.inputs, () => buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []));
     if (k === 0) for (const o of schedule.outside) notices.push(`a source impulse at t = ${o.t} s lies outside the analysis span and is ignored`);
+    schedule.approximation.forEach((err, j) => {
+      if (err > 0) approx.set(ss.inputs[j], Math.max(approx.get(ss.inputs[j]) ?? 0, err));
+    });
     for (const n of ep.isolated) if (k === 0 || eps[k - 1].isolated.indexOf(n) < 0) notices.push(`from t = ${ep.t0} s node ${n} is cut off by an open switch; it reads as 0 V`);
     const iv0 = schedule.intervals[0];
     const u0 = inputValues(iv0, ss.m, 0);
@@ -193,6 +198,12 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     }
   });
 
+  for (const [source, err] of approx) {
+    const unit = circuit.parts.find((p) => p.name === source)?.kind === 'current-source' ? 'A' : 'V';
+    notices.push(
+      `the expression of ${source} has no closed form: it is replaced by straight lines between adaptively chosen points, off by at most ${err.toPrecision(2)} ${unit}; the response to those lines is exact, so every result carries at most that input error times the path's gain`,
+    );
+  }
   const times = new Float64Array(samples);
   for (let k = 0; k < samples; k++) times[k] = (span * k) / (samples - 1);
   // one entry per distinct switch configuration, in order of first use; the headline states,
@@ -249,6 +260,32 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   }
   const configs = configurations.map(({ circuit: _c, ...rest }) => rest);
   return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, configurations: configs, discharge, periodic: steady, crossCheck, notices };
+}
+
+/**
+ * Source values the numbers cannot carry (an expression that overflows, amplitudes beyond
+ * 1e100) are input errors located at the source, not internal failures.
+ */
+function scheduleOrInputError(circuit: Circuit, inputs: string[], build: () => InputSchedule): InputSchedule {
+  const fail = (name: string | undefined, why: string): never => {
+    const part = circuit.parts.find((p) => p.name === name) ?? circuit.parts.find((p) => p.waveform);
+    throw new InputError([{ severity: 'error', message: why, loc: part?.loc, hint: 'keep source values and rates within ±1e100 in SI units' }]);
+  };
+  let schedule: InputSchedule;
+  try {
+    schedule = build();
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    return fail(undefined, `a source cannot be evaluated: ${(e as Error).message}`);
+  }
+  for (const iv of schedule.intervals) {
+    for (const k of iv.components) {
+      if (!(Math.abs(k.re) <= 1e100 && Math.abs(k.im) <= 1e100 && Math.abs(k.sigma) <= 1e100 && Math.abs(k.omega) <= 1e100)) {
+        fail(inputs[k.input], `source ${inputs[k.input]} reaches values or rates beyond what can be computed (at t = ${iv.t0} s)`);
+      }
+    }
+  }
+  return schedule;
 }
 
 function fmt(v: number): string {

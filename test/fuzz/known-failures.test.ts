@@ -1,7 +1,6 @@
 /**
  * Failures the random-circuit property (circuits.fuzz.test.ts) found, shrunk by fast-check to small
- * circuits. Each is written as the property it breaks and marked `it.fails`: the test passes while
- * the bug is there and turns red when it is fixed, so whoever fixes it removes the `.fails`.
+ * circuits, each written as the property it once broke (all fixed now; they stay as regression tests).
  * Source of the expectations: the same properties as circuits.fuzz.test.ts (a result or an
  * InputError; the in-run cross-check; Tellegen's energy balance, a textbook result from memory).
  */
@@ -20,7 +19,7 @@ const run = (text: string) => {
 };
 
 describe('known failures found by the circuit fuzzer', () => {
-  it.fails('a current source stepping from 0 A to 0 A beside two inductors to gnd: TypeError instead of a result', () => {
+  it('a current source stepping from 0 A to 0 A beside two inductors to gnd: a result', () => {
     const text = `capacitor C1 gnd -> n1 1e-3F
 resistor R2 gnd -> n2 5.5e4ohm
 resistor R3 gnd -> n3 1e0ohm
@@ -34,7 +33,7 @@ samples 201
     expect(() => run(text)).not.toThrow();
   });
 
-  it.fails('a sine source of zero amplitude with a switch opening at 1 ms: the cross-check fails', () => {
+  it('a sine source of zero amplitude with a switch opening at 1 ms: the cross-check passes', () => {
     const text = `inductor L1 gnd -> n1 1.2e0H
 resistor R2 gnd -> n2 1e0ohm
 resistor R3 gnd -> n3 1.3e2ohm
@@ -55,7 +54,7 @@ span 1e-2
     expect(run(text)?.crossCheck.passed).toBe(true);
   });
 
-  it.fails('an inductor shorted through a switch and a voltage source: energy does not balance', () => {
+  it('an inductor shorted through a switch and a voltage source: energy balances', () => {
     const text = `inductor L1 gnd -> n1 1e0H
 resistor R2 gnd -> n2 1e0ohm
 inductor L3 gnd -> n3 4.5e-2H
@@ -75,13 +74,13 @@ span 2.1e-5
   // that is not an InputError (exit 1 instead of 2)
   const RC = 'voltage-source V1 in -> gnd step to 12V at 1us\nresistor R1 in -> out 1k\ncapacitor C1 out -> gnd 1uF\nwatch node out\nsamples 51\n';
   for (const [what, line] of [
-    ['a huge but finite source expression: singular matrix', 'current-source I2 gnd -> out expression "1e306"'],
-    ['a resistance of 1e-320 ohm (conductance overflows): eig non-finite entry', 'resistor R2 out -> gnd 1e-320'],
-    ['a span of 1e300 s: TypeError', 'span 1e300'],
-    ['a sine at 1e300 Hz: TypeError', 'current-source I2 gnd -> out sine amplitude 1A freq 1e300Hz'],
-    ['an expression that overflows after t = 0: plain Error', 'current-source I2 gnd -> out expression "exp(t*1e6)"'],
+    ['a resistance of 1e-320 ohm (conductance overflows)', 'resistor R2 out -> gnd 1e-320'],
+    ['a span of 1e300 s', 'span 1e300'],
+    ['a sine at 1e300 Hz', 'current-source I2 gnd -> out sine amplitude 1A freq 1e300Hz'],
+    ['a huge but finite source expression', 'current-source I2 gnd -> out expression "1e306"'],
+    ['an expression that overflows after t = 0', 'current-source I2 gnd -> out expression "exp(t*1e6)"'],
   ] as const) {
-    it.fails(`${what}`, () => {
+    it(`${what}: a result or an input error, nothing else`, () => {
       expect(() => run(RC + line + '\n')).not.toThrow();
     });
   }
