@@ -21,6 +21,8 @@ export interface Model {
    * inputs (and their slopes) just after it.
    */
   initialState(before: Map<string, number>, u0: Vec, du0: Vec): InitialState;
+  /** relative residual of the reduced equations in the circuit equations (0 for the index-one path) */
+  reductionError: number;
   /** every capacitor voltage and inductor current, as read-outs (for state hand-over) */
   storage: { part: Part; kind: StateVariable['kind']; readout: Readout }[];
 }
@@ -38,17 +40,54 @@ export { ReductionError };
 export function buildModel(circuit: Circuit): Model {
   const d = buildDescriptor(circuit);
   const m = d.inputs.length;
-  const s = variableScales(d);
-  // Scaled descriptor: z = S·z̃, rows multiplied by S as well (symmetric equilibration).
-  const Es = d.E.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
-  const As = d.A.map((row, i) => row.map((v, j) => v * s[i] * s[j]));
-  const Bs = d.B.map((row, i) => row.map((v) => v * s[i]));
   // the index-one Schur complement on the circuit's own variables when it applies (exact zeros
-  // stay zeros), otherwise the general rank-revealing reduction on the equilibrated system
+  // stay zeros), otherwise the general rank-revealing reduction on an equilibrated system. Rank
+  // decisions depend on the scaling; a few are tried in turn (capacitance-based, conductance-based,
+  // none) before the circuit is declared to have no unique solution.
   const direct = reduceIndexOne(d.E, d.A, d.B, d.nz, m);
-  const red = direct
-    ? { ...direct, Zp: direct.Zp.map((row, i) => row.map((v) => v / s[i])), Zu: direct.Zu.map((Z) => Z.map((row, i) => row.map((v) => v / s[i]))) }
-    : reduceDescriptor(Es, As, Bs, d.nz, m);
+  let s: number[] = [];
+  let Es: Mat = [];
+  let As: Mat = [];
+  let red: ReturnType<typeof reduceDescriptor> | null = null;
+  let lastError: unknown = null;
+  const attempts = direct
+    ? [{ scales: variableScales(d), tol: 1e-10 }]
+    : [variableScales(d), conductanceScales(d), d.E.map(() => 1)].flatMap((sc) => [1e-10, 1e-7, 1e-13].map((tol) => ({ scales: sc, tol })));
+  // the attempt whose substitution best satisfies the circuit equations wins
+  let best: { red: ReturnType<typeof reduceDescriptor>; s: number[]; Es: Mat; As: Mat; residual: number } | null = null;
+  for (const { scales, tol } of attempts) {
+    const sc = scales;
+    const EsC = d.E.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
+    const AsC = d.A.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
+    const BsC = d.B.map((row, i) => row.map((v) => v * sc[i]));
+    if (direct) {
+      best = {
+        red: { ...direct, Zp: direct.Zp.map((row, i) => row.map((v) => v / sc[i])), Zu: direct.Zu.map((Z) => Z.map((row, i) => row.map((v) => v / sc[i]))) },
+        s: sc,
+        Es: EsC,
+        As: AsC,
+        residual: 0,
+      };
+      break;
+    }
+    try {
+      const r = reduceDescriptor(EsC, AsC, BsC, d.nz, m, tol);
+      const residual = reductionResidual(EsC, AsC, BsC, r);
+      if (!best || residual < best.residual) best = { red: r, s: sc, Es: EsC, As: AsC, residual };
+      if (residual <= 1e-12) break;
+    } catch (e) {
+      if (!(e instanceof ReductionError)) throw e;
+      lastError = e;
+    }
+  }
+  // a reduction whose substitution does not satisfy the circuit equations came from wrong rank
+  // decisions: refuse it rather than compute a wrong answer
+  if (!best || best.residual > 1e-6) throw lastError ?? new ReductionError('the circuit equations could not be reduced accurately');
+  red = best.red;
+  s = best.s;
+  Es = best.Es;
+  As = best.As;
+  const reductionError = best.residual;
   const np = cols(red.Zp, 0);
   // z = S·Zp·p + Σ S·Zu[j]·u^(j)
   const SZp = red.Zp.map((row, i) => row.map((v) => v * s[i]));
@@ -116,7 +155,7 @@ export function buildModel(circuit: Circuit): Model {
       : consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0, du0);
   const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
 
-  return { ss, readout, descriptor: d, initialState, storage };
+  return { ss, readout, descriptor: d, initialState, storage, reductionError };
 }
 
 interface PhysicalQuantity {
@@ -138,6 +177,66 @@ function physicalQuantities(circuit: Circuit, d: Descriptor): PhysicalQuantity[]
  * Symmetric scaling of the unknowns so that capacitances of picofarads and farads, or
  * conductances of nanosiemens and kilosiemens, meet rank decisions on equal terms.
  */
+/**
+ * How far z = Zp·p + Σ Zu[j]·u^(j) with p' = F·p + Σ G[j]·u^(j) is from satisfying E·z' = A·z + B·u:
+ * the largest coefficient of E·Zp·F − A·Zp and of E·Zp·G[j] + E·Zu[j−1] − A·Zu[j] − [j = 0]·B,
+ * relative to the size of the products involved.
+ */
+function reductionResidual(E: Mat, A: Mat, B: Mat, r: ReturnType<typeof reduceDescriptor>): number {
+  const np = cols(r.Zp, 0);
+  const m = cols(B, 0);
+  const EZp = matmul(E, r.Zp, np);
+  const AZp = matmul(A, r.Zp, np);
+  // sizes as products of norms (a backward-error scale): round-off in a product that cancels to
+  // nothing must not count as a residual of order one
+  let worst = 0;
+  const nE = maxAbsMat(E);
+  const nA = maxAbsMat(A);
+  const nZp = maxAbsMat(r.Zp);
+  const judge = (res: Mat, size: number) => {
+    worst = Math.max(worst, maxAbsMat(res) / Math.max(size, 1e-300));
+  };
+  if (np) {
+    const EZpF = matmul(EZp, r.F, np);
+    judge(add(EZpF, AZp, -1), nE * nZp * maxAbsMat(r.F) + nA * nZp);
+  }
+  const order = Math.max(r.G.length, r.Zu.length + 1);
+  for (let j = 0; j < order; j++) {
+    const parts: Mat[] = [];
+    let size = 0;
+    let res = zeros(E.length, m);
+    if (np && j < r.G.length) {
+      parts.push(matmul(EZp, r.G[j], m));
+      size += nE * nZp * maxAbsMat(r.G[j]);
+    }
+    if (j > 0 && j - 1 < r.Zu.length) {
+      parts.push(matmul(E, r.Zu[j - 1], m));
+      size += nE * maxAbsMat(r.Zu[j - 1]);
+    }
+    if (j < r.Zu.length) {
+      parts.push(matmul(A, r.Zu[j], m).map((row) => row.map((v) => -v)));
+      size += nA * maxAbsMat(r.Zu[j]);
+    }
+    if (j === 0) {
+      parts.push(B.map((row) => row.map((v) => -v)));
+      size += maxAbsMat(B);
+    }
+    for (const q of parts) res = add(res, q);
+    if (parts.length) judge(res, size);
+  }
+  return worst;
+}
+
+/** Scaling by the conductance at each unknown first, the capacitance (or inductance) second. */
+function conductanceScales(d: Descriptor): number[] {
+  return Array.from({ length: d.nz }, (_, i) => {
+    const a = Math.abs(d.A[i][i]);
+    if (a > 0) return 1 / Math.sqrt(a);
+    const e = Math.abs(d.E[i][i]);
+    return e > 0 ? 1 / Math.sqrt(e) : 1;
+  });
+}
+
 function variableScales(d: Descriptor): number[] {
   return Array.from({ length: d.nz }, (_, i) => {
     const e = Math.abs(d.E[i][i]);
@@ -187,7 +286,16 @@ function consistentInitial(
   const N2 = rankSplit(cons, kNE, 1e-10, 1).nullSpace;
   const imp = matmul(matmul(As, NE, kNE), N2, cols(N2, 0)).map((row) => row.map((v) => -v));
   const lhs = Es.length ? matmul(Es, Zp, np).map((row, i) => [...row, ...imp[i]]) : [];
-  const sol = pinvSolve(lhs, rhs.map((v) => [v]), np + cols(N2, 0));
+  // columns equilibrated before the least-squares solve: the unknowns (states and impulses) differ
+  // in size by many orders, and a small but genuine singular value must not be cut off
+  const nc = np + cols(N2, 0);
+  const colScale = Array.from({ length: nc }, (_, j) => {
+    let sq = 0;
+    for (const row of lhs) sq += row[j] * row[j];
+    return sq > 0 ? 1 / Math.sqrt(sq) : 1;
+  });
+  const scaledLhs = lhs.map((row) => row.map((v, j) => v * colScale[j]));
+  const sol = pinvSolve(scaledLhs, rhs.map((v) => [v]), nc, 1e-14).map((r, j) => [r[0] * colScale[j]]);
   const p = sol.slice(0, np).map((r) => r[0]);
   const fitted = matvec(lhs, sol.map((r) => r[0]));
   const residual = Math.max(0, ...fitted.map((v, i) => Math.abs(v - rhs[i]))) / Math.max(1e-300, ...rhs.map(Math.abs), 1e-300);

@@ -28,7 +28,7 @@ export interface Reduction {
 
 export class ReductionError extends Error {}
 
-export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number): Reduction {
+export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number, relTol = 1e-10): Reduction {
   let Zp: Mat = Array.from({ length: nz }, (_, i) => Array.from({ length: nz }, (_, j) => (i === j ? 1 : 0)));
   let np = nz;
   let Zu: Mat[] = [zeros(nz, m)];
@@ -39,20 +39,25 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
   for (let iter = 0; iter <= nz + 1; iter++) {
     const M = matmul(E, Zp, np);
     const R = residualInputs(E, A, B, Zu, m);
-    const split = rankSplit(M, np, 1e-10, scaleE);
+    const split = rankSplit(M, np, relTol, scaleE);
     const U2t = transpose(split.leftNull, nz - split.rank);
     const AZp = matmul(A, Zp, np);
     const Kalg = matmul(U2t, AZp, np);
-    const ks = rankSplit(Kalg, np, 1e-10, scaleA);
+    const ks = rankSplit(Kalg, np, relTol, scaleA);
     if (ks.rank === 0) {
       requireZero(R.map((Rj) => matmul(U2t, Rj, m)), 'the circuit equations constrain the sources themselves', inputScale(R, scaleA));
       if (split.rank !== np) throw new ReductionError('the circuit equations do not determine every voltage and current');
       const U1t = transpose(split.range, split.rank);
       const square = matmul(U1t, M, np);
       const left = (X: Mat) => solveSquare(square, matmul(U1t, X, cols(X, m)));
-      // rates below 1e-13 of the fastest coupling in the (equilibrated) circuit are round-off of
-      // cancelling terms: an inductor straight across a source has no decay at all
-      const F = left(AZp).map((row) => row.map((v) => (Math.abs(v) < 1e-13 * scaleA ? 0 : v)));
+      // A rate that is round-off of the terms it was computed from is an exact zero (an inductor
+      // straight across a source, a capacitor on a node nothing else touches): compare each entry
+      // with the same product taken in absolute values, |(U1ᵀ·M)⁻¹|·|U1ᵀ|·|A|·|Zp|.
+      const abs = (X: Mat) => X.map((row) => row.map(Math.abs));
+      const inv = solveSquare(square, square.map((_, i) => square.map((__, j) => (i === j ? 1 : 0))));
+      const mag = matmul(abs(inv), matmul(abs(U1t), matmul(abs(A), abs(Zp), np), np), np);
+      // (also below 1e-13 of the fastest coupling: slower than any eigen-solver can resolve next to it)
+      const F = left(AZp).map((row, i) => row.map((v, j) => (Math.abs(v) <= Math.max(1e-12 * mag[i][j], 1e-13 * scaleA) ? 0 : v)));
       const G = R.map((Rj) => left(Rj));
       return { Zp, Zu, F, G };
     }
@@ -70,8 +75,8 @@ export function reduceDescriptor(E: Mat, A: Mat, B: Mat, nz: number, m: number):
     }
     // round-off below 1e-14 of the (equilibrated) matrices' scale is no coupling: without this, a
     // derivative-of-source term of size 1e-32 would survive as a spurious Dirac read-out
-    const floor = 1e-14 * Math.max(scaleA, scaleE / 1e3, maxAbs(B));
-    Zu = trimTrailingZero(newZu.map((Z) => Z.map((row) => row.map((v) => (Math.abs(v) < floor ? 0 : v)))));
+    const reference = Math.max(...newZu.map(maxAbs));
+    Zu = trimTrailingZero(newZu.map((Z) => Z.map((row) => row.map((v) => (Math.abs(v) < 1e-14 * reference ? 0 : v)))));
     const Nk = ks.nullSpace;
     np = np - ks.rank;
     Zp = matmul(Zp, Nk, np);
@@ -113,7 +118,6 @@ function requireZero(blocks: Mat[], why: string, scale: number): void {
   for (const b of blocks) {
     const big = maxAbs(b);
     if (big > 1e-9 * scale) {
-      if (process.env.RINGDOWN_DEBUG) console.error('requireZero', big, scale);
       throw new ReductionError(why);
     }
   }

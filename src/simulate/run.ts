@@ -85,6 +85,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let p = prepared.get(c);
     if (!p) {
       const model = buildModel(c);
+      if (model.reductionError > 1e-12) {
+        notices.push(
+          `the circuit's equations could be reduced only to a relative residual of ${model.reductionError.toExponential(1)} (parts of very different size in loops of capacitors and sources); results are accurate to about that, not to round-off`,
+        );
+      }
       const partReadouts = opts.partSignals === false ? [] : circuit.parts.flatMap((part) => [
         readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-voltage', part: part.name } }),
         readoutFor(circuit, c, model, { ...pseudoWatch, target: { kind: 'part-current', part: part.name } }),
@@ -235,9 +240,16 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     for (const v of s.values) m = Math.max(m, Math.abs(v));
     return m;
   });
+  // ... and never below the largest voltage (current) anywhere in the circuit at the starts of its
+  // intervals: a watched node that only round-off reaches is judged against the circuit's scale
+  const circuitScale = { V: 0, A: 0 };
+  partPieces.forEach((ps, q) => {
+    const unit = q % 2 === 0 ? 'V' : 'A';
+    for (const p of ps) circuitScale[unit] = Math.max(circuitScale[unit], Math.abs(termsValue(p.terms, 0)));
+  });
   let maxRel = 0;
   signals.forEach((s, w) => {
-    const scale = Math.max(...signals.map((o, v) => (o.watch.unit === s.watch.unit ? peakOf[v] : 0)));
+    const scale = Math.max(circuitScale[s.watch.unit], ...signals.map((o, v) => (o.watch.unit === s.watch.unit ? peakOf[v] : 0)));
     const rel = scale > 0 ? absErr[w] / scale : absErr[w];
     maxRel = Math.max(maxRel, Number.isNaN(rel) ? Infinity : rel);
   });
