@@ -84,4 +84,62 @@ span 2.1e-5
       expect(() => run(RC + line + '\n')).not.toThrow();
     });
   }
+
+  // Still open: a loop of a 1.1 pF and a 0.41 nF capacitor with a voltage source, next to 26 nH and
+  // 96 mH inductors. The general (index-two) reduction reaches only a relative residual of about
+  // 2e-7, which the run states in a notice, but the energy balance is off by about 1e-4. This test
+  // passes while that is so and turns red when it is fixed (then drop `.fails`).
+  it.fails('a pF/nF capacitor loop with a source beside nH and 100 mH inductors: energy balances to 1e-6', () => {
+    const text = `resistor R1 gnd -> n1 7.5e5ohm
+inductor L2 n1 -> n2 2.6e-8H
+resistor R3 n1 -> n3 4.6e0ohm
+resistor R4 n1 -> n4 9.3e-2ohm
+inductor L5 n4 -> n5 1.6e-6H
+resistor R6 n2 -> n6 6.6e-1ohm
+resistor R7 n5 -> n7 4e2ohm
+capacitor C8 n2 -> n8 9.2e-9F
+resistor R9 n8 -> n9 5.5e2ohm
+resistor R10 n2 -> n10 6.4e1ohm
+capacitor C11 n4 -> n9 1.1e-12F
+capacitor C12 n8 -> n9 4.1e-10F
+inductor L13 gnd -> n3 1e-2H
+inductor L14 n2 -> n10 6.9e-7H
+inductor L15 n3 -> n4 6.4e-7H
+resistor R16 n4 -> n7 9.7e-1ohm
+resistor R17 gnd -> n6 5.8e2ohm
+inductor L18 n8 -> n9 9.6e-2H
+voltage-source V1 n8 -> n4 32V
+voltage-source V2 n10 -> gnd 5V
+switch S1 n6 -> n7 on 1.4e0ohm off 8.3e5ohm opens 8.5e-3
+watch node n9
+samples 201
+start rest
+span 1e-4
+`;
+    const r = run(text)!;
+    expect(r.crossCheck.passed).toBe(true);
+    expect(energyBalance(r.circuit, r.parts!).residual).toBeLessThan(1e-6);
+  });
+
+  // Still open: inductors whose only path runs through a 17 MΩ open switch next to a 1.3 pF
+  // capacitor: the general reduction loses two inductor states. The in-run cross-check catches it
+  // (the run reports the failure, exit code 3), so the answer is not silently wrong.
+  it.fails('inductors behind a 17 MΩ open switch beside 1.3 pF: the cross-check passes', () => {
+    const text = `inductor L1 gnd -> n1 5.7e-1H
+capacitor C2 n1 -> n2 5.9e-7F
+capacitor C3 gnd -> n3 1.3e-12F
+resistor R4 n1 -> n4 3.9e-2ohm
+inductor L5 n3 -> n5 1.2e0H
+resistor R6 gnd -> n6 1.3e1ohm
+inductor L7 n6 -> n7 5.6e-5H
+inductor L8 n2 -> n8 9.3e0H
+inductor L9 gnd -> n9 1.4e-1H
+current-source I1 n3 -> n9 sine amplitude 6A freq 4.6e4Hz phase 130deg at 1.4e-3
+switch S1 n5 -> n9 on 7.1e1ohm off 1.7e7ohm closes 9.8e-4
+watch node n7
+samples 201
+start rest
+`;
+    expect(run(text)!.crossCheck.passed).toBe(true);
+  });
 });
