@@ -103,7 +103,11 @@ export function solveBlockForced(b: Block, xi0: Vec, forcings: Forcing[], horizo
 
 function scalarParticular(lambda: C, p: number, s: C, G: C, span: number, seriesBelow: number): { kappa: C; coefs: C[] } {
   const d = csub(s, lambda);
-  if (cabs(d) * span < seriesBelow) {
+  // seriesBelow < 0 means: as accurate as needed and no more. The closed particular form loses
+  // about ε/(|s − λ|·τ)^(p+1) to cancellation against the free part; keep that below 1e-12 and
+  // use the (longer to read) series only where it would not be.
+  const limit = seriesBelow < 0 ? Math.pow(2.3e-4, 1 / (p + 1)) : seriesBelow;
+  if (cabs(d) * span < limit) {
     // ∫0^τ e^(λ(τ−u))·G·u^p·e^(su) du = G·e^(λτ)·Σ_k d^k τ^(p+k+1) / (k!·(p+k+1))
     const coefs: C[] = new Array(p + 1).fill(c(0));
     let dk = c(1);

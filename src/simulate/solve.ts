@@ -170,9 +170,9 @@ function shapeKey(iv: Interval, tau: number): string {
 }
 
 function makeShape(modal: Modal, beta: Mat, gammas: Vec[], readouts: Readout[], iv: Interval, tau: number): Shape {
-  // series form wherever |s − λ|·τ < 0.1: on short intervals the particular and free parts would
-  // otherwise cancel (relative error ≈ ε/(|s − λ|·τ)^(p+1), below 1e-13 at the threshold for p ≤ 1)
-  const particulars = modal.blocks.map((b) => particularOf(b, forcingsFor(b, beta, iv.components), tau, 0.1));
+  // series form only where the particular and free parts would otherwise cancel beyond 1e-12 on
+  // this interval (see scalarParticular)
+  const particulars = modal.blocks.map((b) => particularOf(b, forcingsFor(b, beta, iv.components), tau, -1));
   const quasiOf = (pt: Particular) => (pt.modes ? pt.modes.flatMap((m) => m.quasi) : pt.cluster!.quasi);
   const readoutTerms = readouts.map((r, w) => {
     const terms: Term[] = [];
