@@ -1,3 +1,4 @@
+import { describeStructure } from '../circuit/structure.js';
 import type { Circuit, Watch, WatchTarget } from '../circuit/circuit.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { heading, table } from './table.js';
@@ -77,6 +78,19 @@ export function formatCheck(circuit: Circuit): string {
   const params = Object.entries(circuit.params);
   if (params.length > 0) out.push(`  parameters: ${params.map(([k, v]) => `${k} = ${formatSIExact(v, '')}`).join(', ')}`);
   out.push('');
+
+  // the state count from the circuit's graph, with each capacitor loop and inductor cut-set that
+  // takes a state away explained (at t = 0 and, with switches, after the last event)
+  const times = circuit.parts.some((p) => p.kind === 'switch') ? [0, Infinity] : [0];
+  for (const at of times) {
+    const st = describeStructure(circuit, { at });
+    out.push(...heading(at === 0 ? (times.length > 1 ? 'States (switches as at t = 0)' : 'States') : 'States (switches as after the last event)'));
+    out.push(`  ${st.summary}`);
+    if (st.stateNames.length > 0) out.push(`  state variables: ${st.stateNames.join(', ')}`);
+    for (const loop of st.capacitorLoops) out.push(`  - loop ${loop.parts.join(' → ')}: ${loop.explanation}`);
+    for (const cut of st.inductorCutSets) out.push(`  - cut-set ${cut.parts.join(', ')}: ${cut.explanation}`);
+    out.push('');
+  }
 
   const warnings = circuit.warnings ?? [];
   out.push(...heading('Warnings'));
