@@ -17,3 +17,4 @@ export { riseTime, type RiseTime } from './rise.js';
 export { overshootPercent } from './overshoot.js';
 export { settlingTime, bandHalfWidth } from './settling.js';
 export { steadyStateLimit } from './limit.js';
+export { delay50, ringing, maxSlope, averageAndRms, lastIntervalTerms, type WeightedTerm } from './shape.js';

@@ -6,6 +6,7 @@ import { keepsSwinging } from './repeating.js';
 import { riseTime } from './rise.js';
 import { bandHalfWidth, settlingTime } from './settling.js';
 import { buildTrack, endValue, startValue, type Track } from './track.js';
+import { averageAndRms, delay50, maxSlope, ringing, WEIGHT_FLOOR } from './shape.js';
 import { hasTransition } from './transition.js';
 
 /**
@@ -22,13 +23,19 @@ import { hasTransition } from './transition.js';
  * - overshootPct, riseTime and settlingTime are all null when the signal keeps swinging to the end
  *   of the span (see `isPeriodicSignal`): it makes no single transition.
  *
+ * - delay50: first time at 50 % of the transition, from the start of the span (null as riseTime);
+ * - ringingHz, logDecrement: from the slowest-decaying oscillatory term of the last interval
+ *   (see `ringing` in shape.ts); maxSlope: largest |dy/dt|; average, rms: exact integrals over
+ *   the span divided by it. These need the closed form: null when `pieces` is empty.
+ *
  * `pieces` is the exact closed form; when empty, the samples are used (linear interpolation).
  */
 export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand): Metrics {
   const a = analyse(times, values, pieces, band);
   const { track, initial, final, peak, valley, moving } = a;
+  const shape = shapeMetrics(times, pieces, a);
   if (a.periodic) {
-    return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, riseTime: null, settlingTime: null };
+    return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, riseTime: null, settlingTime: null, ...shape, delay50: null };
   }
   const rise = moving ? riseTime(track, initial, final) : null;
   const half = bandHalfWidth(band, initial, final);
@@ -43,6 +50,24 @@ export function computeMetrics(times: Float64Array, values: Float64Array, pieces
     overshootPct: moving ? overshootPercent(initial, final, peak.value, valley.value) : null,
     riseTime: rise ? rise.duration : null,
     settlingTime: settle,
+    ...shape,
+    delay50: moving ? delay50(track, initial, final) : null,
+  };
+}
+
+/** The closed-form measurements of shape.ts (all but delay50, which needs a transition). */
+function shapeMetrics(times: Float64Array, pieces: readonly Piece[], a: ReturnType<typeof analyse>) {
+  const { start, end } = a.track;
+  const scale = Math.max(Math.abs(a.peak.value), Math.abs(a.valley.value));
+  const floor = Math.max(WEIGHT_FLOOR * (a.peak.value - a.valley.value), 1e-12 * scale);
+  const ring = pieces.length > 0 ? ringing(pieces, start, end, floor) : null;
+  const mean = averageAndRms(pieces, start, end);
+  return {
+    ringingHz: ring ? ring.hz : null,
+    logDecrement: ring ? ring.logDecrement : null,
+    maxSlope: pieces.length > 0 ? maxSlope(pieces, start, end, times) : null,
+    average: mean ? mean.average : null,
+    rms: mean ? mean.rms : null,
   };
 }
 
