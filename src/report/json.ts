@@ -3,6 +3,7 @@ import { runCautions } from '../measure/cautions.js';
 import { runRatings } from '../measure/ratings.js';
 import { runStress } from '../measure/stress.js';
 import type { RunResult } from '../simulate/result.js';
+import { explainSignal } from './why.js';
 
 /** Identifies the layout of the JSON output; see doc/OUTPUT.md. */
 export const JSON_SCHEMA = 'ringdown-result/1';
@@ -21,14 +22,16 @@ export function resultToJSONValue(result: RunResult): Record<string, unknown> {
 
 /**
  * The whole run result as JSON text (two-space indent, trailing newline), with the part stress
- * figures (`stress`), the rating checks (`ratings`), the safety cautions (`cautions`) and the
- * transfer functions (`transfers`) added; `discharge` and `periodic` are always present (empty
- * list, null) so that readers need not test for them.
+ * figures (`stress`), the rating checks (`ratings`), the safety cautions (`cautions`), the
+ * transfer functions (`transfers`) and each trace's one-line explanation (`traces[].why`) added;
+ * `discharge` and `periodic` are always present (empty list, null) so that readers need not test
+ * for them.
  */
 export function formatJSON(result: RunResult): string {
   const value = {
     schema: JSON_SCHEMA,
     ...result,
+    traces: result.traces.map((t) => ({ ...t, why: explainSignal(t, result.modes, result.times[0] ?? 0, result.times[result.times.length - 1] ?? 0) })),
     discharge: result.discharge ?? [],
     periodic: result.periodic ?? null,
     stress: runStress(result),

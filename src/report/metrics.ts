@@ -28,9 +28,11 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
     ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
     ['overshoot', m.overshootPct === null ? none : `${percent(m.overshootPct)} %`],
     [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
+    ...(m.delay50 === undefined ? [] : [['50 % delay', m.delay50 === null ? none : t(m.delay50)]]),
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];
-  if (periodic) rows.splice(rows.length - 3, 3, ['overshoot, rise, settling', 'no single transition (periodic)']);
+  if (periodic) rows.splice(rows.length - (m.delay50 === undefined ? 3 : 4), m.delay50 === undefined ? 3 : 4, ['overshoot, rise, delay, settling', 'no single transition (periodic)']);
+  rows.push(...shapeRows(m, unit, v, t));
   const lines = table(rows, '    ');
   if (periodic) return lines;
   if (limit !== null && !m.finalIsLimit) {
@@ -43,4 +45,27 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
     }
   }
   return lines;
+}
+
+/**
+ * The closed-form shape measurements (when the run has them): ringing from the dominant mode,
+ * the steepest slope, average and RMS over the span.
+ */
+function shapeRows(m: Metrics, unit: string, v: (x: number) => string, t: (x: number) => string): string[][] {
+  const rows: string[][] = [];
+  if (m.ringingHz !== undefined) {
+    rows.push([
+      'ringing (from its mode)',
+      m.ringingHz === null || m.logDecrement === null || m.logDecrement === undefined
+        ? 'none'
+        : `${formatSI(m.ringingHz, 'Hz')}, log decrement ${formatPlain(m.logDecrement, 4)}`,
+    ]);
+  }
+  if (m.maxSlope !== undefined) {
+    rows.push(['steepest slope |dy/dt|', m.maxSlope === null ? 'n/a (no closed form)' : `${formatSI(m.maxSlope.value, `${unit}/s`)} at t = ${t(m.maxSlope.time)}`]);
+  }
+  if (m.average !== undefined && m.rms !== undefined) {
+    rows.push(['average, RMS (span)', m.average === null || m.rms === null ? 'n/a (no closed form)' : `${v(m.average)}, ${m.rms === Infinity ? 'unbounded (impulse)' : v(m.rms)}`]);
+  }
+  return rows;
 }

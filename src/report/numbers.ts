@@ -36,6 +36,13 @@ export function formatNumbers(result: RunResult): string {
     put(`${k}.overshoot_pct`, m.overshootPct);
     put(`${k}.rise_time`, m.riseTime);
     put(`${k}.settling_time`, m.settlingTime);
+    put(`${k}.delay_50`, m.delay50);
+    put(`${k}.ringing_hz`, m.ringingHz);
+    put(`${k}.log_decrement`, m.logDecrement);
+    put(`${k}.max_slope`, m.maxSlope?.value);
+    put(`${k}.max_slope.time`, m.maxSlope?.time);
+    put(`${k}.average`, m.average);
+    put(`${k}.rms`, m.rms);
   }
 
   for (const s of runStress(result)) {

@@ -2,14 +2,15 @@ import type { Circuit } from '../circuit/circuit.js';
 import { evaluatePieces } from '../measure/evaluate.js';
 import { steadyStateLimit } from '../measure/limit.js';
 import { isPeriodicSignal } from '../measure/metrics.js';
-import type { PathResponse, Trace } from '../simulate/result.js';
+import type { Mode, PathResponse, Trace } from '../simulate/result.js';
 import { renderChart } from './chart.js';
 import { formatPieces, formatTerms, impulseItem, unitCoefs } from './formula.js';
 import { metricsLines } from './metrics.js';
 import { formatPlain, formatSI } from './si.js';
 import { heading } from './table.js';
-import { wrapFormula } from './wrap.js';
+import { wrapFormula, wrapWords } from './wrap.js';
 import { termLevels } from './waveform.js';
+import { explainSignal } from './why.js';
 
 export interface SignalSectionOptions {
   chart: boolean;
@@ -63,7 +64,14 @@ function pathLines(trace: Trace, path: PathResponse, circuit: Circuit, span: num
 }
 
 /** Everything about one watched signal: closed form, per-source step responses, metrics, chart. */
-export function signalSection(trace: Trace, circuit: Circuit, times: Float64Array, span: number, opts: SignalSectionOptions): string[] {
+export function signalSection(
+  trace: Trace,
+  circuit: Circuit,
+  times: Float64Array,
+  span: number,
+  opts: SignalSectionOptions,
+  modes: readonly Mode[] = [],
+): string[] {
   const lines = heading(`Signal ${trace.label} (${trace.unit})`);
   lines.push('  closed form:');
   if (trace.pieces.length === 0) lines.push('    not available for this signal (samples only)');
@@ -75,6 +83,9 @@ export function signalSection(trace: Trace, circuit: Circuit, times: Float64Arra
   lines.push('  measurements:');
   const periodic = isPeriodicSignal(times, trace.values, trace.pieces, circuit.analysis.settle);
   lines.push(...metricsLines(trace.metrics, trace.unit, circuit.analysis.settle, steadyStateLimit(trace.pieces), periodic));
+  if (times.length > 0) {
+    lines.push(...wrapWords(`  why: ${explainSignal(trace, modes, times[0]!, times[times.length - 1]!)}`, 80, '       '));
+  }
   if (opts.chart && times.length > 1) {
     const sample = trace.pieces.length > 0 ? (t: number) => evaluatePieces(trace.pieces, t) : interpolate(times, trace.values);
     const start = times[0]!;

@@ -81,7 +81,7 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   if (events.length > 0) out.push(...events, '');
 
   for (const trace of result.traces) {
-    out.push(...signalSection(trace, circuit, result.times, result.span, opts), '');
+    out.push(...signalSection(trace, circuit, result.times, result.span, opts, result.modes), '');
   }
 
   const periodic = periodicSection(result);
