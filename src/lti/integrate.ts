@@ -1,85 +1,135 @@
 import type { Term } from '../simulate/result.js';
-import { type C, c, cadd, cdiv, cexp, cmul, cscale } from './complex.js';
+import type { C } from './complex.js';
 
 /**
  * Exact integrals of closed forms over [0, T]: of one sum of terms, and of the product of two
  * (power v·i, or i²·R). Every term is Re[Σ_k C_k·τ^k·e^(κτ)]; a product of two such terms is again
  * of that form (exponents add, conjugate or not), and ∫0^T τ^k·e^(κτ) dτ has a closed form.
+ * Written with plain numbers (no complex objects): long pulse trains integrate tens of thousands
+ * of pieces.
  */
-interface Mono {
-  coef: C;
-  k: number;
-  kappa: C;
+interface Monos {
+  /** per monomial: coefficient (re, im), power k, exponent (re, im) */
+  cre: number[];
+  cim: number[];
+  k: number[];
+  kre: number[];
+  kim: number[];
 }
 
-function monomials(t: Term): Mono[] {
-  const out: Mono[] = [];
-  const push = (coef: C, k: number, kappa: C) => {
-    if (coef.re !== 0 || coef.im !== 0) out.push({ coef, k, kappa });
+function monomials(terms: Term[]): Monos {
+  const m: Monos = { cre: [], cim: [], k: [], kre: [], kim: [] };
+  const push = (re: number, im: number, k: number, kr: number, ki: number) => {
+    if (re === 0 && im === 0) return;
+    m.cre.push(re);
+    m.cim.push(im);
+    m.k.push(k);
+    m.kre.push(kr);
+    m.kim.push(ki);
   };
-  switch (t.kind) {
-    case 'exp':
-      push(c(t.coef), 0, c(t.lambda));
-      break;
-    case 'poly-exp':
-      t.polyCoefs.forEach((a, k) => push(c(a), k, c(t.lambda)));
-      break;
-    case 'osc':
-      // e^(στ)(a cos ωτ + b sin ωτ) = Re[(a − jb)·e^((σ + jω)τ)]
-      push(c(t.cosCoef, -t.sinCoef), 0, c(t.sigma, t.omega));
-      break;
-    case 'quasi': {
-      const n = Math.max(t.cosPoly.length, t.sinPoly.length);
-      for (let k = 0; k < n; k++) push(c(t.cosPoly[k] ?? 0, -(t.sinPoly[k] ?? 0)), k, c(t.sigma, t.omega));
-      break;
+  for (const t of terms) {
+    switch (t.kind) {
+      case 'exp':
+        push(t.coef, 0, 0, t.lambda, 0);
+        break;
+      case 'poly-exp':
+        t.polyCoefs.forEach((a, k) => push(a, 0, k, t.lambda, 0));
+        break;
+      case 'osc':
+        // e^(στ)(a cos ωτ + b sin ωτ) = Re[(a − jb)·e^((σ + jω)τ)]
+        push(t.cosCoef, -t.sinCoef, 0, t.sigma, t.omega);
+        break;
+      case 'quasi': {
+        const n = Math.max(t.cosPoly.length, t.sinPoly.length);
+        for (let k = 0; k < n; k++) push(t.cosPoly[k] ?? 0, -(t.sinPoly[k] ?? 0), k, t.sigma, t.omega);
+        break;
+      }
     }
   }
-  return out;
+  return m;
+}
+
+// output slots of powerExpIntegralInto (no allocation on the hot path)
+let outRe = 0;
+let outIm = 0;
+
+/** ∫0^T τ^k·e^(κτ) dτ into (outRe, outIm). */
+function powerExpIntegralInto(k: number, kr: number, ki: number, T: number): void {
+  const zr = kr * T;
+  const zi = ki * T;
+  if (Math.hypot(zr, zi) < 1) {
+    // Σ_j κ^j·T^(k+j+1)/(j!·(k+j+1))
+    let sr = 0;
+    let si = 0;
+    let tr = T ** (k + 1);
+    let ti = 0;
+    for (let j = 0; j < 60; j++) {
+      const f = 1 / (k + j + 1);
+      const ar = tr * f;
+      const ai = ti * f;
+      sr += ar;
+      si += ai;
+      if (Math.hypot(ar, ai) <= 1e-18 * Math.hypot(sr, si)) break;
+      // term *= κ·T/(j+1)
+      const nr = (tr * kr - ti * ki) * (T / (j + 1));
+      const ni = (tr * ki + ti * kr) * (T / (j + 1));
+      tr = nr;
+      ti = ni;
+    }
+    outRe = sr;
+    outIm = si;
+    return;
+  }
+  // I_0 = (e^(κT) − 1)/κ,  I_j = (T^j·e^(κT) − j·I_(j−1))/κ
+  const m = Math.exp(zr);
+  const er = m * Math.cos(zi);
+  const ei = m * Math.sin(zi);
+  const den = kr * kr + ki * ki;
+  const div = (ar: number, ai: number) => {
+    outRe = (ar * kr + ai * ki) / den;
+    outIm = (ai * kr - ar * ki) / den;
+  };
+  div(er - 1, ei);
+  for (let j = 1; j <= k; j++) {
+    const tj = T ** j;
+    div(er * tj - j * outRe, ei * tj - j * outIm);
+  }
 }
 
 /** ∫0^T τ^k·e^(κτ) dτ */
 export function powerExpIntegral(k: number, kappa: C, T: number): C {
-  const z = cscale(kappa, T);
-  const small = Math.hypot(z.re, z.im) < 1;
-  if (small) {
-    // Σ_j κ^j·T^(k+j+1)/(j!·(k+j+1))
-    let sum = c(0);
-    let term = c(T ** (k + 1));
-    for (let j = 0; j < 60; j++) {
-      const add = cscale(term, 1 / (k + j + 1));
-      sum = cadd(sum, add);
-      if (Math.hypot(add.re, add.im) <= 1e-18 * Math.hypot(sum.re, sum.im)) break;
-      term = cscale(cmul(term, kappa), T / (j + 1));
-    }
-    return sum;
-  }
-  // I_0 = (e^(κT) − 1)/κ,  I_k = (T^k·e^(κT) − k·I_(k−1))/κ
-  const e = cexp(z);
-  let I = cdiv(cadd(e, c(-1)), kappa);
-  for (let j = 1; j <= k; j++) I = cdiv(cadd(cscale(e, T ** j), cscale(I, -j)), kappa);
-  return I;
+  powerExpIntegralInto(k, kappa.re, kappa.im, T);
+  return { re: outRe, im: outIm };
 }
 
 export function integrateTerms(terms: Term[], T: number): number {
+  const m = monomials(terms);
   let s = 0;
-  for (const t of terms) for (const m of monomials(t)) s += cmul(m.coef, powerExpIntegral(m.k, m.kappa, T)).re;
+  for (let i = 0; i < m.k.length; i++) {
+    powerExpIntegralInto(m.k[i], m.kre[i], m.kim[i], T);
+    s += m.cre[i] * outRe - m.cim[i] * outIm;
+  }
   return s;
 }
 
 /** ∫0^T f·g dτ for two sums of terms. */
 export function integrateProduct(f: Term[], g: Term[], T: number): number {
-  const a = f.flatMap(monomials);
-  const b = g.flatMap(monomials);
+  const a = monomials(f);
+  const b = monomials(g);
   let s = 0;
-  for (const x of a) {
-    for (const y of b) {
+  for (let x = 0; x < a.k.length; x++) {
+    for (let y = 0; y < b.k.length; y++) {
       // Re[X]·Re[Y] = ½·Re[X·Y + X·conj(Y)]
-      const k = x.k + y.k;
-      const direct = cmul(cmul(x.coef, y.coef), powerExpIntegral(k, cadd(x.kappa, y.kappa), T));
-      const yc = { re: y.coef.re, im: -y.coef.im };
-      const kc = { re: y.kappa.re, im: -y.kappa.im };
-      const mixed = cmul(cmul(x.coef, yc), powerExpIntegral(k, cadd(x.kappa, kc), T));
-      s += 0.5 * (direct.re + mixed.re);
+      const k = a.k[x] + b.k[y];
+      const pr = a.cre[x] * b.cre[y] - a.cim[x] * b.cim[y];
+      const pi = a.cre[x] * b.cim[y] + a.cim[x] * b.cre[y];
+      powerExpIntegralInto(k, a.kre[x] + b.kre[y], a.kim[x] + b.kim[y], T);
+      let re = pr * outRe - pi * outIm;
+      const qr = a.cre[x] * b.cre[y] + a.cim[x] * b.cim[y];
+      const qi = -a.cre[x] * b.cim[y] + a.cim[x] * b.cre[y];
+      powerExpIntegralInto(k, a.kre[x] + b.kre[y], a.kim[x] - b.kim[y], T);
+      re += qr * outRe - qi * outIm;
+      s += 0.5 * re;
     }
   }
   return s;
