@@ -1,8 +1,11 @@
 // One benchmark case in its own process (bench/run.js kills it when it runs too long).
 // Prints progress lines "STAGE <name> <seconds>" as stages finish, then "RESULT <json>".
 //   node bench/case.js circuit <case> <states> <samples> <runs> <outJson>
+//   node bench/case.js pwm <file.rdn> <runs> <outJson>
 //   node bench/case.js eig <n> <runs> <outJson> [ml]
-import { writeFileSync } from 'node:fs';
+// The pipeline is timed as analyzeText(text, file, { partSignals: false }): samples and the watched
+// signals' closed forms only, without the per-part closed forms that only the text report needs.
+import { readFileSync, writeFileSync } from 'node:fs';
 import { performance } from 'node:perf_hooks';
 import { CASES, randomMatrix } from './circuits.js';
 
@@ -42,13 +45,13 @@ if (kind === 'circuit') {
   console.log(`STATES ${ss.n}`);
   timed('modalDecomposition', () => modalDecomposition(ss.A));
   // simulate(circuit) in the current pipeline builds the model and the modal form itself
-  timed('simulate', () => simulate(circuit));
+  timed('simulate', () => simulate(circuit, { partSignals: false }));
   // whole pipeline (load → model → modal → exact solution → cross-check → metrics), timed `runs` times
   const totals = [];
   let result;
   for (let k = 0; k < runs; k++) {
     const t0 = performance.now();
-    result = analyzeText(text, `${name}.rdn`);
+    result = analyzeText(text, `${name}.rdn`, { partSignals: false });
     totals.push((performance.now() - t0) / 1000);
     stage(`analyzeText#${k + 1}`, totals[k]);
   }
@@ -64,6 +67,50 @@ if (kind === 'circuit') {
       B: ss.B,
       C: readouts.map((r) => r.C),
       D: readouts.map((r) => r.D),
+      times: Array.from(result.times),
+      ours: result.traces.map((t) => Array.from(t.values)),
+    }),
+  );
+  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), crossCheck: result.crossCheck?.maxRelError })}`);
+} else if (kind === 'pwm') {
+  // one pulse-train source into a small filter; the reference needs the pulse itself, not only the model
+  const [file, runsS, out] = args;
+  const runs = Number(runsS);
+  const text = readFileSync(file, 'utf8');
+  const { loadCircuit } = await load('circuit/load.js');
+  const { buildModel } = await load('model/build.js');
+  const { voltageProbe } = await load('model/descriptor.js');
+  const { analyzeText } = await load('pipeline.js');
+  const circuit = loadCircuit(text, file);
+  const model = buildModel(circuit);
+  const { ss } = model;
+  console.log(`STATES ${ss.n}`);
+  const totals = [];
+  let result;
+  for (let k = 0; k < runs; k++) {
+    const t0 = performance.now();
+    result = analyzeText(text, file, { partSignals: false });
+    totals.push((performance.now() - t0) / 1000);
+    stage(`analyzeText#${k + 1}`, totals[k]);
+  }
+  const pulses = ss.inputs.map((name) => {
+    const terms = circuit.parts.find((p) => p.name === name)?.waveform?.terms ?? [];
+    if (terms.length !== 1 || terms[0].kind !== 'pulse') throw new Error(`bench pwm: source ${name} must be one pulse term`);
+    const { low, high, period, width, rise, fall, start, cycles } = terms[0];
+    return { low, high, period, width, rise, fall, start, cycles: Number.isFinite(cycles) ? cycles : null };
+  });
+  const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
+  const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
+  const d1 = readouts.some((r) => r.D1.some((v) => Math.abs(v) > 1e-9));
+  if (bx1 || d1) throw new Error('bench pwm: the circuit must have Bx1 = 0 and D1 = 0');
+  writeFileSync(
+    out,
+    JSON.stringify({
+      A: ss.A,
+      B: ss.B,
+      C: readouts.map((r) => r.C),
+      D: readouts.map((r) => r.D),
+      pulses,
       times: Array.from(result.times),
       ours: result.traces.map((t) => Array.from(t.values)),
     }),
@@ -113,6 +160,6 @@ if (kind === 'circuit') {
   writeFileSync(out, JSON.stringify({ A, re: r.re, im: r.im }));
   console.log(`RESULT ${JSON.stringify({ states: n, oursSeconds: median(times), mlSeconds, residual: Math.sqrt(num / na) })}`);
 } else {
-  console.error('usage: node bench/case.js circuit|eig ...');
+  console.error('usage: node bench/case.js circuit|pwm|eig ...');
   process.exit(2);
 }

@@ -1,11 +1,15 @@
 // ringdown benchmark: whole-pipeline runs against scipy.signal.lsim on the same exported model,
-// and the dense eigen-solver against numpy.linalg.eig (and ml-matrix).
+// a long PWM run (10 000 periods) against lsim and against exact references, and the dense
+// eigen-solver against numpy.linalg.eig (and ml-matrix).
+// ringdown is timed as analyzeText(text, file, { partSignals: false }): the samples only, without the
+// per-part closed forms that only the text report needs.
 //
 //   npm run bench                    table on stdout
 //   npm run bench -- --json          rows as a JSON array on stdout (notes go to stderr)
 //   options: --states 100,400        state counts for the circuit cases (default 100,400,1000)
 //            --eig 100,400,800       matrix sizes for the eig rows
-//            --timeout 120            seconds per circuit case before it is skipped
+//            --timeout 180            seconds per circuit case before it is skipped
+//            --no-pwm                 skip the PWM case
 //            --runs 3                 repetitions (medians are reported)
 //            --no-ml                  skip the ml-matrix column of the eig rows
 //
@@ -13,7 +17,7 @@
 // slower). The reference simulates the model ringdown built, so it does not parse or build.
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, rmSync, statSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -28,7 +32,8 @@ const opt = (name, dflt) => {
 const JSON_OUT = flag('--json');
 const STATES = opt('--states', '100,400,1000').split(',').map(Number);
 const EIG_SIZES = opt('--eig', '100,400,800').split(',').map(Number);
-const TIMEOUT = Number(opt('--timeout', '120'));
+const TIMEOUT = Number(opt('--timeout', '180'));
+const WITH_PWM = !flag('--no-pwm');
 const RUNS = Number(opt('--runs', '3'));
 const WITH_ML = !flag('--no-ml');
 const SAMPLES = 10000;
@@ -62,6 +67,11 @@ const HAVE_PY = py.status === 0;
 if (!HAVE_PY) say('python3 with numpy/scipy not found: reference columns are skipped');
 else say(`reference: numpy ${py.stdout.trim().split(' ')[0]}, scipy ${py.stdout.trim().split(' ')[1]}`);
 if (process.env.OPENBLAS_CORETYPE) say(`note: OPENBLAS_CORETYPE=${process.env.OPENBLAS_CORETYPE} is set in the environment (numpy's BLAS kernels)`);
+
+const load = () => loadavg().map((v) => v.toFixed(2)).join(' ');
+const LOAD_START = load();
+say(`machine: ${cpus().length} cores (${cpus()[0]?.model ?? '?'}), Node ${process.version}; load average (1, 5, 15 min) at start: ${LOAD_START}`);
+say('ringdown is timed as analyzeText(text, file, { partSignals: false }): samples only, no per-part closed forms');
 
 const tmp = mkdtempSync(join(tmpdir(), 'ringdown-bench-'));
 process.on('exit', () => rmSync(tmp, { recursive: true, force: true }));
@@ -131,7 +141,7 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
       rows.push({ case: name, states, samples: SAMPLES, oursSeconds: null, referenceSeconds: null, ratio: null, maxRelError: null });
       continue;
     }
-    stageNotes.push({ case: name, states, stages, note: `${((Date.now() - t) / 1000).toFixed(1)} s wall` });
+    stageNotes.push({ case: name, states, stages, note: `${((Date.now() - t) / 1000).toFixed(1)} s wall, load ${load()}` });
     let ref = null;
     if (HAVE_PY) {
       const p = await run('python3', [join(HERE, 'reference.py'), 'lsim', file, String(RUNS)], 600);
@@ -146,6 +156,36 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
       referenceSeconds: ref ? ref.referenceSeconds : null,
       ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
       maxRelError: ref ? ref.maxRelError : null,
+    });
+  }
+}
+
+// ---- PWM: 100 kHz pulse train into an LC filter for 10 000 periods (bench/pwm-long.rdn) ----
+let pwm = null;
+if (WITH_PWM) {
+  const file = join(tmp, 'pwm-long.json');
+  const t = Date.now();
+  const r = await run('node', [join(HERE, 'case.js'), 'pwm', join(HERE, 'pwm-long.rdn'), String(RUNS), file], Math.max(TIMEOUT, 300));
+  const res = r.code === 0 ? lastJson(r.out, 'RESULT ') : null;
+  if (!res) say(`pwm-long: ${r.timedOut ? 'skipped after the time box' : `failed (exit ${r.code}): ${r.err.trim().split('\n').slice(-3).join(' | ')}`}`);
+  else {
+    let ref = null;
+    if (HAVE_PY) {
+      const p = await run('python3', [join(HERE, 'reference.py'), 'pwm', file, String(Math.max(RUNS, 5))], 600);
+      ref = p.code === 0 ? lastJson(p.out) : null;
+      if (!ref) say(`pwm-long: reference failed: ${p.err.trim().split('\n').slice(-2).join(' | ')}`);
+    }
+    pwm = { ...res, ref, wall: (Date.now() - t) / 1000, load: load() };
+    rows.push({
+      case: 'pwm-long',
+      states: res.states,
+      samples: res.samples,
+      oursSeconds: res.oursSeconds,
+      referenceSeconds: ref ? ref.referenceSeconds : null,
+      ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
+      maxRelError: ref ? ref.lsimMaxRelDiff : null,
+      fineMaxRelError: ref ? ref.fineMaxRelDiff : null,
+      fine1msMaxRelError: ref ? ref.fine1msMaxRelDiff : null,
     });
   }
 }
@@ -179,24 +219,44 @@ for (const n of EIG_SIZES) {
 }
 
 if (JSON_OUT) {
-  const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError'];
-  const pick = (r) => Object.fromEntries(keys.map((k) => [k, r[k]]));
+  const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError', 'fineMaxRelError', 'fine1msMaxRelError'];
+  const pick = (r) => Object.fromEntries(keys.filter((k) => k in r).map((k) => [k, r[k]]));
   console.log(JSON.stringify([...rows, ...eigRows].map(pick), null, 2));
   for (const s of stageNotes) console.error(`stages ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
+  console.error(`load average (1, 5, 15 min): ${LOAD_START} at start, ${load()} at the end`);
 } else {
   const f = (v, d = 3) => (v === null || v === undefined ? '—' : v.toFixed(d));
   const e = (v) => (v === null || v === undefined ? '—' : v.toExponential(1));
-  console.log('\nWhole pipeline (analyzeText: parse, model, modal form, exact solution, cross-check, metrics)');
-  console.log('vs scipy.signal.lsim on the model ringdown exported (same grid, step input, x(0) = 0):\n');
-  console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13)].join('  '));
+  console.log('\nWhole pipeline (analyzeText with { partSignals: false }: parse, model, modal form, exact solution,');
+  console.log('cross-check, metrics; no per-part closed forms) vs scipy.signal.lsim on the model ringdown exported');
+  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each. "max rel diff" is`);
+  console.log('|ours − lsim| relative to each signal\'s peak; "vs exact" (pwm-long only) is |ours − exact reference|:\n');
+  console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13), 'vs exact'.padStart(9)].join('  '));
   for (const r of rows) {
-    console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 1).padStart(8), e(r.maxRelError).padStart(13)].join('  '));
+    console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 1).padStart(8), e(r.maxRelError).padStart(13), e(r.fineMaxRelError).padStart(9)].join('  '));
+  }
+  if (pwm) {
+    const ref = pwm.ref;
+    console.log(`\npwm-long (bench/pwm-long.rdn): 100 kHz, 12 V, 42 % duty, 20 ns edges into 10 µH / 22 µF (15 mΩ ESR) / 2.5 Ω;`);
+    console.log(`100 ms = 10 000 periods, ${pwm.samples} samples, ${pwm.states} states. ringdown ${f(pwm.oursSeconds)} s (median of ${RUNS}), in-run cross-check ${e(pwm.crossCheck)}.`);
+    if (ref) {
+      console.log(`  lsim, input sampled on the same ${pwm.samples}-point grid: ${f(ref.referenceSeconds, 4)} s (median of ${Math.max(RUNS, 5)}), ratio ours/lsim ${f(pwm.oursSeconds / ref.referenceSeconds, 1)}.`);
+      console.log(`    max |ours − lsim| = ${e(ref.lsimMaxRelDiff)} of the peak (${ref.peak.map((v) => v.toFixed(3)).join(', ')} V). This is lsim's error, not ours: with two`);
+      console.log('    samples per period, linear interpolation between samples is not the pulse train (lsim vs the exact');
+      console.log(`    reference below: ${e(ref.lsimVsExact)}). lsim is not an exact reference for this input.`);
+      console.log(`  exact reference (periodic state + expm(A·kT) per period + exact steps between pulse corners), whole span:`);
+      console.log(`    max |ours − exact| = ${e(ref.fineMaxRelDiff)} of the peak (reference took ${f(ref.fineSeconds, 1)} s; not a speed comparison)`);
+      if (ref.fine1msMaxRelDiff !== null)
+        console.log(`  lsim on a ${(ref.fine1msStep * 1e9).toFixed(0)} ns grid through every pulse corner, first 1 ms: max |ours − it| = ${e(ref.fine1msMaxRelDiff)} of the peak`);
+    }
   }
   console.log('\nStage timings (one run each; the current simulate() rebuilds the model and modal form itself):');
   for (const s of stageNotes) console.log(`  ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
+  if (pwm) console.log(`  pwm-long: ${pwm.wall.toFixed(1)} s wall with the references, load ${pwm.load}`);
   console.log('\nDense eigen-decomposition, random n×n (values and vectors) vs numpy.linalg.eig (values and vectors), and ml-matrix:\n');
   console.log(['n'.padStart(5), 'ours s'.padStart(9), 'numpy s'.padStart(9), 'ratio'.padStart(7), 'ml-matrix s'.padStart(12), 'ml/ours'.padStart(8), 'eig diff'.padStart(9), 'residual'.padStart(9)].join('  '));
   for (const r of eigRows) {
     console.log([String(r.states).padStart(5), f(r.oursSeconds).padStart(9), f(r.referenceSeconds, 4).padStart(9), f(r.ratio, 1).padStart(7), f(r.mlMatrixSeconds).padStart(12), (r.mlMatrixSeconds ? (r.mlMatrixSeconds / r.oursSeconds).toFixed(1) : '—').padStart(8), e(r.maxRelError).padStart(9), e(r.residual).padStart(9)].join('  '));
   }
+  console.log(`\nload average (1, 5, 15 min): ${LOAD_START} at start, ${load()} at the end (2 cores: above 2 means waiting for a core)`);
 }
