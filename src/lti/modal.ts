@@ -32,7 +32,10 @@ export interface Modal {
 }
 
 const CLOSE = 1e-2; // relative eigenvalue distance below which parallel eigenvectors are merged
-const PARALLEL = 0.2; // sine of the angle below which two eigen-directions count as parallel
+// sine of the angle below which two eigen-directions count as parallel: nearly defective pairs
+// (critical damping) have sines of 1e-4 and less; neighbouring modes of a long ladder can be a few
+// tenths apart and must stay separate (merging them squares the conditioning)
+const PARALLEL = 1e-2;
 
 export function modalDecomposition(A: Mat): Modal {
   const n = A.length;

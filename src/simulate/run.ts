@@ -264,7 +264,13 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const modes = finalConfig.modes;
   void matvec;
   const parts = opts.partSignals === false ? [] : circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
-  const discharge = dischargeTimes(circuit, values, span);
+  // an auxiliary analysis: if the source-free circuit cannot be solved, say so and go on
+  let discharge: DischargeInfo[] = [];
+  try {
+    discharge = dischargeTimes(circuit, values, span);
+  } catch (e) {
+    notices.push(`the discharge time after the sources are removed could not be computed (${(e as Error).message})`);
+  }
   let steady: PeriodicSteadyState | null = null;
   if (periodic && ps.state && ps.epoch) {
     const P = prepare(ps.epoch.circuit);
