@@ -1,5 +1,7 @@
 import type { Circuit } from './circuit/circuit.js';
 import { loadCircuit } from './circuit/load.js';
+import { MAX_STATES } from './circuit/limits.js';
+import { describeStructure } from './circuit/structure.js';
 import { InputError } from './diagnostics.js';
 import { computeMetrics } from './measure/metrics.js';
 import { ReductionError } from './model/build.js';
@@ -15,6 +17,20 @@ export interface AnalyzeOptions {
 
 /** circuit → model → exact solution → metrics: the whole run as one value. */
 export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): RunResult {
+  // the state limit, from the circuit graph alone, before any matrix is built
+  for (const at of circuit.parts.some((p) => p.kind === 'switch') ? [0, Infinity] : [0]) {
+    const st = describeStructure(circuit, { at });
+    if (st.expectedStates > MAX_STATES) {
+      throw new InputError([
+        {
+          severity: 'error',
+          message: `the circuit has ${st.expectedStates} states (${st.summary}); ringdown computes at most ${MAX_STATES}`,
+          loc: circuit.parts[0]?.loc,
+          hint: 'split the network, or lump sections of a long ladder together',
+        },
+      ]);
+    }
+  }
   let sim;
   try {
     sim = simulate(circuit, opts);
