@@ -149,10 +149,9 @@ export function buildModel(circuit: Circuit): Model {
     return { C, D, D1: dx[1] ?? new Array(m).fill(0) };
   };
 
+  const init: InitContext = { circuit, d, s, Zp: red.Zp, Zu: red.Zu, np, X, Xu, chosen, physical };
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
-    red.index1
-      ? index1Initial(circuit, d, red.index1, s, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0)
-      : consistentInitial(circuit, d, s, Es, As, red.Zp, red.Zu, np, X, Xu, chosen, physical, before, u0, du0);
+    red.index1 ? index1Initial(init, red.index1, before, u0) : consistentInitial(init, Es, As, before, u0, du0);
   const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
 
   return { ss, readout, descriptor: d, initialState, storage, reductionError };
@@ -252,23 +251,22 @@ function variableScales(d: Descriptor): number[] {
  * algebraic branches can carry as an impulse:  E·(z+ − z−) = A·z_imp  with z_imp in the null
  * space of E and consistent with the algebraic rows.
  */
-function consistentInitial(
-  circuit: Circuit,
-  d: Descriptor,
-  s: number[],
-  Es: Mat,
-  As: Mat,
-  Zp: Mat,
-  Zu: Mat[],
-  np: number,
-  X: Mat,
-  Xu: Mat[],
-  chosen: number[],
-  physical: PhysicalQuantity[],
-  beforeValues: Map<string, number>,
-  u0: Vec,
-  du0: Vec,
-): InitialState {
+/** What both initial-state rules need of the reduced model. */
+interface InitContext {
+  circuit: Circuit;
+  d: Descriptor;
+  s: number[];
+  Zp: Mat;
+  Zu: Mat[];
+  np: number;
+  X: Mat;
+  Xu: Mat[];
+  chosen: number[];
+  physical: PhysicalQuantity[];
+}
+
+function consistentInitial(ctx: InitContext, Es: Mat, As: Mat, beforeValues: Map<string, number>, u0: Vec, du0: Vec): InitialState {
+  const { circuit, d, s, Zp, Zu, np, X, Xu, chosen, physical } = ctx;
   const nz = d.nz;
   const q = storedCharge(circuit, d, beforeValues);
   const qs = q.map((v, i) => v * s[i]);
@@ -326,21 +324,8 @@ function storedCharge(circuit: Circuit, d: Descriptor, beforeValues: Map<string,
 }
 
 /** Index-one case: E_dd·p = q_d (charge and flux conserved; nothing else can change them). */
-function index1Initial(
-  circuit: Circuit,
-  d: Descriptor,
-  idx: { d: number[]; Edd: Mat },
-  s: number[],
-  Zp: Mat,
-  Zu: Mat[],
-  np: number,
-  X: Mat,
-  Xu: Mat[],
-  chosen: number[],
-  physical: PhysicalQuantity[],
-  beforeValues: Map<string, number>,
-  u0: Vec,
-): InitialState {
+function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat }, beforeValues: Map<string, number>, u0: Vec): InitialState {
+  const { circuit, d, s, Zp, Zu, np, X, Xu, chosen, physical } = ctx;
   const q = storedCharge(circuit, d, beforeValues);
   const p = np ? solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]) : [];
   const zu = new Array<number>(d.nz).fill(0);
