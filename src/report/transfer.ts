@@ -1,4 +1,6 @@
-import type { PathTransfer, Rational } from '../lti/transfer.js';
+import type { Circuit } from '../circuit/circuit.js';
+import { verifiedSymbolicText } from '../lti/symbolic.js';
+import { evaluateRational, type PathTransfer, type Rational } from '../lti/transfer.js';
 
 /**
  * Transfer functions for people: H(s) = 1e8 / (s² + 1e4·s + 1e8), coefficients rounded to four
@@ -108,15 +110,35 @@ export function formatTransfer(t: PathTransfer): string {
   return `${head}: ${formatRational(t.h)}`;
 }
 
-/** A report section: a heading, then one line per path (grouped by switch configuration when there are several). */
-export function formatTransfers(transfers: readonly PathTransfer[]): string[] {
+/**
+ * The same path in the part names ("in symbols: H(s) = 1 / (R1·C1·s + 1)"), only for a small circuit
+ * without switches, only after it matched the numeric H(s) at random complex s to 1e-9, and only
+ * while it stays readable; otherwise null.
+ */
+export function formatSymbolicTransfer(t: PathTransfer, circuit: Circuit): string | null {
+  if (t.from !== undefined) return null;
+  if ([...t.h.num, ...t.h.den].some((v) => !Number.isFinite(v)) || t.h.num.every((v) => v === 0)) return null;
+  const text = verifiedSymbolicText(circuit, t.watch, t.source, (s) => evaluateRational(t.h, s), frequencyScale(t.h.den));
+  // a bare number (H(s) = 1) says nothing the numeric line does not
+  return text && !/^H\(s\) = [−\d.]+$/.test(text) ? `in symbols: ${text}` : null;
+}
+
+/**
+ * A report section: a heading, then one line per path (grouped by switch configuration when there
+ * are several); given the circuit, a verified symbolic line under each numeric one where possible.
+ */
+export function formatTransfers(transfers: readonly PathTransfer[], circuit?: Circuit): string[] {
   if (transfers.length === 0) return [];
   const heading = 'Transfer functions (s in rad/s, each source alone, zero initial state)';
   const lines = [heading, '─'.repeat(heading.length)];
   const froms = [...new Set(transfers.map((t) => t.from))];
   for (const from of froms) {
     if (from !== undefined) lines.push(`  switch configuration from t = ${formatCoefficient(from).replace('−', '-')} s:`);
-    for (const t of transfers.filter((x) => x.from === from)) lines.push(`  ${formatTransfer(t)}`);
+    for (const t of transfers.filter((x) => x.from === from)) {
+      lines.push(`  ${formatTransfer(t)}`);
+      const sym = circuit ? formatSymbolicTransfer(t, circuit) : null;
+      if (sym) lines.push(`    ${sym}`);
+    }
   }
   return lines;
 }
