@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../diagnostics.js';
 import type { RunResult } from '../simulate/result.js';
 import { pathTransfers } from '../lti/transfer.js';
+import { traceTimeAbove } from '../measure/above.js';
 import { runCautions } from '../measure/cautions.js';
 import { cautionsSection } from './cautions.js';
 import { crossCheckLines } from './crosscheck.js';
@@ -35,7 +36,7 @@ export function warningLine(d: Diagnostic): string {
 
 /** "Transfer functions": every source → watch H(s), long lines wrapped at the terms. */
 function transferLines(result: RunResult): string[] {
-  const lines = formatTransfers(pathTransfers(result, { allConfigurations: true }));
+  const lines = formatTransfers(pathTransfers(result, { allConfigurations: true }), result.circuit);
   return lines.flatMap((l, i) => (i < 2 ? [l] : wrapWords(l, 80, '      ')));
 }
 
@@ -80,8 +81,9 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   const events = eventsSection(result);
   if (events.length > 0) out.push(...events, '');
 
-  for (const trace of result.traces) {
-    out.push(...signalSection(trace, circuit, result.times, result.span, opts, result.modes), '');
+  for (const [i, trace] of result.traces.entries()) {
+    const measured = { ...trace, metrics: { ...trace.metrics, timeAbove: traceTimeAbove(result, i) } };
+    out.push(...signalSection(measured, circuit, result.times, result.span, opts, result.modes), '');
   }
 
   const periodic = periodicSection(result);
