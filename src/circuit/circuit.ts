@@ -91,6 +91,8 @@ export interface Watch {
   label: string;
   unit: 'V' | 'A';
   loc: SourceLocation;
+  /** `above LEVEL`: the level (V or A) whose time above the reports measure */
+  threshold?: number;
 }
 
 export type SettleBand = { kind: 'relative'; fraction: number } | { kind: 'absolute'; value: number };

@@ -60,5 +60,16 @@ export function elaborateWatch(
       unit = 'A';
       break;
   }
-  return { target, label: st.label?.text ?? label, unit, loc: st.loc };
+  const watch: Watch = { target, label: st.label?.text ?? label, unit, loc: st.loc };
+  if (st.threshold) {
+    const th = st.threshold;
+    if (th.unit !== null && th.unit !== unit) {
+      raise(sink, 'error', th.loc, `the threshold '${th.text}' is in ${th.unit}, but this watch measures ${unit === 'V' ? 'a voltage (V)' : 'a current (A)'}`, {
+        expected: `a level in ${unit}, such as above ${unit === 'V' ? '3V' : '2A'}`,
+      });
+      return undefined;
+    }
+    watch.threshold = th.value;
+  }
+  return watch;
 }

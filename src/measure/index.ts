@@ -18,3 +18,4 @@ export { overshootPercent } from './overshoot.js';
 export { settlingTime, bandHalfWidth } from './settling.js';
 export { steadyStateLimit } from './limit.js';
 export { delay50, ringing, maxSlope, averageAndRms, lastIntervalTerms, type WeightedTerm } from './shape.js';
+export { timeAbove, traceTimeAbove, type TimeAbove } from './above.js';

@@ -8,6 +8,7 @@ import { bandHalfWidth, settlingTime } from './settling.js';
 import { buildTrack, endValue, startValue, type Track } from './track.js';
 import { averageAndRms, delay50, maxSlope, ringing, WEIGHT_FLOOR } from './shape.js';
 import { hasTransition } from './transition.js';
+import { timeAbove } from './above.js';
 
 /**
  * All step-response metrics of one signal over the analysed span.
@@ -28,12 +29,15 @@ import { hasTransition } from './transition.js';
  *   (see `ringing` in shape.ts); maxSlope: largest |dy/dt|; average, rms: exact integrals over
  *   the span divided by it. These need the closed form: null when `pieces` is empty.
  *
+ * - timeAbove: with a `threshold` (the watch's `above` level), the time above it and the first and
+ *   last crossings (see above.ts); left out without one (the reports then give null).
+ *
  * `pieces` is the exact closed form; when empty, the samples are used (linear interpolation).
  */
-export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand): Metrics {
+export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand, threshold?: number): Metrics {
   const a = analyse(times, values, pieces, band);
   const { track, initial, final, peak, valley, moving } = a;
-  const shape = shapeMetrics(times, pieces, a);
+  const shape = { ...shapeMetrics(times, pieces, a), ...(threshold === undefined ? {} : { timeAbove: timeAbove(track, threshold) }) };
   if (a.periodic) {
     return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, riseTime: null, settlingTime: null, ...shape, delay50: null };
   }

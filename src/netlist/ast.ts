@@ -82,7 +82,14 @@ export type Statement =
       rated?: RatedNode;
       loc: SourceLocation;
     }
-  | { kind: 'watch'; target: WatchTargetNode; label?: { text: string; loc: SourceLocation }; loc: SourceLocation }
+  | {
+      kind: 'watch';
+      target: WatchTargetNode;
+      label?: { text: string; loc: SourceLocation };
+      /** `above LEVEL`: a quantity literal; its unit is checked against the watch's in watch.ts */
+      threshold?: { text: string; value: number; unit: Unit | null; loc: SourceLocation };
+      loc: SourceLocation;
+    }
   | { kind: 'span'; value: ValueNode; loc: SourceLocation }
   | { kind: 'samples'; value: ValueNode; loc: SourceLocation }
   | { kind: 'settle'; value: ValueNode; loc: SourceLocation }

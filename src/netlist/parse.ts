@@ -68,6 +68,9 @@ export const RATED = 'rated';
 const RATED_EXAMPLE = "rated followed by one or more of a voltage, current, power and pulse energy, such as rated 35V 2A or rated 250mW 1.5J";
 const START_MODES = ['settled', 'rest'] as const;
 const WATCH_KINDS = ['node', 'between', 'voltage', 'current'];
+/** The optional clauses after a watch target. */
+const WATCH_CLAUSES = ['above', 'as'] as const;
+const WATCH_CLAUSE_EXAMPLE: Record<(typeof WATCH_CLAUSES)[number], string> = { above: 'above LEVEL', as: 'as "label"' };
 const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 
 /** Parses a whole file; problems go to `sink` and the statement is skipped. */
@@ -429,18 +432,37 @@ class LineParser {
           hint: didYouMean(kindTok.text, WATCH_KINDS),
         });
     }
-    const st: Statement = { kind: 'watch', target, loc: this.lineLoc() };
-    const as = this.peek();
-    if (as) {
-      if (as.kind !== 'word' || as.text !== 'as') {
-        this.fail(as.loc, `unexpected '${as.text}' after the watch target`, {
-          expected: 'end of line, or as "label"',
-          hint: as.kind === 'word' ? didYouMean(as.text, ['as']) : undefined,
+    const st: Extract<Statement, { kind: 'watch' }> = { kind: 'watch', target, loc: this.lineLoc() };
+    // optional clauses, each at most once, in either order: above LEVEL, as "label"
+    for (let tok = this.peek(); tok; tok = this.peek()) {
+      const left = WATCH_CLAUSES.filter((c) => (c === 'above' ? !st.threshold : !st.label));
+      if (tok.kind !== 'word' || !(left as readonly string[]).includes(tok.text)) {
+        const again = tok.kind === 'word' && (WATCH_CLAUSES as readonly string[]).includes(tok.text);
+        this.fail(tok.loc, again ? `'${tok.text}' is given twice on this watch line` : `unexpected '${tok.text}' after the watch target`, {
+          expected: left.length === 0 ? 'end of line' : `end of line, or ${left.map((c) => WATCH_CLAUSE_EXAMPLE[c]).join(' or ')}`,
+          hint: tok.kind === 'word' && !again ? didYouMean(tok.text, left) : undefined,
         });
       }
       this.pos++;
-      const label = this.expect('string', 'a label in double quotes after as');
-      st.label = { text: label.inner!, loc: label.loc };
+      if (tok.text === 'as') {
+        const label = this.expect('string', 'a label in double quotes after as');
+        st.label = { text: label.inner!, loc: label.loc };
+      } else {
+        const what = 'a threshold level after above, such as 3V or 2A';
+        const q = this.peek();
+        if (!q) this.fail(this.endLoc(), `missing ${what}`, { expected: what });
+        if (q.kind !== 'quantity') {
+          this.fail(q.loc, `expected ${what}, found ${DESCRIBE[q.kind]}`, {
+            expected: what,
+            hint: q.kind === 'word' || q.kind === 'expr' ? 'the level is a number with its unit; parameters and expressions are not accepted here' : undefined,
+          });
+        }
+        this.pos++;
+        const value = parseQuantity(q.text);
+        if (typeof value === 'string') this.fail(q.loc, value, { expected: what });
+        if (!Number.isFinite(value.value)) this.fail(q.loc, `the threshold level must be a finite number`, { expected: what });
+        st.threshold = { text: q.text, value: value.value, unit: value.unit, loc: q.loc };
+      }
     }
     return st;
   }

@@ -19,7 +19,8 @@ function targetText(t: WatchTarget): string {
 }
 
 function watchRow(w: Watch): string[] {
-  return [w.label, `(${w.unit})`, targetText(w.target)];
+  const above = w.threshold === undefined ? '' : `, time above ${formatSIExact(w.threshold, w.unit)}`;
+  return [w.label, `(${w.unit})`, targetText(w.target) + above];
 }
 
 /** Reference direction of a part in words. */

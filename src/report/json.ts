@@ -1,4 +1,5 @@
 import { pathTransfers } from '../lti/transfer.js';
+import { traceTimeAbove } from '../measure/above.js';
 import { runCautions } from '../measure/cautions.js';
 import { runRatings } from '../measure/ratings.js';
 import { runStress } from '../measure/stress.js';
@@ -23,7 +24,8 @@ export function resultToJSONValue(result: RunResult): Record<string, unknown> {
 /**
  * The whole run result as JSON text (two-space indent, trailing newline), with the part stress
  * figures (`stress`), the rating checks (`ratings`), the safety cautions (`cautions`), the
- * transfer functions (`transfers`) and each trace's one-line explanation (`traces[].why`) added;
+ * transfer functions (`transfers`), each trace's one-line explanation (`traces[].why`) and its
+ * time above the watch's threshold (`traces[].metrics.timeAbove`, null without one) added;
  * `discharge` and `periodic` are always present (empty list, null) so that readers need not test
  * for them.
  */
@@ -31,7 +33,7 @@ export function formatJSON(result: RunResult): string {
   const value = {
     schema: JSON_SCHEMA,
     ...result,
-    traces: result.traces.map((t) => ({ ...t, why: explainSignal(t, result.modes, result.times[0] ?? 0, result.times[result.times.length - 1] ?? 0) })),
+    traces: result.traces.map((t, i) => ({ ...t, metrics: { ...t.metrics, timeAbove: traceTimeAbove(result, i) }, why: explainSignal(t, result.modes, result.times[0] ?? 0, result.times[result.times.length - 1] ?? 0) })),
     discharge: result.discharge ?? [],
     periodic: result.periodic ?? null,
     stress: runStress(result),

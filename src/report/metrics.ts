@@ -49,7 +49,7 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
 
 /**
  * The closed-form shape measurements (when the run has them): ringing from the dominant mode,
- * the steepest slope, average and RMS over the span.
+ * the steepest slope, average and RMS over the span, and the time above the watch's threshold.
  */
 function shapeRows(m: Metrics, unit: string, v: (x: number) => string, t: (x: number) => string): string[][] {
   const rows: string[][] = [];
@@ -66,6 +66,11 @@ function shapeRows(m: Metrics, unit: string, v: (x: number) => string, t: (x: nu
   }
   if (m.average !== undefined && m.rms !== undefined) {
     rows.push(['average, RMS (span)', m.average === null || m.rms === null ? 'n/a (no closed form)' : `${v(m.average)}, ${m.rms === Infinity ? 'unbounded (impulse)' : v(m.rms)}`]);
+  }
+  if (m.timeAbove) {
+    const a = m.timeAbove;
+    const crossings = a.first === null || a.last === null ? 'no crossing' : a.first === a.last ? `crosses at t = ${t(a.first)}` : `crossings from t = ${t(a.first)} to ${t(a.last)}`;
+    rows.push([`time above ${formatSI(a.threshold, unit, { digits: 4, trim: true })}`, `${t(a.total)}, ${crossings}`]);
   }
   return rows;
 }

@@ -1,3 +1,4 @@
+import { traceTimeAbove } from '../measure/above.js';
 import { energyBalance } from '../measure/energy.js';
 import { runRatings } from '../measure/ratings.js';
 import { runStress } from '../measure/stress.js';
@@ -24,7 +25,7 @@ export function formatNumbers(result: RunResult): string {
   put('crosscheck.max_rel_error', result.crossCheck.maxRelError);
   put('crosscheck.tolerance', result.crossCheck.tolerance);
 
-  for (const tr of result.traces) {
+  for (const [i, tr] of result.traces.entries()) {
     const k = keyPart(tr.label);
     const m = tr.metrics;
     put(`${k}.initial`, m.initial);
@@ -43,6 +44,11 @@ export function formatNumbers(result: RunResult): string {
     put(`${k}.max_slope.time`, m.maxSlope?.time);
     put(`${k}.average`, m.average);
     put(`${k}.rms`, m.rms);
+    const above = traceTimeAbove(result, i);
+    put(`${k}.time_above.threshold`, above?.threshold);
+    put(`${k}.time_above`, above?.total);
+    put(`${k}.time_above.first`, above?.first);
+    put(`${k}.time_above.last`, above?.last);
   }
 
   for (const s of runStress(result)) {
