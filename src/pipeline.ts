@@ -46,7 +46,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     values: s.values,
     pieces: s.pieces,
     paths: s.paths,
-    metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle),
+    metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold),
   }));
   return {
     circuit,
