@@ -79,7 +79,9 @@ export function loadCircuit(text: string, file: string): Circuit {
     // Only on a complete part list: a missing part would make every check below misfire.
     checkTopology(structure, sink, terminals);
   }
-  if (watchStatements.length === 0) {
+  // a watch line that failed to parse has its own error already; do not add "nothing to watch"
+  const wroteWatch = /^[ \t]*watch\b/m.test(text);
+  if (watchStatements.length === 0 && !wroteWatch) {
     raise(sink, 'error', undefined, `${file} has nothing to watch, so there would be nothing to report`, {
       hint: nodes.length > 0 ? `add a line such as: watch node ${nodes[nodes.length - 1]}` : 'add a line such as: watch node out',
     });
