@@ -69,7 +69,10 @@ export function peakMagnitude(s: PeakSearch): MagnitudePeak {
 export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 'extra'>): number[] {
   const { lo, hi } = s;
   const width = hi - lo;
-  const m = Math.min(MAX_INTERVALS, Math.max(MIN_INTERVALS, Math.ceil((width * s.omega) / PHASE_STEP)));
+  // a piece much shorter than its fastest time constant (the cycles of a long pulse train) is
+  // nearly a low-order polynomial there: 8 intervals bracket its few extrema
+  const floorCount = s.rate > 0 && Number.isFinite(s.rate) && width * s.rate < 1 ? 8 : MIN_INTERVALS;
+  const m = Math.min(MAX_INTERVALS, Math.max(floorCount, Math.ceil((width * s.omega) / PHASE_STEP)));
   const grid: number[] = [];
   for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
   // geometric steps towards lo, down to a hundredth of the fastest time constant
