@@ -19,3 +19,4 @@ export { settlingTime, bandHalfWidth } from './settling.js';
 export { steadyStateLimit } from './limit.js';
 export { delay50, ringing, maxSlope, averageAndRms, lastIntervalTerms, type WeightedTerm } from './shape.js';
 export { timeAbove, traceTimeAbove, type TimeAbove } from './above.js';
+export { undershootPercent, eventShoots, EVENT_OF_SWING, type EventShoot } from './undershoot.js';

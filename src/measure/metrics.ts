@@ -9,6 +9,7 @@ import { buildTrack, endValue, startValue, type Track } from './track.js';
 import { averageAndRms, delay50, maxSlope, ringing, WEIGHT_FLOOR } from './shape.js';
 import { hasTransition } from './transition.js';
 import { timeAbove } from './above.js';
+import { eventShoots, undershootPercent } from './undershoot.js';
 
 /**
  * All step-response metrics of one signal over the analysed span.
@@ -29,6 +30,11 @@ import { timeAbove } from './above.js';
  *   (see `ringing` in shape.ts); maxSlope: largest |dy/dt|; average, rms: exact integrals over
  *   the span divided by it. These need the closed form: null when `pieces` is empty.
  *
+ * - undershootPct: the pre-shoot of the transition initial → final, % (see undershoot.ts); null as
+ *   overshootPct;
+ * - events: per-event overshoot and undershoot, one per piece boundary whose transition is at
+ *   least 0.1 % of the peak-to-valley swing (see undershoot.ts); kept for a periodic signal too.
+ *
  * - timeAbove: with a `threshold` (the watch's `above` level), the time above it and the first and
  *   last crossings (see above.ts); left out without one (the reports then give null).
  *
@@ -37,9 +43,9 @@ import { timeAbove } from './above.js';
 export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand, threshold?: number): Metrics {
   const a = analyse(times, values, pieces, band);
   const { track, initial, final, peak, valley, moving } = a;
-  const shape = { ...shapeMetrics(times, pieces, a), ...(threshold === undefined ? {} : { timeAbove: timeAbove(track, threshold) }) };
+  const shape = { ...shapeMetrics(times, pieces, a), events: eventShoots(track, peak.value - valley.value), ...(threshold === undefined ? {} : { timeAbove: timeAbove(track, threshold) }) };
   if (a.periodic) {
-    return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, riseTime: null, settlingTime: null, ...shape, delay50: null };
+    return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, undershootPct: null, riseTime: null, settlingTime: null, ...shape, delay50: null };
   }
   const rise = moving ? riseTime(track, initial, final) : null;
   const half = bandHalfWidth(band, initial, final);
@@ -52,6 +58,7 @@ export function computeMetrics(times: Float64Array, values: Float64Array, pieces
     peak,
     valley,
     overshootPct: moving ? overshootPercent(initial, final, peak.value, valley.value) : null,
+    undershootPct: moving ? undershootPercent(track, initial, final) : null,
     riseTime: rise ? rise.duration : null,
     settlingTime: settle,
     ...shape,

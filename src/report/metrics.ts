@@ -27,13 +27,18 @@ export function metricsLines(m: Metrics, unit: string, band: SettleBand, limit: 
     ['peak', `${v(m.peak.value)} at t = ${t(m.peak.time)}`],
     ['valley', `${v(m.valley.value)} at t = ${t(m.valley.time)}`],
     ['overshoot', m.overshootPct === null ? none : `${percent(m.overshootPct)} %`],
+    ...(m.undershootPct === undefined ? [] : [['undershoot (before 50 %)', m.undershootPct === null ? none : `${percent(m.undershootPct)} %`]]),
     [m.final < m.initial ? 'fall time (90 → 10 %)' : 'rise time (10 → 90 %)', m.riseTime === null ? none : t(m.riseTime)],
     ...(m.delay50 === undefined ? [] : [['50 % delay', m.delay50 === null ? none : t(m.delay50)]]),
     [`settling time (${bandText})`, m.settlingTime === null ? none : `t = ${t(m.settlingTime)}`],
   ];
-  if (periodic) rows.splice(rows.length - (m.delay50 === undefined ? 3 : 4), m.delay50 === undefined ? 3 : 4, ['overshoot, rise, delay, settling', 'no single transition (periodic)']);
+  if (periodic) {
+    const n = 3 + (m.delay50 === undefined ? 0 : 1) + (m.undershootPct === undefined ? 0 : 1);
+    rows.splice(rows.length - n, n, ['overshoot, rise, delay, settling', 'no single transition (periodic)']);
+  }
   rows.push(...shapeRows(m, unit, v, t));
   const lines = table(rows, '    ');
+  lines.push(...eventLines(m, v, t));
   if (periodic) return lines;
   if (limit !== null && !m.finalIsLimit) {
     const half = band.kind === 'relative' ? band.fraction * Math.abs(m.final - m.initial) : band.value;
@@ -73,4 +78,25 @@ function shapeRows(m: Metrics, unit: string, v: (x: number) => string, t: (x: nu
     rows.push([`time above ${formatSI(a.threshold, unit, { digits: 4, trim: true })}`, `${t(a.total)}, ${crossings}`]);
   }
   return rows;
+}
+
+/** Events listed in the text report; the rest are counted. */
+export const TEXT_EVENTS = 8;
+
+/**
+ * Per-event overshoot and undershoot as a compact table (see `Metrics.events`): only for a
+ * signal with two or more events (one event is the whole-signal overshoot above), the first
+ * `TEXT_EVENTS` of them, and a line counting the rest.
+ */
+function eventLines(m: Metrics, v: (x: number) => string, t: (x: number) => string): string[] {
+  const events = m.events ?? [];
+  if (events.length < 2) return [];
+  const rows = [
+    ['event at', 'from', 'to', 'overshoot', 'undershoot'],
+    ...events.slice(0, TEXT_EVENTS).map((e) => [`t = ${t(e.t)}`, v(e.from), v(e.to), `${percent(e.overshootPct)} %`, `${percent(e.undershootPct)} %`]),
+  ];
+  const lines = ['    per event (transition to the value before the next event):', ...table(rows, '      ')];
+  const more = events.length - TEXT_EVENTS;
+  if (more > 0) lines.push(`      … and ${more} more event${more === 1 ? '' : 's'} (all in --format json and numbers)`);
+  return lines;
 }

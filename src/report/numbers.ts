@@ -35,6 +35,7 @@ export function formatNumbers(result: RunResult): string {
     put(`${k}.valley`, m.valley.value);
     put(`${k}.valley.time`, m.valley.time);
     put(`${k}.overshoot_pct`, m.overshootPct);
+    put(`${k}.undershoot_pct`, m.undershootPct);
     put(`${k}.rise_time`, m.riseTime);
     put(`${k}.settling_time`, m.settlingTime);
     put(`${k}.delay_50`, m.delay50);
@@ -44,6 +45,16 @@ export function formatNumbers(result: RunResult): string {
     put(`${k}.max_slope.time`, m.maxSlope?.time);
     put(`${k}.average`, m.average);
     put(`${k}.rms`, m.rms);
+    if (m.events) {
+      put(`${k}.events`, m.events.length);
+      for (const [j, e] of m.events.entries()) {
+        put(`${k}.event.${j + 1}.time`, e.t);
+        put(`${k}.event.${j + 1}.from`, e.from);
+        put(`${k}.event.${j + 1}.to`, e.to);
+        put(`${k}.event.${j + 1}.overshoot_pct`, e.overshootPct);
+        put(`${k}.event.${j + 1}.undershoot_pct`, e.undershootPct);
+      }
+    }
     const above = traceTimeAbove(result, i);
     put(`${k}.time_above.threshold`, above?.threshold);
     put(`${k}.time_above`, above?.total);

@@ -1,0 +1,106 @@
+import type { Stretch, Track } from './track.js';
+
+/** Excursions below this many percent are rounding noise in the closed form and read as 0 (as overshoot.ts). */
+const NOISE_PCT = 1e-9;
+
+/** An event transition smaller than this fraction of the signal's peak-to-valley swing is not listed. */
+export const EVENT_OF_SWING = 1e-3;
+
+/** Overshoot and undershoot of the transition that one event (a piece boundary) starts. */
+export interface EventShoot {
+  /** s: the event time (start of the piece; the start of the span for the first) */
+  t: number;
+  /** the value just before the event (t = start+ for the first) */
+  from: number;
+  /** the value just before the next event (the end of the span for the last) */
+  to: number;
+  /** % of |to − from|: largest excursion past `to` in the direction of the transition, up to the next event */
+  overshootPct: number;
+  /** % of |to − from|: largest excursion past `from` against the transition, before the 50 % level (see `undershootPercent`) */
+  undershootPct: number;
+}
+
+declare module '../simulate/result.js' {
+  interface Metrics {
+    /** undershoot (pre-shoot) of the transition initial → final, % (see undershoot.ts) */
+    undershootPct?: number | null;
+    /** per-event overshoot and undershoot, one entry per piece boundary with a transition (see undershoot.ts) */
+    events?: EventShoot[];
+  }
+}
+
+const clean = (pct: number) => (pct > NOISE_PCT ? pct : 0);
+
+/**
+ * Largest excursion against the transition from → to (below `from` for a rising one, above it for
+ * a falling one) at the knots of `stretches` before the signal first reaches the 50 % level
+ * (from + to)/2; 0 when it never goes the wrong way. Knots include every local extremum and the
+ * signal is monotone between them, so the extremum before the 50 % instant is at a knot: exact
+ * on the closed form.
+ */
+function preExcursion(stretches: readonly Stretch[], from: number, to: number): number {
+  const dir = Math.sign(to - from);
+  const mid = (from + to) / 2;
+  let worst = 0;
+  for (const s of stretches) {
+    for (const y of s.ys) {
+      if ((y - mid) * dir >= 0) return worst;
+      worst = Math.max(worst, (from - y) * dir);
+    }
+  }
+  return worst;
+}
+
+/** Largest excursion past `to` in the direction of from → to over the knots of `stretches`; 0 when none. */
+function postExcursion(stretches: readonly Stretch[], from: number, to: number): number {
+  const dir = Math.sign(to - from);
+  let worst = 0;
+  for (const s of stretches) for (const y of s.ys) worst = Math.max(worst, (y - to) * dir);
+  return worst;
+}
+
+/**
+ * Undershoot in percent of the transition initial → final over the whole track: the largest
+ * excursion beyond `initial` in the direction opposite to the transition, from the start of the
+ * span until the signal first reaches 50 % of the transition. This is the pre-shoot of IEEE
+ * Std 181 (from memory: an aberration in the pre-transition region, beyond the initial state);
+ * naming it undershoot, ending the region at the 50 % instant and taking the percentage of
+ * |final − initial| are ours. null without a transition.
+ */
+export function undershootPercent(track: Track, initial: number, final: number): number | null {
+  const delta = final - initial;
+  if (!(delta !== 0) || !Number.isFinite(delta)) return null;
+  return clean((preExcursion(track.stretches, initial, final) / Math.abs(delta)) * 100);
+}
+
+/**
+ * Per-event overshoot and undershoot. Every stretch of the track (one per piece of the closed
+ * form: an interval between source breakpoints or switch events) starts an event at its first
+ * time t_k. The transition runs from the value just before t_k (the end of the previous stretch;
+ * the start value for the first) to the value just before t_(k+1) (the end of this stretch; the
+ * end of the span for the last). Overshoot: largest excursion beyond the new level within
+ * [t_k, t_(k+1)); undershoot: as `undershootPercent`, within the same interval; both in % of
+ * |to − from|. Events whose transition is below 0.1 % of the peak-to-valley swing are left out.
+ */
+export function eventShoots(track: Track, swing: number): EventShoot[] {
+  const out: EventShoot[] = [];
+  const stretches = track.stretches;
+  for (let k = 0; k < stretches.length; k++) {
+    const s = stretches[k]!;
+    if (s.ys.length === 0) continue;
+    const prev = k > 0 ? stretches[k - 1]! : null;
+    const from = prev ? prev.ys[prev.ys.length - 1]! : s.ys[0]!;
+    const to = s.ys[s.ys.length - 1]!;
+    const size = Math.abs(to - from);
+    if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) continue;
+    const one = [s];
+    out.push({
+      t: s.ts[0]!,
+      from,
+      to,
+      overshootPct: clean((postExcursion(one, from, to) / size) * 100),
+      undershootPct: clean((preExcursion(one, from, to) / size) * 100),
+    });
+  }
+  return out;
+}
