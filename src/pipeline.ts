@@ -7,6 +7,7 @@ import { computeMetrics } from './measure/metrics.js';
 import { ReductionError } from './model/build.js';
 import type { RunResult } from './simulate/result.js';
 import { simulate } from './simulate/run.js';
+import { eventTimes } from './waveform/events.js';
 
 export interface AnalyzeOptions {
   samples?: number;
@@ -40,13 +41,14 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     }
     throw e;
   }
+  const events = eventTimes(circuit, sim.span);
   const traces = sim.signals.map((s) => ({
     label: s.watch.label,
     unit: s.watch.unit,
     values: s.values,
     pieces: s.pieces,
     paths: s.paths,
-    metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold),
+    metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold, events),
   }));
   return {
     circuit,

@@ -40,10 +40,10 @@ import { eventShoots, undershootPercent } from './undershoot.js';
  *
  * `pieces` is the exact closed form; when empty, the samples are used (linear interpolation).
  */
-export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand, threshold?: number): Metrics {
+export function computeMetrics(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand, threshold?: number, eventTimes?: readonly number[]): Metrics {
   const a = analyse(times, values, pieces, band);
   const { track, initial, final, peak, valley, moving } = a;
-  const shape = { ...shapeMetrics(times, pieces, a), events: eventShoots(track, peak.value - valley.value), ...(threshold === undefined ? {} : { timeAbove: timeAbove(track, threshold) }) };
+  const shape = { ...shapeMetrics(times, pieces, a), events: eventShoots(track, peak.value - valley.value, eventTimes), ...(threshold === undefined ? {} : { timeAbove: timeAbove(track, threshold) }) };
   if (a.periodic) {
     return { initial, final, finalIsLimit: false, peak, valley, overshootPct: null, undershootPct: null, riseTime: null, settlingTime: null, ...shape, delay50: null };
   }

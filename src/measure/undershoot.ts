@@ -82,24 +82,34 @@ export function undershootPercent(track: Track, initial: number, final: number):
  * [t_k, t_(k+1)); undershoot: as `undershootPercent`, within the same interval; both in % of
  * |to − from|. Events whose transition is below 0.1 % of the peak-to-valley swing are left out.
  */
-export function eventShoots(track: Track, swing: number): EventShoot[] {
+export function eventShoots(track: Track, swing: number, eventTimes?: readonly number[]): EventShoot[] {
   const out: EventShoot[] = [];
   const stretches = track.stretches;
+  // With the sources' own event times, the stretches between two events form one event (a pulse
+  // edge with a finite rise is one event, not a ramp and a level); without them, every stretch.
+  const starts = eventTimes ? new Set(eventTimes) : null;
+  const groups: (typeof stretches)[] = [];
   for (let k = 0; k < stretches.length; k++) {
     const s = stretches[k]!;
     if (s.ys.length === 0) continue;
-    const prev = k > 0 ? stretches[k - 1]! : null;
-    const from = prev ? prev.ys[prev.ys.length - 1]! : s.ys[0]!;
-    const to = s.ys[s.ys.length - 1]!;
+    if (groups.length === 0 || !starts || starts.has(s.ts[0]!)) groups.push([s]);
+    else groups[groups.length - 1]!.push(s);
+  }
+  let prevEnd: number | null = null;
+  for (const group of groups) {
+    const first = group[0]!;
+    const last = group[group.length - 1]!;
+    const from = prevEnd ?? first.ys[0]!;
+    const to = last.ys[last.ys.length - 1]!;
+    prevEnd = to;
     const size = Math.abs(to - from);
     if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) continue;
-    const one = [s];
     out.push({
-      t: s.ts[0]!,
+      t: first.ts[0]!,
       from,
       to,
-      overshootPct: clean((postExcursion(one, from, to) / size) * 100),
-      undershootPct: clean((preExcursion(one, from, to) / size) * 100),
+      overshootPct: clean((postExcursion(group, from, to) / size) * 100),
+      undershootPct: clean((preExcursion(group, from, to) / size) * 100),
     });
   }
   return out;
