@@ -66,12 +66,12 @@ export function peakMagnitude(s: PeakSearch): MagnitudePeak {
 }
 
 /** The search grid of peakMagnitude (sorted; may hold repeated times). */
-export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 'extra'>): number[] {
+export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 'extra'> & { minIntervals?: number }): number[] {
   const { lo, hi } = s;
   const width = hi - lo;
   // a piece much shorter than its fastest time constant (the cycles of a long pulse train) is
   // nearly a low-order polynomial there: 8 intervals bracket its few extrema
-  const floorCount = s.rate > 0 && Number.isFinite(s.rate) && width * s.rate < 1 ? 8 : MIN_INTERVALS;
+  const floorCount = s.minIntervals ?? (s.rate > 0 && Number.isFinite(s.rate) && width * s.rate < 1 ? 8 : MIN_INTERVALS);
   const m = Math.min(MAX_INTERVALS, Math.max(floorCount, Math.ceil((width * s.omega) / PHASE_STEP)));
   const grid: number[] = [];
   for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);

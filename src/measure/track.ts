@@ -1,5 +1,6 @@
 import type { Piece } from '../simulate/result.js';
 import { maxOmega, pieceDerivative, pieceValue } from './evaluate.js';
+import { searchGrid } from './peak.js';
 import { findRoot } from './root.js';
 
 /**
@@ -25,10 +26,6 @@ export interface Track {
 
 /** Fewest grid intervals per piece when looking for extrema. */
 const MIN_INTERVALS = 64;
-/** Grid step is at most this fraction of an oscillation period (π/4 rad). */
-const PHASE_STEP = Math.PI / 4;
-/** Safety cap on the extremum search grid of one piece. */
-const MAX_INTERVALS = 200_000;
 
 /** Builds the measurement track from the exact pieces, or from the samples when there are none. */
 export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[]): Track {
@@ -62,22 +59,9 @@ function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array,
   if (hi === lo) return { f, ts: [lo], ys: [f(lo)] };
   const df = (t: number) => pieceDerivative(piece, t);
 
-  const width = hi - lo;
-  const wanted = Math.max(minIntervals, Math.ceil((width * maxOmega(piece)) / PHASE_STEP));
-  const m = Math.min(MAX_INTERVALS, wanted);
-  const grid: number[] = [];
-  for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
-  // only the samples inside (lo, hi): binary search, not a scan (a pulse train has tens of
-  // thousands of pieces)
-  let a = 0;
-  let b = times.length;
-  while (a < b) {
-    const mid = (a + b) >> 1;
-    if (times[mid]! <= lo) a = mid + 1;
-    else b = mid;
-  }
-  for (let k = a; k < times.length && times[k]! < hi; k++) grid.push(times[k]!);
-  grid.sort((x, y) => x - y);
+  // the shared search grid (peak.ts): equal steps fine enough for the fastest oscillation, plus
+  // the sample times inside the piece; no extra steps near the start (rate 0)
+  const grid = searchGrid({ lo, hi, omega: maxOmega(piece), rate: 0, extra: times, minIntervals });
 
   const ts: number[] = [];
   let prevT = grid[0]!;
