@@ -6,79 +6,9 @@ import type { Piece, Term } from '../simulate/result.js';
  * ordinary part of the signal.
  */
 
-/** Value of one term at τ (time since the start of its piece). */
-export function termValue(term: Term, tau: number): number {
-  switch (term.kind) {
-    case 'exp':
-      return term.lambda === 0 ? term.coef : term.coef * Math.exp(term.lambda * tau);
-    case 'osc': {
-      const w = term.omega * tau;
-      const env = term.sigma === 0 ? 1 : Math.exp(term.sigma * tau);
-      return env * (term.cosCoef * Math.cos(w) + term.sinCoef * Math.sin(w));
-    }
-    case 'poly-exp': {
-      let p = 0;
-      const c = term.polyCoefs;
-      for (let k = c.length - 1; k >= 0; k--) p = p * tau + c[k]!;
-      return term.lambda === 0 ? p : p * Math.exp(term.lambda * tau);
-    }
-    case 'quasi': {
-      const w = term.omega * tau;
-      const env = term.sigma === 0 ? 1 : Math.exp(term.sigma * tau);
-      return env * (poly(term.cosPoly, tau) * Math.cos(w) + poly(term.sinPoly, tau) * Math.sin(w));
-    }
-  }
-}
-
-/** p(τ) by Horner's rule. */
-function poly(c: readonly number[], tau: number): number {
-  let p = 0;
-  for (let k = c.length - 1; k >= 0; k--) p = p * tau + c[k]!;
-  return p;
-}
-
-/** p'(τ). */
-function polyDerivative(c: readonly number[], tau: number): number {
-  let p = 0;
-  for (let k = c.length - 1; k >= 1; k--) p = p * tau + k * c[k]!;
-  return p;
-}
-
-/** d/dτ of one term at τ. */
-export function termDerivative(term: Term, tau: number): number {
-  switch (term.kind) {
-    case 'exp':
-      return term.lambda === 0 ? 0 : term.coef * term.lambda * Math.exp(term.lambda * tau);
-    case 'osc': {
-      const { sigma, omega, cosCoef, sinCoef } = term;
-      const w = omega * tau;
-      const env = sigma === 0 ? 1 : Math.exp(sigma * tau);
-      return env * ((sigma * cosCoef + omega * sinCoef) * Math.cos(w) + (sigma * sinCoef - omega * cosCoef) * Math.sin(w));
-    }
-    case 'poly-exp': {
-      // d/dτ [p(τ)e^(λτ)] = (p'(τ) + λp(τ))e^(λτ)
-      const c = term.polyCoefs;
-      const n = c.length;
-      let q = 0;
-      for (let k = n - 1; k >= 0; k--) {
-        const next = k + 1 < n ? (k + 1) * c[k + 1]! : 0;
-        q = q * tau + (term.lambda * c[k]! + next);
-      }
-      return term.lambda === 0 ? q : q * Math.exp(term.lambda * tau);
-    }
-    case 'quasi': {
-      // d/dτ [e^(στ)(P cos ωτ + S sin ωτ)] = e^(στ)[(σP + P' + ωS) cos ωτ + (σS + S' − ωP) sin ωτ]
-      const { sigma, omega } = term;
-      const P = poly(term.cosPoly, tau);
-      const S = poly(term.sinPoly, tau);
-      const w = omega * tau;
-      const env = sigma === 0 ? 1 : Math.exp(sigma * tau);
-      const c = sigma * P + polyDerivative(term.cosPoly, tau) + omega * S;
-      const d = sigma * S + polyDerivative(term.sinPoly, tau) - omega * P;
-      return env * (c * Math.cos(w) + d * Math.sin(w));
-    }
-  }
-}
+// one evaluator of terms for the whole program (lti/term.ts), under the names this stage uses
+import { termSlope as termDerivative, termValue } from '../lti/term.js';
+export { termDerivative, termValue };
 
 /** Value of a piece at absolute time t (no check that t lies inside it). */
 export function pieceValue(piece: Piece, t: number): number {
