@@ -170,10 +170,8 @@ function factorialRatio(p: number): number {
 /** (sI − T)·q_p = g;  (sI − T)·q_j = −(j+1)·q_(j+1). */
 function clusterParticular(b: Block, f: Forcing, horizon: number): C[][] {
   const k = b.T.length;
-  const radius = Math.max(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
   const near = Math.min(...b.eig.map((e) => Math.hypot(e.re - f.s.re, e.im - f.s.im)));
   if (near * horizon < 1) return clusterResonant(b, f, horizon);
-  void radius;
   // real 2k×2k form of (sI − T) acting on [Re q; Im q]
   const M: number[][] = [];
   for (let i = 0; i < k; i++) {

@@ -1,5 +1,5 @@
 import type { Circuit, Part } from '../circuit/circuit.js';
-import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, zeros } from '../linalg/dense.js';
+import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, transpose, zeros } from '../linalg/dense.js';
 import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 import { type Descriptor, type Probe, buildDescriptor, currentProbe, voltageProbe } from './descriptor.js';
 import { ReductionError, independentRows, reduceDescriptor } from './reduce.js';
@@ -279,7 +279,7 @@ function consistentInitial(ctx: InitContext, Es: Mat, As: Mat, beforeValues: Map
   const eSplit = rankSplit(Es, nz);
   const NE = eSplit.nullSpace;
   const kNE = cols(NE, 0);
-  const U2t = transposeOf(eSplit.leftNull);
+  const U2t = transpose(eSplit.leftNull, cols(eSplit.leftNull, 0));
   const cons = matmul(U2t, matmul(As, NE, kNE), kNE);
   const N2 = rankSplit(cons, kNE, 1e-10, 1).nullSpace;
   const imp = matmul(matmul(As, NE, kNE), N2, cols(N2, 0)).map((row) => row.map((v) => -v));
@@ -391,7 +391,3 @@ function maxAbsMat(M: Mat): number {
   return m;
 }
 
-function transposeOf(M: Mat): Mat {
-  const c = cols(M, 0);
-  return Array.from({ length: c }, (_, j) => M.map((row) => row[j]));
-}

@@ -1,4 +1,4 @@
-import { type Mat, matmul, zeros } from '../linalg/dense.js';
+import { type Mat, zeros } from '../linalg/dense.js';
 import { solveSquare } from '../linalg/factor.js';
 import { luFactor, luSingular } from '../linalg/lu.js';
 import type { Reduction } from './reduce.js';
@@ -53,7 +53,6 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     for (let k = 0; k < np; k++) Zp[i][k] = -AaaInvAad[r][k];
     for (let j = 0; j < m; j++) Zu0[i][j] = -AaaInvBa[r][j];
   });
-  void matmul;
   return { Zp, Zu: [Zu0], F, G: [G0], index1: { d, Edd } };
 }
 

@@ -1,5 +1,5 @@
-import { type Mat, type Vec, add, cols, matmul, matvec, maxAbs, pickRows, transpose, zeros } from '../linalg/dense.js';
-import { orthonormalize, pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
+import { type Mat, type Vec, add, cols, matmul, maxAbs, transpose, zeros } from '../linalg/dense.js';
+import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 
 /**
  * Reduce a descriptor system  E·z' = A·z + B·u  to an explicit ODE on a minimal set of
@@ -149,4 +149,3 @@ export function independentRows(X: Mat, np: number): number[] {
   return chosen;
 }
 
-export { matvec, pickRows, orthonormalize };

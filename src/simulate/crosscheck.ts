@@ -1,5 +1,5 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Vec, matmul, matvec, norm1, zeros } from '../linalg/dense.js';
+import { type Vec, dot, matmul, matvec, norm1, zeros } from '../linalg/dense.js';
 import { balance } from '../linalg/balance.js';
 import { expm } from '../linalg/expm.js';
 import type { Component } from '../waveform/component.js';
@@ -189,8 +189,3 @@ export function checkTimes(t0: number, t1: number, schedule: InputSchedule): num
   return out;
 }
 
-function dot(a: Vec, b: Vec): number {
-  let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
-  return s;
-}

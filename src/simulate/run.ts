@@ -4,7 +4,7 @@ import { InputError } from '../diagnostics.js';
 import { currentProbe, emptyProbe, voltageProbe } from '../model/descriptor.js';
 import { type Model, buildModel } from '../model/build.js';
 import type { Readout } from '../model/state-space.js';
-import { type Vec, matvec } from '../linalg/dense.js';
+import { type Vec, dot } from '../linalg/dense.js';
 import { type Modal, modalDecomposition } from '../lti/modal.js';
 import { chooseSpan, modesOf } from '../lti/modes.js';
 import { termsValue } from '../lti/term.js';
@@ -107,10 +107,8 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const lastEvent = Math.max(lastEventOf(allWaves), ...switchTimes, 0);
   const spanGiven = opts.span ?? circuit.analysis.span;
   const first = epochs(circuit, Number.isFinite(lastEvent) && lastEvent > 0 ? lastEvent * 2 : 1);
-  const lastConfig = first[first.length - 1].circuit;
   const allModes = [...new Set(first.map((e) => e.circuit))].flatMap((c) => modesOf(prepare(c).modal.blocks));
   const span = spanGiven ?? chooseSpan(allModes, lastEvent);
-  void lastConfig;
   const samples = Math.max(2, Math.floor(opts.samples ?? circuit.analysis.samples));
   const eps = epochs(circuit, span);
   // a repeating drive: the first period boundary after every other event, where the periodic
@@ -199,7 +197,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     values = new Map(values);
     for (const st of P.model.storage) {
       const r = st.readout;
-      values.set(st.part.name, dotv(r.C, exact.final) + dotv(r.D, uEnd));
+      values.set(st.part.name, dot(r.C, exact.final) + dot(r.D, uEnd));
     }
   });
 
@@ -262,7 +260,6 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   };
   const states = finalConfig.states;
   const modes = finalConfig.modes;
-  void matvec;
   const parts = opts.partSignals === false ? [] : circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
   // an auxiliary analysis: if the source-free circuit cannot be solved, say so and go on
   let discharge: DischargeInfo[] = [];
@@ -366,12 +363,6 @@ function sample(pieces: Piece[], times: Float64Array): Float64Array {
     out[i] = termsValue(pieces[k].terms, t - pieces[k].t0);
   }
   return out;
-}
-
-function dotv(a: Vec, b: Vec): number {
-  let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
-  return s;
 }
 
 export type { InputSchedule };

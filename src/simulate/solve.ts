@@ -1,5 +1,5 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Mat, type Vec, matmul, matvec } from '../linalg/dense.js';
+import { type Mat, type Vec, dot, matmul, matvec, transpose } from '../linalg/dense.js';
 import { type C, c, cmul, csub } from '../lti/complex.js';
 import { type ScalarMode, project, scalarModes } from '../lti/scalar-modes.js';
 import type { Block, Modal } from '../lti/modal.js';
@@ -28,7 +28,7 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const statesAt = new Map<number, Vec>();
   const wanted = new Set(recordAt);
   const beta = matmul(modal.Winv, ss.B, ss.m);
-  const Wt = ss.n ? transposeOf(modal.W) : [];
+  const Wt = ss.n ? transpose(modal.W, modal.n) : [];
   const gammas = readouts.map((r) => (ss.n ? matvec(Wt, r.C) : []));
   let xm = ss.n ? matvec(modal.Winv, xi0) : [];
   const pieces: Piece[][] = readouts.map(() => []);
@@ -214,7 +214,7 @@ function forcingsFor(b: Block, beta: Mat, comps: Component[]): Forcing[] {
 /** Impulse and step response of each source-to-read-out path, as closed forms in t. */
 export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: number): PathResponse[] {
   const beta = matmul(modal.Winv, ss.B, ss.m);
-  const gamma = ss.n ? matvec(transposeOf(modal.W), r.C) : [];
+  const gamma = ss.n ? matvec(transpose(modal.W, modal.n), r.C) : [];
   return ss.inputs.map((source, j) => {
     const bj = beta.map((row) => row[j]);
     const zero = (b: Block) => b.index.map(() => 0);
@@ -257,13 +257,3 @@ function pick(v: Vec, b: Block): Vec {
   return b.index.map((i) => v[i]);
 }
 
-function dot(a: Vec, b: Vec): number {
-  let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
-  return s;
-}
-
-function transposeOf(M: Mat): Mat {
-  const cc = M.length ? M[0].length : 0;
-  return Array.from({ length: cc }, (_, j) => M.map((row) => row[j]));
-}

@@ -215,8 +215,8 @@ describe('series RLC step (control-engineering textbook, from memory)', () => {
 describe('impulse response is the derivative of the step response (textbook linear-systems fact, from memory)', () => {
   const L = 1e-3;
   const C = 10e-6;
-  const alpha = 5000;
-  const w0 = 1e4;
+  const alpha = 10 / (2 * L); // R/(2L) with R = 10 Ω: 5000 /s
+  const w0 = 1 / Math.sqrt(L * C); // 10 krad/s
   const wd = Math.sqrt(w0 * w0 - alpha * alpha);
   const A = 1e-3; // V·s
 
