@@ -45,24 +45,39 @@ export function peakMagnitude(s: PeakSearch): MagnitudePeak {
     }
   };
   if (!(hi > lo)) return best;
-  const grid = searchGrid(s);
+  walkDerivative(searchGrid(s), df, consider, (t, d, last) => {
+    if (d === 0 && !last) consider(t);
+  });
+  consider(hi);
+  return best;
+}
+
+/**
+ * Walk a sorted grid (repeated times skipped), reporting every grid point with the derivative
+ * there, and every root of the derivative between two points where it changes sign (located by
+ * root finding to 1e-14): the extrema of the signal.
+ */
+export function walkDerivative(
+  grid: readonly number[],
+  df: (t: number) => number,
+  onRoot: (t: number) => void,
+  onPoint: (t: number, d: number, last: boolean) => void,
+): void {
   let prevT = grid[0]!;
   let prevD = df(prevT);
+  onPoint(prevT, prevD, grid.length === 1);
   for (let k = 1; k < grid.length; k++) {
     const t = grid[k]!;
     if (t === prevT) continue;
     const d = df(t);
     if (prevD !== 0 && d !== 0 && Math.sign(prevD) !== Math.sign(d)) {
       const r = findRoot(df, prevT, t, 1e-14, prevD, d);
-      if (r > prevT && r < t) consider(r);
-    } else if (d === 0 && k < grid.length - 1) {
-      consider(t);
+      if (r > prevT && r < t) onRoot(r);
     }
+    onPoint(t, d, k === grid.length - 1);
     prevT = t;
     prevD = d;
   }
-  consider(hi);
-  return best;
 }
 
 /** The search grid of peakMagnitude (sorted; may hold repeated times). */

@@ -1,7 +1,6 @@
 import type { Piece } from '../simulate/result.js';
 import { maxOmega, pieceDerivative, pieceValue } from './evaluate.js';
-import { searchGrid } from './peak.js';
-import { findRoot } from './root.js';
+import { searchGrid, walkDerivative } from './peak.js';
 
 /**
  * A signal prepared for measurement: a list of continuous stretches (one per piece of the closed
@@ -64,21 +63,7 @@ function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array,
   const grid = searchGrid({ lo, hi, omega: maxOmega(piece), rate: 0, extra: times, minIntervals });
 
   const ts: number[] = [];
-  let prevT = grid[0]!;
-  let prevD = df(prevT);
-  ts.push(prevT);
-  for (let k = 1; k < grid.length; k++) {
-    const t = grid[k]!;
-    if (t === prevT) continue;
-    const d = df(t);
-    if (prevD !== 0 && d !== 0 && Math.sign(prevD) !== Math.sign(d)) {
-      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
-      if (r > prevT && r < t) ts.push(r);
-    }
-    ts.push(t);
-    prevT = t;
-    prevD = d;
-  }
+  walkDerivative(grid, df, (r) => ts.push(r), (t) => ts.push(t));
   return { f, ts, ys: ts.map(f) };
 }
 
