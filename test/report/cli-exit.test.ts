@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { RunResult } from '../../src/simulate/result.js';
 import { rcResult } from './fixture.js';
+import { capture } from '../helpers/capture.js';
 
 const behaviour: { next: () => RunResult } = { next: () => rcResult() };
 vi.mock('../../src/pipeline.js', () => ({
@@ -13,21 +14,6 @@ vi.mock('../../src/pipeline.js', () => ({
 }));
 
 const { main } = await import('../../src/cli/main.js');
-
-function capture() {
-  let out = '';
-  let err = '';
-  return {
-    io: {
-      stdout: { write: (s: string) => (out += s), isTTY: false },
-      stderr: { write: (s: string) => (err += s), isTTY: false },
-      readStdin: async () => '',
-      env: {},
-    },
-    out: () => out,
-    err: () => err,
-  };
-}
 
 let file = '';
 let dir = '';
@@ -50,7 +36,7 @@ describe('exit codes', () => {
     };
     for (const format of ['text', 'csv', 'json']) {
       const c = capture();
-      expect(await main(['node', 'ringdown', 'run', file, '--format', format], c.io)).toBe(3);
+      expect(await main(['node', 'ringdown', 'run', file, '--format', format], c)).toBe(3);
       expect(c.out().length).toBeGreaterThan(0);
       expect(c.err()).toContain('CROSS-CHECK FAILED');
     }
@@ -61,18 +47,18 @@ describe('exit codes', () => {
       throw new TypeError('something broke');
     };
     const quiet = capture();
-    expect(await main(['node', 'ringdown', 'run', file], quiet.io)).toBe(1);
+    expect(await main(['node', 'ringdown', 'run', file], quiet)).toBe(1);
     expect(quiet.err()).toContain('internal error: something broke');
     expect(quiet.err()).not.toMatch(/^\s+at /m);
 
     const loud = capture();
-    expect(await main(['node', 'ringdown', 'run', file, '--debug'], loud.io)).toBe(1);
+    expect(await main(['node', 'ringdown', 'run', file, '--debug'], loud)).toBe(1);
     expect(loud.err()).toMatch(/^\s+at /m);
   });
 
   it('0 when all is well', async () => {
     const c = capture();
-    expect(await main(['node', 'ringdown', 'run', file, '--no-chart'], c.io)).toBe(0);
+    expect(await main(['node', 'ringdown', 'run', file, '--no-chart'], c)).toBe(0);
     expect(c.out()).not.toContain('└');
   });
 });

@@ -3,21 +3,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
-import type { CliIO } from '../../src/cli/io.js';
 import { parseSamplesOption, parseSpanOption } from '../../src/cli/options.js';
-
-function capture(stdin = ''): CliIO & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  return {
-    stdout: { write: (s: string) => (out += s), isTTY: false },
-    stderr: { write: (s: string) => (err += s), isTTY: false },
-    readStdin: async () => stdin,
-    env: {},
-    out: () => out,
-    err: () => err,
-  };
-}
+import { capture } from '../helpers/capture.js';
 
 const RC = 'title "RC"\nvoltage-source V1 in -> gnd step to 12V\nresistor R1 in -> out 1k\ncapacitor C1 out -> gnd 1uF\nwatch node out\nspan 5ms\nsamples 51\n';
 let dir = '';

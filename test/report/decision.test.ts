@@ -4,21 +4,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
-import type { CliIO } from '../../src/cli/io.js';
 import { visibleWidth } from '../../src/report/color.js';
-
-function capture(): CliIO & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  return {
-    stdout: { write: (s: string) => (out += s), isTTY: false },
-    stderr: { write: (s: string) => (err += s), isTTY: false },
-    readStdin: async () => '',
-    env: {},
-    out: () => out,
-    err: () => err,
-  };
-}
+import { capture } from '../helpers/capture.js';
 
 // RC charge from 12 V: R1 sees 12 V and 12 mA at t = 0+, C1 reaches 12(1 − e^(−5)) V at 5 ms.
 const rc = (rated: string, extra = '') =>
