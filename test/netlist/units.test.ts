@@ -1,3 +1,4 @@
+// Unit symbols: SI (BIPM SI brochure, from memory); Ω for resistance, F, H, V, A, s, Hz, W, J.
 import { describe, expect, it } from 'vitest';
 import { loadCircuit } from '../../src/circuit/load.js';
 import { errors, lines, RC } from './helpers.js';

@@ -62,6 +62,7 @@ describe('sine', () => {
   });
   it('turns rms into amplitude, period into freq, and keeps rad as written', () => {
     expect(terms('sine rms 230V period 20ms phase 0.5rad')).toEqual([
+      // peak = RMS·√2 for a sinusoid (circuits textbook, from memory); 90° = π/2 rad
       { kind: 'sine', amplitude: 230 * Math.SQRT2, freq: 1 / 0.02, phase: 0.5, at: 0, decay: Infinity },
     ]);
   });

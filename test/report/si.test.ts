@@ -1,3 +1,4 @@
+// Prefix symbols and powers of ten: the SI prefixes (BIPM SI brochure, from memory).
 import { describe, expect, it } from 'vitest';
 import { formatPlain, formatSI, formatSIExact } from '../../src/report/si.js';
 
