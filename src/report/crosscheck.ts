@@ -7,7 +7,11 @@ const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : formatPlai
 
 /** The in-run cross-check: one line when it passes, a loud block when it fails. */
 export function crossCheckLines(c: CrossCheck, color: boolean): string[] {
-  const what = `${c.method}, ${c.times.length} time point${c.times.length === 1 ? '' : 's'}`;
+  const points = [
+    c.times.length ? `${c.times.length} time point${c.times.length === 1 ? '' : 's'}` : '',
+    c.transformWeights?.length ? `${c.transformWeights.length} transform weight${c.transformWeights.length === 1 ? '' : 's'}` : '',
+  ].filter(Boolean);
+  const what = `${c.method}, ${points.join(' and ')}`;
   const numbers = `max relative error ${sci(c.maxRelError)}, limit ${sci(c.tolerance)}`;
   if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, ...wrapWords(`  against ${what}`, 80, '    ')];
   const bar = '!'.repeat(72);

@@ -27,11 +27,15 @@ export const SAFE_DC_VOLTAGE = 60;
 export function dischargeTimes(circuit: Circuit, values: Map<string, number>, span: number, safeVoltage = SAFE_DC_VOLTAGE): DischargeInfo[] {
   const caps = circuit.parts.filter((p) => p.kind === 'capacitor');
   if (caps.length === 0) return [];
-  // nothing to wait for when no capacitor is above the level (and no inductor carries current
-  // that could charge one above it): skip building the source-free circuit
-  const charged = caps.some((c) => Math.abs(values.get(c.name) ?? 0) >= safeVoltage);
-  const energised = circuit.parts.some((p) => p.kind === 'inductor' && (values.get(p.name) ?? 0) !== 0);
-  if (!charged && !energised) return caps.map((c) => ({ part: c.name, from: values.get(c.name) ?? 0, safeVoltage, time: 0 }));
+  // A passive source-free circuit never gains energy, so a capacitor C can never again exceed
+  // √(2E/C), E the energy stored when the sources go: below the level already and unable to get
+  // above it means a time of 0 without any analysis
+  let stored = 0;
+  for (const p of circuit.parts) {
+    if (p.kind === 'capacitor' || p.kind === 'inductor') stored += 0.5 * p.value * (values.get(p.name) ?? 0) ** 2;
+  }
+  const canExceed = (c: { name: string; value: number }) => Math.abs(values.get(c.name) ?? 0) >= safeVoltage || Math.sqrt((2 * stored) / c.value) >= safeVoltage;
+  if (!caps.some(canExceed)) return caps.map((c) => ({ part: c.name, from: values.get(c.name) ?? 0, safeVoltage, time: 0 }));
   const closed = new Set(switchesOf(circuit).filter((p) => isClosedAt(p, span)).map((p) => p.name));
   const withSwitches = configure(circuit, closed).circuit;
   const parts = withSwitches.parts.filter((p) => p.kind !== 'voltage-source' && p.kind !== 'current-source');
@@ -47,14 +51,21 @@ export function dischargeTimes(circuit: Circuit, values: Map<string, number>, sp
   const modal = modalDecomposition(model.ss.A);
   const slowest = Math.max(0, ...modal.blocks.flatMap((b) => b.eig.map((e) => (e.re < 0 ? -1 / e.re : Infinity))));
   const readouts = model.storage.filter((s) => s.kind === 'capacitor-voltage');
+  const fromOf = (name: string) => values.get(name) ?? 0;
+  if (!Number.isFinite(slowest)) return readouts.map((st) => ({ part: st.part.name, from: fromOf(st.part.name), safeVoltage, time: null }));
+  // the horizon: long enough for the slowest mode to take any voltage below the level
+  const vmax = Math.max(...readouts.map((st) => Math.abs(fromOf(st.part.name))), Math.sqrt((2 * stored) / Math.min(...caps.map((c) => c.value))));
+  const horizon = slowest * Math.max(1, Math.log((vmax * 1e3 + 1) / safeVoltage)) * 4;
+  const sched: InputSchedule = { intervals: [{ t0: 0, t1: horizon, components: [], slopes: [] }], diracs: [], jumps: [], outside: [], approximation: [] };
+  const needed = readouts.filter((st) => canExceed({ name: st.part.name, value: st.part.value }));
+  // one exact solution for every capacitor that needs one
+  const solved = solveExact(model.ss, modal, needed.map((st) => st.readout), sched, init.x, horizon).pieces;
   return readouts.map((st) => {
-    const from = values.get(st.part.name) ?? 0;
-    if (!Number.isFinite(slowest)) return { part: st.part.name, from, safeVoltage, time: null };
-    // the horizon: long enough for the slowest mode to take any voltage below the level
-    const horizon = slowest * Math.max(1, Math.log((Math.abs(from) * 1e3 + 1) / safeVoltage)) * 4;
-    const sched: InputSchedule = { intervals: [{ t0: 0, t1: horizon, components: [], slopes: [] }], diracs: [], jumps: [], outside: [], approximation: [] };
-    const pieces = solveExact(model.ss, modal, [st.readout], sched, init.x, horizon).pieces[0];
-    const v = (t: number) => termsValue(pieces[0].terms, t);
+    const from = fromOf(st.part.name);
+    const q = needed.indexOf(st);
+    if (q < 0) return { part: st.part.name, from, safeVoltage, time: 0 };
+    const terms = solved[q][0].terms;
+    const v = (t: number) => termsValue(terms, t);
     if (Math.abs(v(horizon)) >= safeVoltage) return { part: st.part.name, from, safeVoltage, time: null };
     // last time |v| ≥ level: scan backwards on a fine grid, then bisect
     const N = 4096;

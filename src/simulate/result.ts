@@ -68,6 +68,8 @@ export interface Trace {
 export interface CrossCheck {
   method: string;        // e.g. "matrix exponential (Padé 13, scaling and squaring)"
   times: number[];
+  /** the s values (1/s) of the Laplace-domain check, when it was used */
+  transformWeights?: number[];
   maxRelError: number;
   tolerance: number;
   passed: boolean;
