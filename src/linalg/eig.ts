@@ -19,6 +19,12 @@
  * [[re, im], [−im, re]]. Unlike ml-matrix, each eigenvector is scaled to unit 2-norm (a complex
  * pair: ‖Re v‖² + ‖Im v‖² = 1); the directions are the same.
  *
+ * eig() first tries a cheaper exact route: when A is diagonally similar to a symmetric matrix (the
+ * state matrix of an RC network, A = −C⁻¹·G), it solves the symmetric problem (src/linalg/
+ * symmetrize.ts) and maps the orthonormal eigenvectors back, in O(n²) when the symmetric form is
+ * tridiagonal up to a permutation (a ladder; src/linalg/tridiagonal.ts). The eigenvalues are then
+ * real and ascending.
+ *
  * Storage: eig works row-major (a[i·n + j]); eigSymmetric works column-major internally (the
  * rotations of the QL sweep then run along contiguous memory). Both accept and return number[][].
  */
@@ -38,7 +44,13 @@ export interface EigFlatResult {
   V: Float64Array;
 }
 
+import { pathOrder, symmetrize } from './symmetrize.js';
+import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
+
 const EPS = 2 ** -52;
+// relative mismatch allowed between Aᵢⱼ·dⱼ² and Aⱼᵢ·dᵢ² on the symmetric route: the route solves
+// D·S·D⁻¹, which differs from A by at most half of this per entry
+const SYMMETRIC_TOL = 1e-13;
 
 /** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
 export function eig(A: number[][]): EigResult {
@@ -57,9 +69,13 @@ export function eig(A: number[][]): EigResult {
  * The same on a row-major Float64Array; `a` is overwritten (it ends up holding the back-substituted
  * Schur form). Throws when an entry is not finite or the QR iteration fails to converge.
  */
-export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean } = {}): EigFlatResult {
+export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean; structured?: boolean } = {}): EigFlatResult {
   if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
   for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
+  if (opts.structured !== false) {
+    const r = eigSymmetrizable(a, n);
+    if (r) return r;
+  }
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   const V = new Float64Array(n * n);
@@ -76,6 +92,44 @@ export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean } 
     const s = scale[i];
     const b = i * n;
     for (let j = 0; j < n; j++) V[b + j] = vt[j * n + i] * s;
+  }
+  normalizeColumns(V, n, im);
+  return { n, re, im, V };
+}
+
+/**
+ * The symmetric route: null unless D⁻¹·A·D = S is symmetric for a diagonal D (see symmetrize.ts).
+ * With S = U·Λ·Uᵀ, A·(D·U) = (D·U)·Λ. A ladder (S tridiagonal after reordering) takes
+ * O(n²): QL for the eigenvalues, inverse iteration for the vectors; anything else Householder
+ * tridiagonalization and QL with vectors.
+ */
+function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
+  const sym = symmetrize(a, n, SYMMETRIC_TOL);
+  if (!sym) return null;
+  const { S, scale } = sym;
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  const V = new Float64Array(n * n);
+  const order = pathOrder(sym.adjacency);
+  if (order) {
+    const d = new Float64Array(n);
+    const e = new Float64Array(Math.max(n - 1, 0));
+    for (let k = 0; k < n; k++) d[k] = S[order[k] * n + order[k]];
+    for (let k = 0; k + 1 < n; k++) e[k] = S[order[k] * n + order[k + 1]];
+    const { values, z } = eigTridiagonal(d, e);
+    re.set(values);
+    for (let i = 0; i < n; i++) {
+      const row = order[i] * n;
+      const s = scale[order[i]];
+      for (let k = 0; k < n; k++) V[row + k] = s * z[k * n + i];
+    }
+  } else {
+    // S is symmetric, so its row-major array is also the column-major one eigSymmetricFlat reads
+    eigSymmetricFlat(S, n, re);
+    for (let i = 0; i < n; i++) {
+      const s = scale[i];
+      for (let k = 0; k < n; k++) V[i * n + k] = s * S[k * n + i];
+    }
   }
   normalizeColumns(V, n, im);
   return { n, re, im, V };
@@ -648,7 +702,9 @@ export function eigSymmetric(S: number[][]): SymEigResult {
 export function eigSymmetricFlat(z: Float64Array, n: number, d: Float64Array, e = new Float64Array(n)): void {
   if (n === 0) return;
   tred2(z, n, d, e);
-  tql2(z, n, d, e);
+  // tred2 leaves the subdiagonal in e[1..n−1]; the QL solver takes e[i] = T[i][i+1]
+  e.copyWithin(0, 1);
+  tridiagonalQL(d, e, z);
 }
 
 /** Householder tridiagonalization; Z (column-major, Z(i,j) = z[j*n+i]) becomes the orthogonal factor. */
@@ -733,93 +789,6 @@ function tred2(z: Float64Array, n: number, d: Float64Array, e: Float64Array): vo
   }
   z[(n - 1) * n + n - 1] = 1;
   e[0] = 0;
-}
-
-/** Implicit QL with shifts on the tridiagonal (d, e); rotations accumulate into Z (column-major). */
-function tql2(z: Float64Array, n: number, d: Float64Array, e: Float64Array): void {
-  for (let i = 1; i < n; i++) e[i - 1] = e[i];
-  e[n - 1] = 0;
-  let f = 0;
-  let tst1 = 0;
-  for (let l = 0; l < n; l++) {
-    tst1 = Math.max(tst1, Math.abs(d[l]) + Math.abs(e[l]));
-    let m = l;
-    while (m < n - 1) {
-      if (Math.abs(e[m]) <= EPS * tst1) break;
-      m++;
-    }
-    if (m > l) {
-      let iter = 0;
-      do {
-        if (++iter > 60) throw new Error('eigSymmetric: the QL iteration did not converge');
-        let g = d[l];
-        let p = (d[l + 1] - g) / (2 * e[l]);
-        let r = Math.hypot(p, 1);
-        if (p < 0) r = -r;
-        d[l] = e[l] / (p + r);
-        d[l + 1] = e[l] * (p + r);
-        const dl1 = d[l + 1];
-        let h = g - d[l];
-        for (let i = l + 2; i < n; i++) d[i] -= h;
-        f += h;
-        p = d[m];
-        let c = 1;
-        let c2 = c;
-        let c3 = c;
-        const el1 = e[l + 1];
-        let s = 0;
-        let s2 = 0;
-        for (let i = m - 1; i >= l; i--) {
-          c3 = c2;
-          c2 = c;
-          s2 = s;
-          g = c * e[i];
-          h = c * p;
-          r = Math.hypot(p, e[i]);
-          e[i + 1] = s * r;
-          s = e[i] / r;
-          c = p / r;
-          p = c * d[i] - s * g;
-          d[i + 1] = h + s * (c * g + s * d[i]);
-          const ci = i * n;
-          const ci1 = ci + n;
-          for (let k = 0; k < n; k++) {
-            const hk = z[ci1 + k];
-            const zk = z[ci + k];
-            z[ci1 + k] = s * zk + c * hk;
-            z[ci + k] = c * zk - s * hk;
-          }
-        }
-        p = (-s * s2 * c3 * el1 * e[l]) / dl1;
-        e[l] = s * p;
-        d[l] = c * p;
-      } while (Math.abs(e[l]) > EPS * tst1);
-    }
-    d[l] += f;
-    e[l] = 0;
-  }
-  // selection sort into ascending order (n swaps at most)
-  for (let i = 0; i < n - 1; i++) {
-    let k = i;
-    let p = d[i];
-    for (let j = i + 1; j < n; j++) {
-      if (d[j] < p) {
-        k = j;
-        p = d[j];
-      }
-    }
-    if (k !== i) {
-      d[k] = d[i];
-      d[i] = p;
-      const ci = i * n;
-      const ck = k * n;
-      for (let j = 0; j < n; j++) {
-        const t = z[ci + j];
-        z[ci + j] = z[ck + j];
-        z[ck + j] = t;
-      }
-    }
-  }
 }
 
 // ------------------------------------------------------------------------------------------------

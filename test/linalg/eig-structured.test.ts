@@ -1,0 +1,136 @@
+/**
+ * eig()'s symmetric route for matrices diagonally similar to a symmetric one (RC networks).
+ *
+ * References: the uniform RC ladder's poles in closed form, −(2/RC)·(1 − cos((2k−1)π/(2n+1))) for
+ * a ladder fed at one end from a grounded source and open at the other (textbook, from memory:
+ * the eigenvalues of tridiag(−1, 2, −1) with last diagonal entry 1); eigRC (the same poles through
+ * C^(−1/2)·G·C^(−1/2) built from C and G, not from A); the general Hessenberg-QR path; and the
+ * defining identities.
+ */
+import { describe, expect, it } from 'vitest';
+import { eig, eigFlat, eigRC } from '../../src/linalg/eig.js';
+import { frob, matchEigenvalues, pairs, rcLadder, residual, rng, zerosM } from './matrices.js';
+
+/** P·D·A·D⁻¹·Pᵀ with a random power-of-ten diagonal D and a random permutation P. */
+function scrambled(A: number[][], seed: number): { B: number[][]; perm: number[]; s: number[] } {
+  const n = A.length;
+  const r = rng(seed);
+  const s = Array.from({ length: n }, () => 10 ** Math.floor(6 * r() - 3));
+  const perm = Array.from({ length: n }, (_, i) => i);
+  for (let i = n - 1; i > 0; i--) {
+    const j = Math.floor(r() * (i + 1));
+    [perm[i], perm[j]] = [perm[j], perm[i]];
+  }
+  const B = perm.map((pi) => perm.map((pj) => (A[pi][pj] * s[pi]) / s[pj]));
+  return { B, perm, s };
+}
+
+/** Largest |cos| between distinct columns of diag(w)·V (orthogonality of the symmetric form's vectors). */
+function maxCos(V: number[][], w: number[]): number {
+  const n = V.length;
+  const cols = Array.from({ length: n }, (_, k) => V.map((row, i) => row[k] * w[i]));
+  const nr = cols.map((c) => Math.hypot(...c));
+  let worst = 0;
+  for (let a = 0; a < n; a++) for (let b = a + 1; b < n; b++) worst = Math.max(worst, Math.abs(cols[a].reduce((acc, x, i) => acc + x * cols[b][i], 0)) / (nr[a] * nr[b]));
+  return worst;
+}
+
+/** RC mesh: a random spanning tree plus as many random chords (loops), one path to ground. */
+function rcMesh(n: number, seed: number): { A: number[][]; G: number[][]; Cd: number[] } {
+  const r0 = rng(seed);
+  const G = zerosM(n);
+  const link = (i: number, j: number, g: number): void => {
+    G[i][i] += g;
+    G[j][j] += g;
+    G[i][j] -= g;
+    G[j][i] -= g;
+  };
+  for (let i = 1; i < n; i++) link(Math.floor(r0() * i), i, 1e-3 * (1 + 9 * r0()));
+  for (let e = 0; e < n; e++) {
+    const i = Math.floor(r0() * n);
+    const j = (i + 1 + Math.floor(r0() * (n - 1))) % n;
+    link(i, j, 1e-3 * (1 + 9 * r0()));
+  }
+  G[0][0] += 1e-2;
+  const Cd = Array.from({ length: n }, () => 1e-9 * (1 + 99 * r0()));
+  return { A: G.map((row, i) => row.map((g) => -g / Cd[i])), G, Cd };
+}
+
+describe('uniform RC ladder: closed-form poles (textbook, from memory)', () => {
+  for (const n of [1, 3, 40, 250]) {
+    it(`${n} sections, states scaled and reordered`, () => {
+      const R = 1e3;
+      const C = 1e-9;
+      const a = 1 / (R * C);
+      const A = zerosM(n);
+      for (let k = 0; k < n; k++) {
+        A[k][k] = k === n - 1 ? -a : -2 * a;
+        if (k > 0) A[k][k - 1] = a;
+        if (k < n - 1) A[k][k + 1] = a;
+      }
+      const { B } = scrambled(A, 17 + n);
+      const r = eig(B);
+      expect(r.im.every((v) => v === 0)).toBe(true);
+      const exact = Array.from({ length: n }, (_, k) => -2 * a * (1 - Math.cos(((2 * k + 1) * Math.PI) / (2 * n + 1))));
+      expect(matchEigenvalues(pairs(r.re, r.im), pairs(exact, new Array(n).fill(0)))).toBeLessThan(1e-14 * 4 * a);
+      expect(residual(B, r)).toBeLessThan(1e-14);
+    });
+  }
+});
+
+describe('RC networks through the symmetric route', () => {
+  for (const n of [30, 200]) {
+    it(`random RC ladder, ${n} states: agrees with eigRC and the general path; orthogonal symmetric form`, () => {
+      const { A, C, G } = rcLadder(n, 5 + n);
+      const r = eig(A);
+      expect(residual(A, r)).toBeLessThan(1e-14);
+      const rc = eigRC(C, G);
+      const scaleA = Math.max(...rc.values.map(Math.abs));
+      expect(matchEigenvalues(pairs(r.re, r.im), pairs(rc.values, new Array(n).fill(0)))).toBeLessThan(1e-13 * scaleA);
+      const flat = new Float64Array(A.flat());
+      const g = eigFlat(flat, n, { structured: false });
+      expect(matchEigenvalues(pairs(r.re, r.im), pairs(Array.from(g.re), Array.from(g.im)))).toBeLessThan(1e-13 * scaleA);
+      // D⁻¹·A·D symmetric with D = C^(−1/2): the columns of C^(1/2)·V are orthogonal
+      expect(maxCos(r.V, C.map((row, i) => Math.sqrt(row[i])))).toBeLessThan(1e-13);
+    });
+  }
+  it('RC mesh with loops (dense symmetric route): agrees with eigRC, orthogonal symmetric form', () => {
+    const { A, G, Cd } = rcMesh(40, 23);
+    const n = A.length;
+    const r = eig(A);
+    expect(r.im.every((v) => v === 0)).toBe(true);
+    expect(residual(A, r)).toBeLessThan(1e-14);
+    const C = zerosM(n).map((row, i) => row.map((_, j) => (i === j ? Cd[i] : 0)));
+    const rc = eigRC(C, G);
+    const scaleA = Math.max(...rc.values.map(Math.abs));
+    expect(matchEigenvalues(pairs(r.re, r.im), pairs(rc.values, new Array(n).fill(0)))).toBeLessThan(1e-13 * scaleA);
+    expect(maxCos(r.V, Cd.map(Math.sqrt))).toBeLessThan(1e-13);
+  });
+  it('a loop whose ratios contradict each other is not symmetrizable: the general path still solves it', () => {
+    // every pair is sign-consistent, but around the loop 0→1→2→0 the ratios Aᵢⱼ/Aⱼᵢ multiply to
+    // (1/2)·(1/1)·(8/1) = 4, not 1
+    const A = [
+      [-3, 1, 1],
+      [2, -3, 1],
+      [8, 1, -3],
+    ];
+    const r = eig(A);
+    expect(residual(A, r)).toBeLessThan(1e-14);
+    // characteristic polynomial det(A − λI) evaluated at each eigenvalue (exact identity)
+    for (let i = 0; i < 3; i++) {
+      if (r.im[i] !== 0) continue;
+      const l = r.re[i];
+      const M = A.map((row, p) => row.map((v, q) => v - (p === q ? l : 0)));
+      const det = M[0][0] * (M[1][1] * M[2][2] - M[1][2] * M[2][1]) - M[0][1] * (M[1][0] * M[2][2] - M[1][2] * M[2][0]) + M[0][2] * (M[1][0] * M[2][1] - M[1][1] * M[2][0]);
+      expect(Math.abs(det)).toBeLessThan(1e-12 * frob(A) ** 3);
+    }
+  });
+  it('an RC mesh with couplings perturbed by 1e-6 (loops no longer consistent) takes the general path', () => {
+    // on a tree any sign-consistent pattern is symmetrizable; loops are what the check must catch
+    const { A } = rcMesh(40, 29);
+    const r0 = rng(31);
+    const P = A.map((row, i) => row.map((v, j) => (i === j ? v : v * (1 + 1e-6 * (2 * r0() - 1)))));
+    const r = eig(P);
+    expect(residual(P, r)).toBeLessThan(1e-14);
+  });
+});
