@@ -1,6 +1,7 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { eig } from '../linalg/eig.js';
-import { type Mat, identity, matmul, zeros } from '../linalg/dense.js';
+import { type Mat, identity, matmul, matvec, zeros } from '../linalg/dense.js';
+import { symmetrize } from '../linalg/symmetrize.js';
 import { solveSquare } from '../linalg/factor.js';
 
 
@@ -111,16 +112,77 @@ export function modalDecomposition(A: Mat): Modal {
   }
   const W = zeros(n, n);
   Wcols.forEach((c, j) => c.forEach((v, i) => (W[i][j] = v)));
-  const Winv = solveSquare(W, identity(n));
-  const Tfull = matmul(matmul(Winv, A, n), W, n);
+  const Winv = symmetricInverse(A, W, cols) ?? solveSquare(W, identity(n));
   const blocks: Block[] = cols.map((index, b) => ({
     kind: specs[b].kind,
     index,
-    // a pole snapped to zero is exactly zero in its block too
-    T: specs[b].kind === 'real' && specs[b].eig[0].re === 0 ? [[0]] : index.map((i) => index.map((j) => Tfull[i][j])),
+    T: blockMatrix(A, W, Winv, index, specs[b]),
     eig: specs[b].eig,
   }));
   return { n, W, Winv, blocks };
+}
+
+/**
+ * The block of T = W⁻¹·A·W on the block's own columns. A real mode or a conjugate pair has it
+ * from its eigenvalues ([λ], or [[σ, ω], [−ω, σ]] for the columns Re v, Im v, as eig() returns
+ * them); a cluster's comes from the product, restricted to its columns (O(n²) per column).
+ */
+function blockMatrix(A: Mat, W: Mat, Winv: Mat, index: number[], spec: { kind: Block['kind']; eig: { re: number; im: number }[] }): Mat {
+  if (spec.kind === 'real') return [[spec.eig[0].re]];
+  if (spec.kind === 'pair') {
+    const { re, im } = spec.eig[0];
+    return [
+      [re, im],
+      [-im, re],
+    ];
+  }
+  const n = A.length;
+  const AW = index.map((j) => A.map((row) => row.reduce((acc, v, k) => acc + v * W[k][j], 0)));
+  return index.map((i) => AW.map((col) => {
+    let acc = 0;
+    for (let k = 0; k < n; k++) acc += Winv[i][k] * col[k];
+    return acc;
+  }));
+}
+
+/**
+ * When D⁻¹·A·D is symmetric (RC networks), eigenvectors of different blocks are orthogonal in the
+ * inner product ⟨x, y⟩ = xᵀ·D⁻²·y, so W⁻¹ = G⁻¹·Wᵀ·D⁻² with G = Wᵀ·D⁻²·W block diagonal:
+ * O(n²) instead of an LU of W. Verified on a random vector (W⁻¹·W·r = r); null when A has no such
+ * form or the check fails (then the caller factors W).
+ */
+function symmetricInverse(A: Mat, W: Mat, cols: number[][]): Mat | null {
+  const n = A.length;
+  const flat = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) flat[i * n + j] = A[i][j];
+  const sym = symmetrize(flat, n, 1e-12);
+  if (!sym) return null;
+  const w2 = Array.from(sym.scale, (d) => 1 / (d * d));
+  const Winv = zeros(n, n);
+  for (const index of cols) {
+    // G_b = W_bᵀ·D⁻²·W_b and the rows W_bᵀ·D⁻²
+    const rows = index.map((j) => W.map((row, k) => row[j] * w2[k]));
+    const G = index.map((_, a) => index.map((j) => rows[a].reduce((acc, v, k) => acc + v * W[k][j], 0)));
+    const inv = index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length));
+    index.forEach((i, a) => {
+      const out = Winv[i];
+      inv[a].forEach((g, b) => {
+        const r = rows[b];
+        for (let k = 0; k < n; k++) out[k] += g * r[k];
+      });
+    });
+  }
+  // W⁻¹·(W·r) must give r back
+  let seed = 12345;
+  const r = Array.from({ length: n }, () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32) - 0.5);
+  const back = matvec(Winv, matvec(W, r));
+  let err = 0;
+  let size = 0;
+  for (let i = 0; i < n; i++) {
+    err = Math.max(err, Math.abs(back[i] - r[i]));
+    size = Math.max(size, Math.abs(r[i]));
+  }
+  return err <= 1e-12 * size ? Winv : null;
 }
 
 /** Sine of the largest principal angle between span(V[:,a]) and span(V[:,b]), roughly. */

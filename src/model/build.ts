@@ -101,7 +101,7 @@ export function buildModel(circuit: Circuit): Model {
   const Xu = SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
   const Xinv = np ? solveSquare(X, identityOf(np)) : [];
   const F = red.F;
-  const Ax = np ? matmul(matmul(X, F, np), Xinv, np) : [];
+  const Ax = np ? times(times(X, F, np), Xinv, np) : [];
   // Bx[j] = X·G[j] − Ax·Xu[j] + Xu[j−1]
   const order = Math.max(red.G.length, Xu.length + 1);
   const Bx: Mat[] = [];
@@ -152,7 +152,16 @@ export function buildModel(circuit: Circuit): Model {
   const init: InitContext = { circuit, d, s, Zp: red.Zp, Zu: red.Zu, np, X, Xu, chosen, physical };
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
     red.index1 ? index1Initial(init, red.index1, before, u0) : consistentInitial(init, Es, As, before, u0, du0);
-  const storage = physical.map((q) => ({ part: q.part, kind: q.kind, readout: readout(q.probe) }));
+  // a chosen state reads out as itself: x_i = ξ_i + Bx1[i]·u (the general formula gives the same,
+  // up to round-off, at O(n²) per quantity)
+  const position = new Map(chosen.map((i, k) => [i, k]));
+  const storage = physical.map((q, i) => {
+    const k = position.get(i);
+    if (k === undefined) return { part: q.part, kind: q.kind, readout: readout(q.probe) };
+    const C = new Array<number>(np).fill(0);
+    C[k] = 1;
+    return { part: q.part, kind: q.kind, readout: { C, D: Bx1[k].slice(), D1: new Array<number>(m).fill(0) } };
+  });
 
   return { ss, readout, descriptor: d, initialState, storage, reductionError };
 }
@@ -379,6 +388,13 @@ function addInto(a: Vec, b: Vec): void {
 
 function addVec(a: Vec, b: Vec, k = 1): Vec {
   return a.map((v, i) => v + k * b[i]);
+}
+
+/** a·b, with the sparser factor on the left (matmul skips its zeros): O(n²) for a permutation-like one */
+function times(a: Mat, b: Mat, bCols: number): Mat {
+  const zerosIn = (M: Mat) => M.reduce((acc, row) => acc + row.reduce((z, v) => z + (v === 0 ? 1 : 0), 0), 0);
+  if (zerosIn(b) <= zerosIn(a)) return matmul(a, b, bCols);
+  return transpose(matmul(transpose(b, bCols), transpose(a, cols(a, 0)), a.length), a.length);
 }
 
 function identityOf(n: number): Mat {

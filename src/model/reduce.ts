@@ -1,4 +1,4 @@
-import { type Mat, type Vec, add, cols, matmul, maxAbs, transpose, zeros } from '../linalg/dense.js';
+import { type Mat, add, cols, matmul, maxAbs, transpose, zeros } from '../linalg/dense.js';
 import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 
 /**
@@ -128,22 +128,61 @@ function requireZero(blocks: Mat[], why: string, scale: number): void {
  * function of p) that are linearly independent; returns their indices (as many as X has columns).
  */
 export function independentRows(X: Mat, np: number): number[] {
-  const basis: Vec[] = [];
+  // Gram–Schmidt (twice) with sparse bookkeeping: each basis vector keeps the list of its nonzero
+  // entries, so rows that touch few p (one capacitor's node voltages) cost O(their support), and a
+  // circuit of a thousand states is not an O(n³) affair
+  const basis: { v: Float64Array; nz: number[] }[] = [];
+  const byCol: number[][] = Array.from({ length: np }, () => []);
   const chosen: number[] = [];
+  const v = new Float64Array(np);
+  const mark = new Int32Array(np).fill(-1);
   for (let i = 0; i < X.length && chosen.length < np; i++) {
-    const v = X[i].slice();
-    const nrm0 = Math.hypot(...v);
-    if (nrm0 === 0) continue;
-    for (let pass = 0; pass < 2; pass++) {
-      for (const q of basis) {
-        let d = 0;
-        for (let k = 0; k < np; k++) d += q[k] * v[k];
-        for (let k = 0; k < np; k++) v[k] -= d * q[k];
+    const row = X[i];
+    const nz: number[] = [];
+    let nrm0 = 0;
+    for (let k = 0; k < np; k++) {
+      v[k] = row[k];
+      if (row[k] !== 0) {
+        nz.push(k);
+        mark[k] = i;
+        nrm0 = Math.hypot(nrm0, row[k]);
       }
     }
-    const nrm = Math.hypot(...v);
+    if (nrm0 === 0) continue;
+    for (let pass = 0; pass < 2; pass++) {
+      // only basis vectors sharing an entry with v can have a nonzero product with it; entries
+      // that fill in while v is reduced make later basis vectors count too (the same order and
+      // products as plain modified Gram–Schmidt, minus the exact zeros)
+      const touched = new Uint8Array(basis.length);
+      for (const k of nz) for (const b of byCol[k]) touched[b] = 1;
+      for (let b = 0; b < basis.length; b++) {
+        if (!touched[b]) continue;
+        const q = basis[b];
+        let d = 0;
+        for (const k of q.nz) d += q.v[k] * v[k];
+        if (d === 0) continue;
+        for (const k of q.nz) {
+          v[k] -= d * q.v[k];
+          if (mark[k] !== i) {
+            mark[k] = i;
+            nz.push(k);
+            for (const c of byCol[k]) touched[c] = 1;
+          }
+        }
+      }
+    }
+    let nrm = 0;
+    for (const k of nz) nrm = Math.hypot(nrm, v[k]);
     if (nrm <= 1e-8 * nrm0) continue;
-    basis.push(v.map((x) => x / nrm));
+    const q = new Float64Array(np);
+    const qnz: number[] = [];
+    for (const k of nz) {
+      if (v[k] === 0) continue;
+      q[k] = v[k] / nrm;
+      qnz.push(k);
+      byCol[k].push(basis.length);
+    }
+    basis.push({ v: q, nz: qnz });
     chosen.push(i);
   }
   return chosen;
