@@ -12,7 +12,7 @@ import { eventTimes } from './waveform/events.js';
 export interface AnalyzeOptions {
   samples?: number;
   span?: number;
-  /** compute every part's closed forms (stress, energy, cautions); default true */
+  /** compute every part's closed forms (stress, energy, cautions, discharge times); default true */
   partSignals?: boolean;
 }
 

@@ -1,4 +1,4 @@
-import { type Mat, zeros } from '../linalg/dense.js';
+import { type Mat, matmul, zeros } from '../linalg/dense.js';
 import { solveSquare } from '../linalg/factor.js';
 import { luFactor, luSingular } from '../linalg/lu.js';
 import type { Reduction } from './reduce.js';
@@ -36,10 +36,15 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
     // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
     const chop = (v: number, mag: number) => (Math.abs(v) <= 1e-13 * mag ? 0 : v);
-    const Fr = sub(A, d, d).map((row, i) =>
-      row.map((v, j) => (a.length ? chop(v - dotCol(Ada[i], AaaInvAad, j), Math.abs(v) + dotColAbs(Ada[i], AaaInvAad, j)) : v)),
-    );
-    const Gr = d.map((i, r) => B[i].map((v, j) => (a.length ? chop(v - dotCol(Ada[r], AaaInvBa, j), Math.abs(v) + dotColAbs(Ada[r], AaaInvBa, j)) : v)));
+    // A_da is sparse (a capacitor node touches a few resistors): matmul skips its zeros
+    const absOf = (M: Mat) => M.map((row) => row.map(Math.abs));
+    const AdaAbs = absOf(Ada);
+    const P = a.length ? matmul(Ada, AaaInvAad, d.length) : [];
+    const Pabs = a.length ? matmul(AdaAbs, absOf(AaaInvAad), d.length) : [];
+    const Q = a.length && m ? matmul(Ada, AaaInvBa, m) : [];
+    const Qabs = a.length && m ? matmul(AdaAbs, absOf(AaaInvBa), m) : [];
+    const Fr = sub(A, d, d).map((row, i) => row.map((v, j) => (a.length ? chop(v - P[i][j], Math.abs(v) + Pabs[i][j]) : v)));
+    const Gr = d.map((i, r) => B[i].map((v, j) => (a.length ? chop(v - Q[r][j], Math.abs(v) + Qabs[r][j]) : v)));
     F = d.length ? solveSquare(Edd, Fr) : [];
     G0 = d.length && m ? solveSquare(Edd, Gr) : d.map(() => new Array<number>(m).fill(0));
   } catch {
@@ -54,18 +59,6 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     for (let j = 0; j < m; j++) Zu0[i][j] = -AaaInvBa[r][j];
   });
   return { Zp, Zu: [Zu0], F, G: [G0], index1: { d, Edd } };
-}
-
-function dotColAbs(row: number[], M: Mat, j: number): number {
-  let s = 0;
-  for (let k = 0; k < row.length; k++) s += Math.abs(row[k] * M[k][j]);
-  return s;
-}
-
-function dotCol(row: number[], M: Mat, j: number): number {
-  let s = 0;
-  for (let k = 0; k < row.length; k++) s += row[k] * M[k][j];
-  return s;
 }
 
 /** Nonsingular with a pivot ratio that leaves room for the digits we need (a cheap condition test). */

@@ -280,11 +280,14 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const modes = finalConfig.modes;
   const parts = opts.partSignals === false ? [] : circuit.parts.map((p, q) => ({ part: p.name, voltage: partPieces[2 * q], current: partPieces[2 * q + 1] }));
   // an auxiliary analysis: if the source-free circuit cannot be solved, say so and go on
+  // (a per-part safety figure like the stresses: skipped with them when only the watched signals are wanted)
   let discharge: DischargeInfo[] = [];
-  try {
-    discharge = dischargeTimes(circuit, values, span);
-  } catch (e) {
-    notices.push(`the discharge time after the sources are removed could not be computed (${(e as Error).message})`);
+  if (opts.partSignals !== false) {
+    try {
+      discharge = dischargeTimes(circuit, values, span);
+    } catch (e) {
+      notices.push(`the discharge time after the sources are removed could not be computed (${(e as Error).message})`);
+    }
   }
   let steady: PeriodicSteadyState | null = null;
   if (periodic && ps.state && ps.epoch) {
