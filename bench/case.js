@@ -55,6 +55,15 @@ if (kind === 'circuit') {
     totals.push((performance.now() - t0) / 1000);
     stage(`analyzeText#${k + 1}`, totals[k]);
   }
+  // the eigen-decomposition of this circuit's state matrix alone, as the modal stage calls it
+  const { eig } = await load('linalg/eig.js');
+  const eigTimes = [];
+  for (let k = 0; k < Math.max(runs, 3); k++) {
+    const t0 = performance.now();
+    eig(ss.A);
+    eigTimes.push((performance.now() - t0) / 1000);
+  }
+  stage('eig(state matrix)', median(eigTimes));
   // export the same model for the reference: ξ' = Aξ + Bu, y = Cξ + Du, ξ(0) = 0, u = 1 for t > 0
   const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
   const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
@@ -71,7 +80,7 @@ if (kind === 'circuit') {
       ours: result.traces.map((t) => Array.from(t.values)),
     }),
   );
-  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), crossCheck: result.crossCheck?.maxRelError })}`);
+  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), eigSeconds: median(eigTimes), crossCheck: result.crossCheck?.maxRelError })}`);
 } else if (kind === 'pwm') {
   // one pulse-train source into a small filter; the reference needs the pulse itself, not only the model
   const [file, runsS, out] = args;

@@ -4,7 +4,8 @@
   python3 bench/reference.py lsim <model.json> <runs>
       simulates the state-space model ringdown exported (x' = Ax + Bu, y = Cx + Du, x(0) = 0,
       u = 1 V for t > 0) with scipy.signal.lsim on the same time grid; prints the median time and
-      the largest difference from ringdown's samples, relative to each signal's peak magnitude.
+      the largest difference from ringdown's samples, relative to each signal's peak magnitude;
+      also times numpy.linalg.eig (values and vectors) on the same state matrix (eigSeconds).
   python3 bench/reference.py pwm <model.json> <runs>
       the PWM case: the model ringdown exported, driven by the pulse train it describes (x(0) = 0).
       Speed reference: scipy.signal.lsim with the input sampled on ringdown's sample grid. lsim
@@ -56,7 +57,12 @@ def main():
         ours = np.array(d['ours']).T
         peak = np.max(np.abs(y), axis=0)
         err = float(np.max(np.max(np.abs(ours - y), axis=0) / peak))
-        print(json.dumps({'referenceSeconds': statistics.median(times), 'maxRelError': err, **note}))
+        eig_times = []
+        for _ in range(max(runs, 3)):
+            t0 = time.perf_counter()
+            np.linalg.eig(A)
+            eig_times.append(time.perf_counter() - t0)
+        print(json.dumps({'referenceSeconds': statistics.median(times), 'maxRelError': err, 'eigSeconds': statistics.median(eig_times), **note}))
     elif mode == 'pwm':
         pwm(d, runs, note)
     elif mode == 'eig':

@@ -112,6 +112,7 @@ const stagesOf = (text) =>
     .map(([name, s]) => `${name} ${Number(s).toFixed(3)} s`);
 
 const rows = [];
+const circuitEigRows = [];
 const stageNotes = [];
 // src/model/reduce.ts spreads whole matrices into Math.max(...), which overflows V8's default stack
 // (RangeError) from about 400 states; the circuit cases therefore run with a raised stack limit.
@@ -156,6 +157,15 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
       referenceSeconds: ref ? ref.referenceSeconds : null,
       ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
       maxRelError: ref ? ref.maxRelError : null,
+    });
+    circuitEigRows.push({
+      case: `eig-${name}`,
+      states: res.states,
+      samples: 0,
+      oursSeconds: res.eigSeconds,
+      referenceSeconds: ref ? ref.eigSeconds : null,
+      ratio: ref ? res.eigSeconds / ref.eigSeconds : null,
+      maxRelError: null,
     });
   }
 }
@@ -221,7 +231,7 @@ for (const n of EIG_SIZES) {
 if (JSON_OUT) {
   const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError', 'fineMaxRelError', 'fine1msMaxRelError'];
   const pick = (r) => Object.fromEntries(keys.filter((k) => k in r).map((k) => [k, r[k]]));
-  console.log(JSON.stringify([...rows, ...eigRows].map(pick), null, 2));
+  console.log(JSON.stringify([...rows, ...circuitEigRows, ...eigRows].map(pick), null, 2));
   for (const s of stageNotes) console.error(`stages ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
   console.error(`load average (1, 5, 15 min): ${LOAD_START} at start, ${load()} at the end`);
 } else {
@@ -253,6 +263,10 @@ if (JSON_OUT) {
   console.log('\nStage timings (one run each; the current simulate() rebuilds the model and modal form itself):');
   for (const s of stageNotes) console.log(`  ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
   if (pwm) console.log(`  pwm-long: ${pwm.wall.toFixed(1)} s wall with the references, load ${pwm.load}`);
+  console.log('\nEigen-decomposition of each circuit\'s own state matrix (values and vectors; ours picks the symmetric route');
+  console.log('when the matrix is diagonally similar to a symmetric one, as for RC networks) vs numpy.linalg.eig on the same matrix:\n');
+  console.log(['case'.padEnd(16), 'states'.padStart(6), 'ours s'.padStart(9), 'numpy s'.padStart(9), 'ratio'.padStart(7)].join('  '));
+  for (const r of circuitEigRows) console.log([r.case.padEnd(16), String(r.states).padStart(6), f(r.oursSeconds, 4).padStart(9), f(r.referenceSeconds, 4).padStart(9), f(r.ratio, 2).padStart(7)].join('  '));
   console.log('\nDense eigen-decomposition, random n×n (values and vectors) vs numpy.linalg.eig (values and vectors), and ml-matrix:\n');
   console.log(['n'.padStart(5), 'ours s'.padStart(9), 'numpy s'.padStart(9), 'ratio'.padStart(7), 'ml-matrix s'.padStart(12), 'ml/ours'.padStart(8), 'eig diff'.padStart(9), 'residual'.padStart(9)].join('  '));
   for (const r of eigRows) {

@@ -68,7 +68,8 @@ export function modalDecomposition(A: Mat): Modal {
   const parent = groups.map((_, i) => i);
   const find = (i: number): number => (parent[i] === i ? i : (parent[i] = find(parent[i])));
   const scaleOf = (i: number) => Math.hypot(re[i], im[i]);
-  const colSine = (a: number[], b: number[]) => subspaceSine(V, a, b);
+  const unit = unitColumns(V);
+  const colSine = (a: number[], b: number[]) => subspaceSine(unit, a, b);
   // Merge (a) equal eigenvalues, whatever their eigenvectors (repeated poles of identical
   // sections, several zero poles), and (b) close eigenvalues with nearly parallel eigenvectors
   // (critical damping and its neighbourhood). Sorted by real part, only neighbours within the
@@ -186,22 +187,36 @@ function symmetricInverse(A: Mat, W: Mat, cols: number[][]): Mat | null {
 }
 
 /** Sine of the largest principal angle between span(V[:,a]) and span(V[:,b]), roughly. */
-function subspaceSine(V: Mat, a: number[], b: number[]): number {
-  const unit = (j: number) => {
-    const c = V.map((row) => row[j]);
-    const s = Math.hypot(...c) || 1;
-    return c.map((v) => v / s);
-  };
+function subspaceSine(unit: (j: number) => Float64Array, a: number[], b: number[]): number {
   let best = 1;
   for (const i of a) {
     const u = unit(i);
     for (const j of b) {
       const w = unit(j);
-      const c = Math.abs(u.reduce((acc, v, k) => acc + v * w[k], 0));
+      let c = 0;
+      for (let k = 0; k < u.length; k++) c += u[k] * w[k];
+      c = Math.abs(c);
       best = Math.min(best, Math.sqrt(Math.max(0, 1 - c * c)));
     }
   }
   return best;
+}
+
+/** Unit-length columns of V, each normalized once when first asked for. */
+function unitColumns(V: Mat): (j: number) => Float64Array {
+  const cache = new Map<number, Float64Array>();
+  return (j) => {
+    let c = cache.get(j);
+    if (!c) {
+      c = Float64Array.from(V, (row) => row[j]);
+      let s = 0;
+      for (const v of c) s += v * v;
+      s = Math.sqrt(s) || 1;
+      for (let k = 0; k < c.length; k++) c[k] /= s;
+      cache.set(j, c);
+    }
+    return c;
+  };
 }
 
 /**
