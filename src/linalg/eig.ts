@@ -85,7 +85,17 @@ export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean; s
   // The Schur / eigenvector matrix is kept transposed (vt[j*n + i] = V[i][j]) while it is built:
   // the QR sweeps combine columns of V, which are then contiguous rows of vt.
   const vt = new Float64Array(n * n);
-  hessenberg(a, n, vt);
+  const order = opts.structured !== false ? pathOrder(patternAdjacency(a, n)) : null;
+  if (order) {
+    // a ladder (LC, RLC): reordered along its path it is tridiagonal, hence already Hessenberg,
+    // and the Householder reduction is skipped; the permutation is the starting Schur basis
+    const p = a.slice();
+    for (let i = 0; i < n; i++) {
+      const ri = order[i] * n;
+      for (let j = 0; j < n; j++) a[i * n + j] = p[ri + order[j]];
+      vt[i * n + order[i]] = 1;
+    }
+  } else hessenberg(a, n, vt);
   hqr2(a, n, vt, re, im);
   // undo the balancing (eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂) while transposing back
   for (let i = 0; i < n; i++) {
@@ -133,6 +143,20 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
   }
   normalizeColumns(V, n, im);
   return { n, re, im, V };
+}
+
+/** Neighbours of each index in the off-diagonal pattern of A + Aᵀ. */
+function patternAdjacency(a: Float64Array, n: number): number[][] {
+  const adj: number[][] = Array.from({ length: n }, () => []);
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      if (a[i * n + j] === 0 && a[j * n + i] === 0) continue;
+      adj[i].push(j);
+      adj[j].push(i);
+      if (adj[i].length > 2) return adj; // not a path: pathOrder refuses it at once
+    }
+  }
+  return adj;
 }
 
 function toRows(v: Float64Array, n: number): number[][] {
@@ -206,27 +230,70 @@ function hessenberg(H: Float64Array, n: number, Vt: Float64Array): void {
     if (ort[m] > 0) g = -g;
     h -= ort[m] * g;
     ort[m] -= g;
-    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h)
+    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h);
+    // four rows per pass over f, two per pass in the update, to cut loads and stores per product
     f.fill(0, m, n);
-    for (let i = m; i <= high; i++) {
+    let i = m;
+    for (; i + 3 <= high; i += 4) {
+      const o0 = ort[i];
+      const o1 = ort[i + 1];
+      const o2 = ort[i + 2];
+      const o3 = ort[i + 3];
+      const b0 = i * n;
+      const b1 = b0 + n;
+      const b2 = b1 + n;
+      const b3 = b2 + n;
+      for (let j = m; j < n; j++) f[j] += o0 * H[b0 + j] + o1 * H[b1 + j] + o2 * H[b2 + j] + o3 * H[b3 + j];
+    }
+    for (; i <= high; i++) {
       const oi = ort[i];
-      if (oi === 0) continue;
       const base = i * n;
       for (let j = m; j < n; j++) f[j] += oi * H[base + j];
     }
-    for (let i = m; i <= high; i++) {
-      const oi = ort[i] / h;
-      if (oi === 0) continue;
+    for (let j = m; j < n; j++) f[j] /= h;
+    i = m;
+    for (; i + 1 <= high; i += 2) {
+      const o0 = ort[i];
+      const o1 = ort[i + 1];
+      const b0 = i * n;
+      const b1 = b0 + n;
+      for (let j = m; j < n; j++) {
+        const fj = f[j];
+        H[b0 + j] -= o0 * fj;
+        H[b1 + j] -= o1 * fj;
+      }
+    }
+    for (; i <= high; i++) {
+      const oi = ort[i];
       const base = i * n;
       for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
     }
-    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high
-    for (let i = 0; i <= high; i++) {
+    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high, two rows at a time
+    i = 0;
+    for (; i + 1 <= high; i += 2) {
+      const b0 = i * n;
+      const b1 = b0 + n;
+      let s0 = 0;
+      let s1 = 0;
+      for (let j = m; j <= high; j++) {
+        const oj = ort[j];
+        s0 += oj * H[b0 + j];
+        s1 += oj * H[b1 + j];
+      }
+      s0 /= h;
+      s1 /= h;
+      for (let j = m; j <= high; j++) {
+        const oj = ort[j];
+        H[b0 + j] -= s0 * oj;
+        H[b1 + j] -= s1 * oj;
+      }
+    }
+    for (; i <= high; i++) {
       const base = i * n;
-      let s = 0;
-      for (let j = m; j <= high; j++) s += ort[j] * H[base + j];
-      s /= h;
-      for (let j = m; j <= high; j++) H[base + j] -= s * ort[j];
+      let s0 = 0;
+      for (let j = m; j <= high; j++) s0 += ort[j] * H[base + j];
+      s0 /= h;
+      for (let j = m; j <= high; j++) H[base + j] -= s0 * ort[j];
     }
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
@@ -269,6 +336,137 @@ function cdiv(xr: number, xi: number, yr: number, yi: number, out: Float64Array)
 const MAX_ITER_PER_EIGENVALUE = 60;
 
 /**
+ * The deferred part of one double-shift sweep with reflectors P_m..P_(n−1) (P_(n−1) acts on two
+ * rows only; an all-zero reflector is the identity):
+ *  - H := H·P_k on rows 0..k (row by row: each row meets the sweep's reflectors in order, so a
+ *    sliding window of three entries carries it, one load and one store per entry);
+ *  - H := P_k·H on columns n+1..nn−1 (right of the window, never touched by the chase);
+ *  - V := V·P_k, in the transposed storage Vt := P_kᵀ·Vt on rows k..k+2.
+ * Left and right products commute, and each row or column sees its own reflectors in order.
+ */
+function sweepRest(
+  H: Float64Array,
+  Vt: Float64Array,
+  nn: number,
+  m: number,
+  n: number,
+  rx: Float64Array,
+  ry: Float64Array,
+  rz: Float64Array,
+  rq: Float64Array,
+  rr: Float64Array,
+): void {
+  for (let i = 0; i <= n - 1; i++) {
+    const b = i * nn;
+    const k0 = Math.max(i, m);
+    let h0 = H[b + k0];
+    let h1 = H[b + k0 + 1];
+    for (let k = k0; k < n - 1; k++) {
+      const h2 = H[b + k + 2];
+      const pi = rx[k] * h0 + ry[k] * h1 + rz[k] * h2;
+      H[b + k] = h0 - pi;
+      h0 = h1 - pi * rq[k];
+      h1 = h2 - pi * rr[k];
+    }
+    const pi = rx[n - 1] * h0 + ry[n - 1] * h1;
+    H[b + n - 1] = h0 - pi;
+    H[b + n] = h1 - pi * rq[n - 1];
+  }
+  if (n + 1 < nn) applyLeft(H, nn, n + 1, nn, m, n, rx, ry, rz, rq, rr, false);
+  applyLeft(Vt, nn, 0, nn, m, n, rx, ry, rz, rq, rr, true);
+}
+
+/**
+ * M := P_k·M (transposed: false; P = I − v·uᵀ with v = (x, y, z), u = (1, q, r)) or M := P_kᵀ·M
+ * (transposed: true) on rows k..k+2, columns c0..c1−1, for k = m..n−1 in order. Two consecutive
+ * reflectors share one pass over the columns (four rows in registers).
+ */
+function applyLeft(
+  M: Float64Array,
+  nn: number,
+  c0: number,
+  c1: number,
+  m: number,
+  n: number,
+  rx: Float64Array,
+  ry: Float64Array,
+  rz: Float64Array,
+  rq: Float64Array,
+  rr: Float64Array,
+  transposed: boolean,
+): void {
+  // weights (W0, W1, W2) form the dot product, (E0, E1, E2) scale the update; null stands for 1
+  const W0 = transposed ? rx : null;
+  const W1 = transposed ? ry : rq;
+  const W2 = transposed ? rz : rr;
+  const E0 = transposed ? null : rx;
+  const E1 = transposed ? rq : ry;
+  const E2 = transposed ? rr : rz;
+  let k = m;
+  for (; k + 1 < n - 1; k += 2) {
+    const a0 = W0 ? W0[k] : 1;
+    const a1 = W1[k];
+    const a2 = W2[k];
+    const f0 = E0 ? E0[k] : 1;
+    const f1 = E1[k];
+    const f2 = E2[k];
+    const b0 = W0 ? W0[k + 1] : 1;
+    const b1 = W1[k + 1];
+    const b2 = W2[k + 1];
+    const g0 = E0 ? E0[k + 1] : 1;
+    const g1 = E1[k + 1];
+    const g2 = E2[k + 1];
+    const r0 = k * nn;
+    const r1 = r0 + nn;
+    const r2 = r1 + nn;
+    const r3 = r2 + nn;
+    for (let j = c0; j < c1; j++) {
+      let v0 = M[r0 + j];
+      let v1 = M[r1 + j];
+      let v2 = M[r2 + j];
+      let v3 = M[r3 + j];
+      const p = a0 * v0 + a1 * v1 + a2 * v2;
+      v0 -= p * f0;
+      v1 -= p * f1;
+      v2 -= p * f2;
+      const t = b0 * v1 + b1 * v2 + b2 * v3;
+      v1 -= t * g0;
+      v2 -= t * g1;
+      v3 -= t * g2;
+      M[r0 + j] = v0;
+      M[r1 + j] = v1;
+      M[r2 + j] = v2;
+      M[r3 + j] = v3;
+    }
+  }
+  for (; k <= n - 1; k++) {
+    const a0 = W0 ? W0[k] : 1;
+    const a1 = W1[k];
+    const f0 = E0 ? E0[k] : 1;
+    const f1 = E1[k];
+    const r0 = k * nn;
+    const r1 = r0 + nn;
+    if (k < n - 1) {
+      const a2 = W2[k];
+      const f2 = E2[k];
+      const r2 = r1 + nn;
+      for (let j = c0; j < c1; j++) {
+        const p = a0 * M[r0 + j] + a1 * M[r1 + j] + a2 * M[r2 + j];
+        M[r0 + j] -= p * f0;
+        M[r1 + j] -= p * f1;
+        M[r2 + j] -= p * f2;
+      }
+    } else {
+      for (let j = c0; j < c1; j++) {
+        const p = a0 * M[r0 + j] + a1 * M[r1 + j];
+        M[r0 + j] -= p * f0;
+        M[r1 + j] -= p * f1;
+      }
+    }
+  }
+}
+
+/**
  * Francis double-shift QR on the Hessenberg matrix H (row-major, in place) with deflation,
  * accumulating the Schur vectors in V, followed by back-substitution for the eigenvectors of the
  * quasi-triangular form and back-transformation V := V·X.
@@ -297,6 +495,12 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
     e.fill(0);
     return;
   }
+  // the reflectors of the current sweep: P_k = I − (x, y, z)·(1, q, r)ᵀ on rows/columns k..k+2
+  const rx = new Float64Array(nn);
+  const ry = new Float64Array(nn);
+  const rz = new Float64Array(nn);
+  const rq = new Float64Array(nn);
+  const rr = new Float64Array(nn);
   let iter = 0;
   let totalIter = 0;
   const maxTotal = MAX_ITER_PER_EIGENVALUE * Math.max(nn, 1);
@@ -425,9 +629,12 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         H[i * nn + i - 2] = 0;
         if (i > m + 2) H[i * nn + i - 3] = 0;
       }
-      // double QR step on rows l..n and columns m..n
+      // Double QR step on rows l..n and columns m..n. The bulge chase itself only needs the
+      // window and the three rows below each reflector; the rest is deferred to sweepRest, which
+      // applies the whole sweep at once along contiguous memory (same products, less traffic).
       for (let k = m; k <= n - 1; k++) {
         const notlast = k !== n - 1;
+        rx[k] = ry[k] = rz[k] = rq[k] = rr[k] = 0; // identity unless a reflector is formed
         if (k !== m) {
           p = H[k * nn + k - 1];
           q = H[(k + 1) * nn + k - 1];
@@ -449,54 +656,50 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         z = r / s;
         q /= p;
         r /= p;
+        rx[k] = x;
+        ry[k] = y;
+        rz[k] = z;
+        rq[k] = q;
+        rr[k] = r;
         const bk = k * nn;
         const bk1 = bk + nn;
         const bk2 = bk1 + nn;
-        // row modification
+        // row modification inside the window (columns k..n)
         if (notlast) {
-          for (let j = k; j < nn; j++) {
+          for (let j = k; j <= n; j++) {
             const pj = H[bk + j] + q * H[bk1 + j] + r * H[bk2 + j];
             H[bk + j] -= pj * x;
             H[bk1 + j] -= pj * y;
             H[bk2 + j] -= pj * z;
           }
         } else {
-          for (let j = k; j < nn; j++) {
+          for (let j = k; j <= n; j++) {
             const pj = H[bk + j] + q * H[bk1 + j];
             H[bk + j] -= pj * x;
             H[bk1 + j] -= pj * y;
           }
         }
-        // column modification
+        // column modification of the rows below the reflector (k+1..k+3): the chase reads them next;
+        // rows 0..k are never combined again in this sweep, so their update waits for sweepRest
         const iEnd = Math.min(n, k + 3);
         if (notlast) {
-          for (let i = 0; i <= iEnd; i++) {
+          for (let i = k + 1; i <= iEnd; i++) {
             const b = i * nn + k;
             const pi = x * H[b] + y * H[b + 1] + z * H[b + 2];
             H[b] -= pi;
             H[b + 1] -= pi * q;
             H[b + 2] -= pi * r;
           }
-          for (let i = low; i <= high; i++) {
-            const pi = x * Vt[bk + i] + y * Vt[bk1 + i] + z * Vt[bk2 + i];
-            Vt[bk + i] -= pi;
-            Vt[bk1 + i] -= pi * q;
-            Vt[bk2 + i] -= pi * r;
-          }
         } else {
-          for (let i = 0; i <= iEnd; i++) {
+          for (let i = k + 1; i <= iEnd; i++) {
             const b = i * nn + k;
             const pi = x * H[b] + y * H[b + 1];
             H[b] -= pi;
             H[b + 1] -= pi * q;
           }
-          for (let i = low; i <= high; i++) {
-            const pi = x * Vt[bk + i] + y * Vt[bk1 + i];
-            Vt[bk + i] -= pi;
-            Vt[bk1 + i] -= pi * q;
-          }
         }
       }
+      sweepRest(H, Vt, nn, m, n, rx, ry, rz, rq, rr);
     }
   }
 
