@@ -49,6 +49,43 @@ function monomials(terms: Term[]): Monos {
   return m;
 }
 
+/** The monomials of `terms` into `m` (reused), zero coefficients kept: the layout is the terms' shape. */
+function monomialsInto(terms: Term[], m: Monos): Monos {
+  let n = 0;
+  const put = (re: number, im: number, k: number, kr: number, ki: number) => {
+    m.cre[n] = re;
+    m.cim[n] = im;
+    m.k[n] = k;
+    m.kre[n] = kr;
+    m.kim[n] = ki;
+    n++;
+  };
+  for (const t of terms) {
+    switch (t.kind) {
+      case 'exp':
+        put(t.coef, 0, 0, t.lambda, 0);
+        break;
+      case 'poly-exp':
+        for (let k = 0; k < t.polyCoefs.length; k++) put(t.polyCoefs[k], 0, k, t.lambda, 0);
+        break;
+      case 'osc':
+        put(t.cosCoef, -t.sinCoef, 0, t.sigma, t.omega);
+        break;
+      case 'quasi': {
+        const len = Math.max(t.cosPoly.length, t.sinPoly.length);
+        for (let k = 0; k < len; k++) put(t.cosPoly[k] ?? 0, -(t.sinPoly[k] ?? 0), k, t.sigma, t.omega);
+        break;
+      }
+    }
+  }
+  m.cre.length = n;
+  m.cim.length = n;
+  m.k.length = n;
+  m.kre.length = n;
+  m.kim.length = n;
+  return m;
+}
+
 // output slots of powerExpIntegralInto (no allocation on the hot path)
 let outRe = 0;
 let outIm = 0;
@@ -81,10 +118,11 @@ function powerExpIntegralInto(k: number, kr: number, ki: number, T: number): voi
     outIm = si;
     return;
   }
-  // I_0 = (e^(κT) − 1)/κ,  I_j = (T^j·e^(κT) − j·I_(j−1))/κ
-  const m = Math.exp(zr);
-  const er = m * Math.cos(zi);
-  const ei = m * Math.sin(zi);
+  // I_0 = (e^(κT) − 1)/κ,  I_j = (T^j·e^(κT) − j·I_(j−1))/κ; e^(κT) is exactly 0 in doubles below
+  // e^(−746) (a fast mode over a long span: most pairs of a large circuit), so skip cos and sin
+  const m = zr < -746 ? 0 : Math.exp(zr);
+  const er = m === 0 ? 0 : m * Math.cos(zi);
+  const ei = m === 0 ? 0 : m * Math.sin(zi);
   const den = kr * kr + ki * ki;
   const div = (ar: number, ai: number) => {
     outRe = (ar * kr + ai * ki) / den;
@@ -116,22 +154,232 @@ export function integrateTerms(terms: Term[], T: number): number {
 /** ∫0^T f·g dτ for two sums of terms. */
 export function integrateProduct(f: Term[], g: Term[], T: number): number {
   const a = monomials(f);
-  const b = monomials(g);
+  // f·f: the pair (x, y) gives what (y, x) gives, so each pair once
+  return f === g ? squareOf(a, T) : productOf(a, monomials(g), T);
+}
+
+function productOf(a: Monos, b: Monos, T: number): number {
   let s = 0;
   for (let x = 0; x < a.k.length; x++) {
-    for (let y = 0; y < b.k.length; y++) {
-      // Re[X]·Re[Y] = ½·Re[X·Y + X·conj(Y)]
-      const k = a.k[x] + b.k[y];
-      const pr = a.cre[x] * b.cre[y] - a.cim[x] * b.cim[y];
-      const pi = a.cre[x] * b.cim[y] + a.cim[x] * b.cre[y];
-      powerExpIntegralInto(k, a.kre[x] + b.kre[y], a.kim[x] + b.kim[y], T);
-      let re = pr * outRe - pi * outIm;
-      const qr = a.cre[x] * b.cre[y] + a.cim[x] * b.cim[y];
-      const qi = -a.cre[x] * b.cim[y] + a.cim[x] * b.cre[y];
-      powerExpIntegralInto(k, a.kre[x] + b.kre[y], a.kim[x] - b.kim[y], T);
-      re += qr * outRe - qi * outIm;
-      s += 0.5 * re;
-    }
+    for (let y = 0; y < b.k.length; y++) s += pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], b.cre[y], b.cim[y], b.k[y], b.kre[y], b.kim[y], T);
   }
   return s;
+}
+
+function squareOf(a: Monos, T: number): number {
+  let s = 0;
+  for (let x = 0; x < a.k.length; x++) {
+    s += pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], T);
+    for (let y = x + 1; y < a.k.length; y++) s += 2 * pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], a.cre[y], a.cim[y], a.k[y], a.kre[y], a.kim[y], T);
+  }
+  return s;
+}
+
+/** ∫0^T Re[X]·Re[Y] dτ for two monomials X = c·τ^k·e^(κτ). */
+function pairIntegral(ar: number, ai: number, ak: number, akr: number, aki: number, br: number, bi: number, bk: number, bkr: number, bki: number, T: number): number {
+  // Re[X]·Re[Y] = ½·Re[X·Y + X·conj(Y)]
+  const k = ak + bk;
+  const pr = ar * br - ai * bi;
+  const pi = ar * bi + ai * br;
+  powerExpIntegralInto(k, akr + bkr, aki + bki, T);
+  let re = pr * outRe - pi * outIm;
+  const qr = ar * br + ai * bi;
+  const qi = -ar * bi + ai * br;
+  powerExpIntegralInto(k, akr + bkr, aki - bki, T);
+  re += qr * outRe - qi * outIm;
+  return 0.5 * re;
+}
+
+/**
+ * ∫0^T f and ∫0^T f² for many pieces of a few shapes (the cycles of a long pulse train). Pieces
+ * of one length whose terms have the same exponents and powers (one "layout") differ only in
+ * coefficients, mostly only in those of the free response: ∫f² is a quadratic form in the
+ * coefficient vector c, ∫f a linear one, with matrices of monomial integrals fixed by the layout.
+ * The layout keeps its first piece's coefficients c0 and the set V of monomials seen to differ from
+ * them; with F = c0 off V and d = c on V, ∫f² = Q(F) + 2·B(F, d) + Q(d), where Q(F) and the vector
+ * of B(F, ·) are computed once: a piece then costs |V|² pair terms instead of all pairs. The
+ * same sum as integrateProduct, regrouped (so equal to rounding).
+ */
+export class RepeatedIntegrals {
+  /** results of the last `integrate` call */
+  sum = 0;
+  square = 0;
+  private readonly byLength = new Map<number, Layout[]>();
+  private readonly scratch: Monos = { cre: [], cim: [], k: [], kre: [], kim: [] };
+  private layouts = 0;
+
+  /** ∫0^T f dτ into `sum` and ∫0^T f² dτ into `square`. */
+  integrate(terms: Term[], T: number): void {
+    const m = monomialsInto(terms, this.scratch);
+    const M = m.k.length;
+    if (M > MAX_LAYOUT || this.layouts >= MAX_LAYOUTS) {
+      this.sum = integrateTerms(terms, T);
+      this.square = integrateProduct(terms, terms, T);
+      return;
+    }
+    let list = this.byLength.get(T);
+    if (!list) this.byLength.set(T, (list = []));
+    let L = list.find((l) => sameLayout(l, m));
+    if (!L) {
+      L = makeLayout(m, T);
+      list.push(L);
+      this.layouts++;
+    }
+    // widen V to every monomial whose coefficient differs from the layout's first piece
+    let widened = false;
+    for (let x = 0; x < M; x++) {
+      if (!L.varying[x] && (m.cre[x] !== L.c0re[x] || m.cim[x] !== L.c0im[x])) {
+        L.varying[x] = 1;
+        widened = true;
+      }
+    }
+    if (widened) fixedPart(L);
+    let sum = L.fixedSum;
+    let sq = L.fixedSquare;
+    const V = L.vlist;
+    for (let i = 0; i < V.length; i++) {
+      const y = V[i]!;
+      const dr = m.cre[y];
+      const di = m.cim[y];
+      sum += dr * L.Ire[y]! - di * L.Iim[y]!;
+      sq += dr * L.wre[y]! - di * L.wim[y]!;
+      for (let j = 0; j < V.length; j++) {
+        const x = V[j]!;
+        const xr = m.cre[x];
+        const xi = m.cim[x];
+        const at = x * M + y;
+        // ½·Re[d_x·d_y·G1 + d_x·conj(d_y)·G2]
+        const pr = xr * dr - xi * di;
+        const pi = xr * di + xi * dr;
+        const qr = xr * dr + xi * di;
+        const qi = -xr * di + xi * dr;
+        sq += 0.5 * (pr * L.G1re[at]! - pi * L.G1im[at]! + qr * L.G2re[at]! - qi * L.G2im[at]!);
+      }
+    }
+    this.sum = sum;
+    this.square = sq;
+  }
+}
+
+/** Largest layout (monomials) worth caching, and most layouts kept per measurement. */
+const MAX_LAYOUT = 32;
+const MAX_LAYOUTS = 4096;
+
+interface Layout {
+  k: number[];
+  kre: number[];
+  kim: number[];
+  /** ∫ τ^k·e^(κτ) per monomial */
+  Ire: Float64Array;
+  Iim: Float64Array;
+  /** per pair (x·M + y): ∫ τ^(kx+ky)·e^((κx + κy)τ) and ∫ τ^(kx+ky)·e^((κx + conj κy)τ) */
+  G1re: Float64Array;
+  G1im: Float64Array;
+  G2re: Float64Array;
+  G2im: Float64Array;
+  c0re: number[];
+  c0im: number[];
+  varying: Uint8Array;
+  vlist: number[];
+  /** ∫F, ∫F² and w_y = Σ_x F_x·G1_xy + conj(F_x·G2_xy) for the fixed part F */
+  fixedSum: number;
+  fixedSquare: number;
+  wre: Float64Array;
+  wim: Float64Array;
+}
+
+function sameLayout(l: Layout, m: Monos): boolean {
+  const M = m.k.length;
+  if (l.k.length !== M) return false;
+  for (let x = 0; x < M; x++) if (l.k[x] !== m.k[x] || l.kre[x] !== m.kre[x] || l.kim[x] !== m.kim[x]) return false;
+  return true;
+}
+
+function makeLayout(m: Monos, T: number): Layout {
+  const M = m.k.length;
+  const Ire = new Float64Array(M);
+  const Iim = new Float64Array(M);
+  for (let x = 0; x < M; x++) {
+    powerExpIntegralInto(m.k[x], m.kre[x], m.kim[x], T);
+    Ire[x] = outRe;
+    Iim[x] = outIm;
+  }
+  const G1re = new Float64Array(M * M);
+  const G1im = new Float64Array(M * M);
+  const G2re = new Float64Array(M * M);
+  const G2im = new Float64Array(M * M);
+  for (let x = 0; x < M; x++) {
+    for (let y = 0; y < M; y++) {
+      const k = m.k[x] + m.k[y];
+      powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] + m.kim[y], T);
+      G1re[x * M + y] = outRe;
+      G1im[x * M + y] = outIm;
+      powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] - m.kim[y], T);
+      G2re[x * M + y] = outRe;
+      G2im[x * M + y] = outIm;
+    }
+  }
+  const L: Layout = {
+    k: m.k.slice(),
+    kre: m.kre.slice(),
+    kim: m.kim.slice(),
+    Ire,
+    Iim,
+    G1re,
+    G1im,
+    G2re,
+    G2im,
+    c0re: m.cre.slice(),
+    c0im: m.cim.slice(),
+    varying: new Uint8Array(M),
+    vlist: [],
+    fixedSum: 0,
+    fixedSquare: 0,
+    wre: new Float64Array(M),
+    wim: new Float64Array(M),
+  };
+  fixedPart(L);
+  return L;
+}
+
+/** ∫F, ∫F² and w for the fixed part F of a layout (c0 off the varying set). */
+function fixedPart(L: Layout): void {
+  const M = L.k.length;
+  L.vlist = [];
+  for (let x = 0; x < M; x++) if (L.varying[x]) L.vlist.push(x);
+  const Fr = (x: number) => (L.varying[x] ? 0 : L.c0re[x]!);
+  const Fi = (x: number) => (L.varying[x] ? 0 : L.c0im[x]!);
+  let sum = 0;
+  let sq = 0;
+  for (let x = 0; x < M; x++) {
+    const ar = Fr(x);
+    const ai = Fi(x);
+    sum += ar * L.Ire[x]! - ai * L.Iim[x]!;
+    for (let y = 0; y < M; y++) {
+      const br = Fr(y);
+      const bi = Fi(y);
+      const at = x * M + y;
+      const pr = ar * br - ai * bi;
+      const pi = ar * bi + ai * br;
+      const qr = ar * br + ai * bi;
+      const qi = -ar * bi + ai * br;
+      sq += 0.5 * (pr * L.G1re[at]! - pi * L.G1im[at]! + qr * L.G2re[at]! - qi * L.G2im[at]!);
+    }
+  }
+  L.fixedSum = sum;
+  L.fixedSquare = sq;
+  for (let y = 0; y < M; y++) {
+    let wr = 0;
+    let wi = 0;
+    for (let x = 0; x < M; x++) {
+      const ar = Fr(x);
+      const ai = Fi(x);
+      const at = x * M + y;
+      // F_x·G1_xy + conj(F_x·G2_xy)
+      wr += ar * L.G1re[at]! - ai * L.G1im[at]! + (ar * L.G2re[at]! - ai * L.G2im[at]!);
+      wi += ar * L.G1im[at]! + ai * L.G1re[at]! - (ar * L.G2im[at]! + ai * L.G2re[at]!);
+    }
+    L.wre[y] = wr;
+    L.wim[y] = wi;
+  }
 }

@@ -80,3 +80,128 @@ export function termsSlope(terms: Term[], tau: number): number {
   for (const t of terms) s += termSlope(t, tau);
   return s;
 }
+
+/**
+ * A sum of terms regrouped by exponent: Σ_g Re[P_g(τ)·e^(κ_g·τ)], P_g a polynomial with complex
+ * coefficients. Terms with the same exponent (a mode's free response and the particular solution
+ * that shares it, an oscillation's cosine and sine) cost one exponential together, and derivatives
+ * are the same layout with new coefficients: d/dτ (c_k·τ^k·e^(κτ)) = κ·c_k·τ^k·e^(κτ) + k·c_k·τ^(k−1)·e^(κτ).
+ */
+export interface Groups {
+  /** number of groups */
+  n: number;
+  /** exponent κ = kr + j·ki per group */
+  kr: number[];
+  ki: number[];
+  /** group g owns coefficients off[g] .. off[g+1]−1 (power 0 first) */
+  off: number[];
+  cr: number[];
+  ci: number[];
+}
+
+/** An empty grouped sum, to be filled by groupTerms or groupsDerivative (scratch reused per piece). */
+export function emptyGroups(): Groups {
+  return { n: 0, kr: [], ki: [], off: [0], cr: [], ci: [] };
+}
+
+/**
+ * Regroups terms by exponent (e^(στ)(a cos ωτ + b sin ωτ) = Re[(a − jb)·e^((σ + jω)τ)]), into `out`
+ * when given (its arrays are reused: long pulse trains group tens of thousands of pieces).
+ */
+export function groupTerms(terms: readonly Term[], out: Groups = emptyGroups()): Groups {
+  // first pass: the exponents and each group's polynomial length (kept in off[g + 1]); second: the coefficients
+  const { kr, ki, off, cr, ci } = out;
+  let n = 0;
+  for (let i = 0; i < terms.length; i++) {
+    const t = terms[i]!;
+    const a = t.kind === 'exp' || t.kind === 'poly-exp' ? t.lambda : t.sigma;
+    const w = t.kind === 'exp' || t.kind === 'poly-exp' ? 0 : t.omega;
+    const len = t.kind === 'poly-exp' ? t.polyCoefs.length : t.kind === 'quasi' ? Math.max(t.cosPoly.length, t.sinPoly.length) : 1;
+    let g = 0;
+    while (g < n && !(kr[g] === a && ki[g] === w)) g++;
+    if (g === n) {
+      kr[n] = a;
+      ki[n] = w;
+      off[n + 1] = 1;
+      n++;
+    }
+    if (len > off[g + 1]!) off[g + 1] = len;
+  }
+  off[0] = 0;
+  for (let g = 0; g < n; g++) off[g + 1] = off[g]! + off[g + 1]!;
+  for (let i = 0; i < off[n]!; i++) {
+    cr[i] = 0;
+    ci[i] = 0;
+  }
+  for (let i = 0; i < terms.length; i++) {
+    const t = terms[i]!;
+    const a = t.kind === 'exp' || t.kind === 'poly-exp' ? t.lambda : t.sigma;
+    const w = t.kind === 'exp' || t.kind === 'poly-exp' ? 0 : t.omega;
+    let g = 0;
+    while (!(kr[g] === a && ki[g] === w)) g++;
+    const o = off[g]!;
+    switch (t.kind) {
+      case 'exp':
+        cr[o] += t.coef;
+        break;
+      case 'poly-exp':
+        for (let k = 0; k < t.polyCoefs.length; k++) cr[o + k] += t.polyCoefs[k]!;
+        break;
+      case 'osc':
+        cr[o] += t.cosCoef;
+        if (t.omega !== 0) ci[o] -= t.sinCoef;
+        break;
+      case 'quasi':
+        for (let k = 0; k < t.cosPoly.length; k++) cr[o + k] += t.cosPoly[k]!;
+        if (t.omega !== 0) for (let k = 0; k < t.sinPoly.length; k++) ci[o + k] -= t.sinPoly[k]!;
+        break;
+    }
+  }
+  out.n = n;
+  return out;
+}
+
+/** d/dτ of a grouped sum: the same layout (shared), new coefficients (into `out` when given). */
+export function groupsDerivative(g: Groups, out: Groups = emptyGroups()): Groups {
+  const cr = out.cr;
+  const ci = out.ci;
+  for (let q = 0; q < g.n; q++) {
+    const a = g.kr[q]!;
+    const w = g.ki[q]!;
+    const start = g.off[q]!;
+    const end = g.off[q + 1]!;
+    for (let i = start; i < end; i++) {
+      const k = i - start;
+      const nr = i + 1 < end ? (k + 1) * g.cr[i + 1]! : 0;
+      const ni = i + 1 < end ? (k + 1) * g.ci[i + 1]! : 0;
+      cr[i] = a * g.cr[i]! - w * g.ci[i]! + nr;
+      ci[i] = a * g.ci[i]! + w * g.cr[i]! + ni;
+    }
+  }
+  out.n = g.n;
+  out.kr = g.kr;
+  out.ki = g.ki;
+  out.off = g.off;
+  return out;
+}
+
+/** Value of a grouped sum at τ. */
+export function groupsValue(g: Groups, tau: number): number {
+  let s = 0;
+  for (let q = 0; q < g.n; q++) {
+    const a = g.kr[q]!;
+    const w = g.ki[q]!;
+    let pr = 0;
+    let pi = 0;
+    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) {
+      pr = pr * tau + g.cr[i]!;
+      pi = pi * tau + g.ci[i]!;
+    }
+    if (w === 0) s += a === 0 ? pr : pr * Math.exp(a * tau);
+    else {
+      const m = a === 0 ? 1 : Math.exp(a * tau);
+      s += m * (pr * Math.cos(w * tau) - pi * Math.sin(w * tau));
+    }
+  }
+  return s;
+}

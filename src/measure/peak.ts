@@ -84,19 +84,11 @@ export function walkDerivative(
 export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 'extra'> & { minIntervals?: number }): number[] {
   const { lo, hi } = s;
   const width = hi - lo;
-  // a piece much shorter than its fastest time constant (the cycles of a long pulse train) is
-  // nearly a low-order polynomial there: 8 intervals bracket its few extrema
-  const floorCount = s.minIntervals ?? (s.rate > 0 && Number.isFinite(s.rate) && width * s.rate < 1 ? 8 : MIN_INTERVALS);
-  const m = Math.min(MAX_INTERVALS, Math.max(floorCount, Math.ceil((width * s.omega) / PHASE_STEP)));
+  const floorCount = gridFloor(width, s.rate, s.minIntervals);
+  const m = uniformIntervals(width, s.omega, floorCount);
   const grid: number[] = [];
   for (let k = 0; k <= m; k++) grid.push(k === m ? hi : lo + (width * k) / m);
-  // geometric steps towards lo, down to a hundredth of the fastest time constant
-  if (s.rate > 0 && Number.isFinite(s.rate)) {
-    const floor = 0.01 / s.rate;
-    for (let h = width / 2; h > floor && h > width * 1e-15; h /= 2) {
-      for (const u of [h, 0.75 * h]) grid.push(lo + u);
-    }
-  }
+  geometricSteps(lo, width, s.rate, grid);
   if (s.extra) {
     const e = s.extra;
     let a = 0;
@@ -110,6 +102,28 @@ export function searchGrid(s: Pick<PeakSearch, 'lo' | 'hi' | 'omega' | 'rate' | 
   }
   grid.sort((x, y) => x - y);
   return grid;
+}
+
+/** Fewest uniform intervals of the search grid over a stretch of this width. */
+export function gridFloor(width: number, rate: number, minIntervals?: number): number {
+  // a piece much shorter than its fastest time constant (the cycles of a long pulse train) is
+  // nearly a low-order polynomial there: 8 intervals bracket its few extrema
+  return minIntervals ?? (rate > 0 && Number.isFinite(rate) && width * rate < 1 ? 8 : MIN_INTERVALS);
+}
+
+/** Uniform intervals of the search grid: at most π/4 of the fastest oscillation each, at least `floorCount`. */
+export function uniformIntervals(width: number, omega: number, floorCount: number): number {
+  return Math.min(MAX_INTERVALS, Math.max(floorCount, Math.ceil((width * omega) / PHASE_STEP)));
+}
+
+/** Geometric steps towards lo, down to a hundredth of the fastest time constant (unsorted, appended to `out`). */
+export function geometricSteps(lo: number, width: number, rate: number, out: number[]): void {
+  if (rate > 0 && Number.isFinite(rate)) {
+    const floor = 0.01 / rate;
+    for (let h = width / 2; h > floor && h > width * 1e-15; h /= 2) {
+      out.push(lo + h, lo + 0.75 * h);
+    }
+  }
 }
 
 /** Fastest angular frequency among a piece's terms. */

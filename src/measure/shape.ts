@@ -1,8 +1,11 @@
 import type { Piece, Term } from '../simulate/result.js';
 import { firstReach } from './crossing.js';
-import { derivativeTerm, pieceIndexAt, termValue } from './evaluate.js';
-import { integrateProduct, integrateTerms } from '../lti/integrate.js';
-import { clipPieces, peakMagnitude, termsOmega, termsRate } from './peak.js';
+import { pieceIndexAt } from './evaluate.js';
+import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
+import { emptyGroups, type Groups, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
+import { clipPieces, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
+import { findRoot } from './root.js';
+import { Sweeper, uniformStep } from './sweep.js';
 import type { Track } from './track.js';
 
 /**
@@ -107,21 +110,103 @@ export function ringing(pieces: readonly Piece[], start: number, end: number, fl
  * Largest |dy/dt| over the span inside the pieces: per piece, the ends and every root of the second
  * derivative, bracketed on a grid and refined by Brent's method. A jump between pieces (an ideal
  * step passed straight through) is not a slope and is left out. null without pieces.
+ *
+ * Pieces are searched in time order and a later piece wins only when larger by more than 1e-12
+ * (relative). A piece whose bound Σ|c_k|·τ^k·e^(Re κ·τ) on |dy/dt| stays below the largest slope at
+ * any piece start (divided by that margin twice) can neither win nor block a winner, so it is not
+ * searched: a long pulse train searches only the few pieces where the slope can be largest.
  */
 export function maxSlope(pieces: readonly Piece[], start: number, end: number, extra?: ArrayLike<number>): { value: number; time: number } | null {
+  const clipped = clipPieces(pieces, start, end);
+  if (clipped.length === 0) return null;
+  const G = emptyGroups();
+  const D1 = emptyGroups();
+  const D2 = emptyGroups();
+  // bounds: |y'| at each piece's first instant (a value it reaches) and above it over the piece
+  const upper = new Float64Array(clipped.length);
+  let reached = 0;
+  clipped.forEach(({ piece, lo, hi }, i) => {
+    groupTerms(piece.terms, G);
+    groupsDerivative(G, D1);
+    const a = lo - piece.t0;
+    const b = hi - piece.t0;
+    const v = Math.abs(groupsValue(D1, a));
+    if (v > reached) reached = v;
+    upper[i] = a >= 0 ? groupsBound(D1, a, b) : Infinity;
+  });
+  const sweeper = new Sweeper();
+  const extraStep = extra ? uniformStep(extra) : NaN;
+  const cut = reached / (1 + TIE) ** 2;
   let best: { value: number; time: number } | null = null;
-  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
-    const d1 = piece.terms.map(derivativeTerm);
-    const d2 = d1.map(derivativeTerm);
-    const sum = (terms: Term[]) => (t: number) => {
-      let s = 0;
-      for (const term of terms) s += termValue(term, t - piece.t0);
-      return s;
-    };
-    const p = peakMagnitude({ f: sum(d1), df: sum(d2), lo, hi, omega: termsOmega(piece.terms), rate: termsRate(piece.terms), extra });
+  clipped.forEach(({ piece, lo, hi }, i) => {
+    // the bound is NaN when the terms are: search such a piece
+    if (upper[i]! < cut) return;
+    const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
     if (best === null || p.value > best.value * (1 + 1e-12)) best = { value: p.value, time: p.time };
+  });
+  const found = best as { value: number; time: number } | null;
+  if (found && Math.abs(found.time - start) <= 1e-12 * (end - start)) found.time = start;
+  return found;
+}
+
+/** An upper bound of |Σ groups| over τ ∈ [a, b] (0 ≤ a ≤ b): Σ_g Σ_k |c_k|·b^k·max(e^(Re κ·a), e^(Re κ·b)). */
+function groupsBound(g: Groups, a: number, b: number): number {
+  let s = 0;
+  for (let q = 0; q < g.n; q++) {
+    let p = 0;
+    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) p = p * b + Math.hypot(g.cr[i]!, g.ci[i]!);
+    if (p === 0) continue;
+    const kr = g.kr[q]!;
+    s += kr === 0 ? p : p * Math.exp(Math.max(kr * a, kr * b));
   }
-  if (best && Math.abs(best.time - start) <= 1e-12 * (end - start)) best.time = start;
+  return s;
+}
+
+/**
+ * max |y'| on one piece [lo, hi] (the search of peak.ts peakMagnitude): the ends, every root of y''
+ * between two grid points where it changes sign (Brent's method on the exact y''), and grid points
+ * where y'' is exactly 0; the earliest time on a tie (values within 1e-12 relative).
+ */
+function pieceSlope(piece: Piece, lo: number, hi: number, sweeper: Sweeper, extra: ArrayLike<number> | undefined, extraStep: number, G: Groups, D1: Groups, D2: Groups): MagnitudePeak {
+  const t0 = piece.t0;
+  groupTerms(piece.terms, G);
+  groupsDerivative(G, D1);
+  groupsDerivative(D1, D2);
+  const f = (t: number) => groupsValue(D1, t - t0);
+  const df = (t: number) => groupsValue(D2, t - t0);
+  const best: MagnitudePeak = { value: Math.abs(f(lo)), time: lo };
+  const consider = (t: number) => {
+    const y = Math.abs(f(t));
+    if (y > best.value * (1 + TIE) || (Number.isNaN(best.value) && !Number.isNaN(y))) {
+      best.value = y;
+      best.time = t;
+    }
+  };
+  if (!(hi > lo)) return best;
+  const width = hi - lo;
+  const rate = termsRate(piece.terms);
+  const floorCount = gridFloor(width, rate);
+  const points: number[] = [];
+  geometricSteps(lo, width, rate, points);
+  const m = uniformIntervals(width, termsOmega(piece.terms), floorCount);
+  const count = sweeper.grid([D2], { t0, lo, hi, m, minIntervals: floorCount, extra, extraStep, points });
+  const ts = sweeper.ts;
+  const ds = sweeper.vals[0]!;
+  let prevT = ts[0]!;
+  let prevD = ds[0]!;
+  for (let k = 1; k < count; k++) {
+    const t = ts[k]!;
+    if (t === prevT) continue;
+    const d = ds[k]!;
+    if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
+      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
+      if (r > prevT && r < t) consider(r);
+    }
+    if (d === 0 && k < count - 1) consider(t);
+    prevT = t;
+    prevD = d;
+  }
+  consider(hi);
   return best;
 }
 
@@ -136,12 +221,20 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
   let sum = 0;
   let sq = 0;
   let impulse = false;
+  // the cycles of a pulse train share their integrals (see RepeatedIntegrals)
+  const cycles = new RepeatedIntegrals();
   for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
     const a = lo - piece.t0;
     const b = hi - piece.t0;
     const terms = piece.terms;
-    sum += integrateTerms(terms, b) - (a > 0 ? integrateTerms(terms, a) : 0);
-    sq += integrateProduct(terms, terms, b) - (a > 0 ? integrateProduct(terms, terms, a) : 0);
+    if (a > 0) {
+      sum += integrateTerms(terms, b) - integrateTerms(terms, a);
+      sq += integrateProduct(terms, terms, b) - integrateProduct(terms, terms, a);
+    } else {
+      cycles.integrate(terms, b);
+      sum += cycles.sum;
+      sq += cycles.square;
+    }
     if (piece.impulseArea !== 0 && piece.t0 >= start && piece.t0 < end) {
       sum += piece.impulseArea;
       impulse = true;

@@ -1,6 +1,9 @@
 import type { Piece } from '../simulate/result.js';
-import { maxOmega, pieceDerivative, pieceValue } from './evaluate.js';
-import { searchGrid, walkDerivative } from './peak.js';
+import { emptyGroups, type Groups, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
+import { maxOmega, pieceValue } from './evaluate.js';
+import { uniformIntervals } from './peak.js';
+import { findRoot } from './root.js';
+import { Sweeper, uniformStep } from './sweep.js';
 
 /**
  * A signal prepared for measurement: a list of continuous stretches (one per piece of the closed
@@ -34,6 +37,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
+  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups() };
   const stretches: Stretch[] = [];
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
@@ -44,27 +48,67 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     // a piece covering a small part of the span needs proportionally fewer grid intervals
     // (a long pulse train has tens of thousands of short pieces); never fewer than 8
     const share = end > start ? (hi - lo) / (end - start) : 1;
-    stretches.push(pieceStretch(piece, lo, hi, times, Math.max(8, Math.ceil(MIN_INTERVALS * share))));
+    stretches.push(pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share))));
   }
   if (stretches.length === 0) {
     // Every piece lies outside the span: measure the last piece over the span.
-    stretches.push(pieceStretch(pieces[pieces.length - 1]!, start, end, times));
+    stretches.push(pieceStretch(pieces[pieces.length - 1]!, start, end, ctx));
   }
   return { stretches, start, end };
 }
 
-function pieceStretch(piece: Piece, lo: number, hi: number, times: Float64Array, minIntervals = MIN_INTERVALS): Stretch {
+interface Ctx {
+  times: Float64Array;
+  /** the sample step when the times are equally spaced, else NaN */
+  step: number;
+  sweeper: Sweeper;
+  /** scratch: the piece's terms grouped by exponent, and their derivative */
+  G: Groups;
+  D: Groups;
+}
+
+function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): Stretch {
+  const t0 = piece.t0;
   const f = (t: number) => pieceValue(piece, t);
   if (hi === lo) return { f, ts: [lo], ys: [f(lo)] };
-  const df = (t: number) => pieceDerivative(piece, t);
+  const G = groupTerms(piece.terms, ctx.G);
+  const D = groupsDerivative(G, ctx.D);
+  const df = (t: number) => groupsValue(D, t - t0);
 
-  // the shared search grid (peak.ts): equal steps fine enough for the fastest oscillation, plus
-  // the sample times inside the piece; no extra steps near the start (rate 0)
-  const grid = searchGrid({ lo, hi, omega: maxOmega(piece), rate: 0, extra: times, minIntervals });
+  // the search grid of peak.ts (equal steps fine enough for the fastest oscillation, plus the
+  // sample times inside the piece; no extra steps near the start), thinned where the fast
+  // oscillations have died out (sweep.ts); value and derivative there without per-point exponentials
+  const m = uniformIntervals(hi - lo, maxOmega(piece), minIntervals);
+  const sw = ctx.sweeper;
+  const count = sw.grid([G, D], { t0, lo, hi, m, minIntervals, extra: ctx.times, extraStep: ctx.step });
+  const gts = sw.ts;
+  const gy = sw.vals[0]!;
+  const gd = sw.vals[1]!;
 
+  // knots: every grid time (repeats skipped) and every root of the derivative between two of them
   const ts: number[] = [];
-  walkDerivative(grid, df, (r) => ts.push(r), (t) => ts.push(t));
-  return { f, ts, ys: ts.map(f) };
+  const ys: number[] = [];
+  let prevT = gts[0]!;
+  let prevD = gd[0]!;
+  ts.push(prevT);
+  ys.push(gy[0]!);
+  for (let k = 1; k < count; k++) {
+    const t = gts[k]!;
+    if (t === prevT) continue;
+    const d = gd[k]!;
+    if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
+      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
+      if (r > prevT && r < t) {
+        ts.push(r);
+        ys.push(groupsValue(G, r - t0));
+      }
+    }
+    ts.push(t);
+    ys.push(gy[k]!);
+    prevT = t;
+    prevD = d;
+  }
+  return { f, ts, ys };
 }
 
 function sampledTrack(times: Float64Array, values: Float64Array): Track {
