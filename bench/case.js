@@ -63,7 +63,7 @@ if (kind === 'circuit') {
     eig(ss.A);
     eigTimes.push((performance.now() - t0) / 1000);
   }
-  stage('eig(state matrix)', median(eigTimes));
+  stage('eigOfStateMatrix', median(eigTimes));
   // export the same model for the reference: ξ' = Aξ + Bu, y = Cξ + Du, ξ(0) = 0, u = 1 for t > 0
   const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
   const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
