@@ -34,7 +34,9 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const pieces: Piece[][] = readouts.map(() => []);
   // Intervals of the same length and the same source components (the cycles of a pulse train)
   // share their particular solutions, the read-out terms those give, and their end values.
-  const shapes = new Map<string, Shape>();
+  // (keyed by the length, then compared component by component: no key string per interval)
+  const shapes = new Map<number, { comps: Component[]; shape: Shape }[]>();
+  let shapeCount = 0;
   const first = schedule.intervals[0]?.t0;
   const diracAt = new Map(schedule.diracs.map((d) => [d.t, d.area]));
   const jumpAt = new Map(schedule.jumps.map((j) => [j.t, j.delta]));
@@ -46,11 +48,15 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
     if (dirac && iv.t0 > first) xm = xm.map((v, i) => v + dot(beta[i], dirac));
     const jump = jumpAt.get(iv.t0);
     const tau = iv.t1 - iv.t0;
-    const key = shapeKey(iv, tau);
-    let shape = shapes.get(key);
+    let sameLength = shapes.get(tau);
+    let shape = sameLength?.find((x) => sameComponents(x.comps, iv.components))?.shape;
     if (!shape) {
-      shape = makeShape(modal, beta, gammas, readouts, iv, tau);
-      if (shapes.size < 4096) shapes.set(key, shape);
+      shape = makeShape(modal, beta, gammas, readouts, iv, tau, modeSets);
+      if (shapeCount < 4096) {
+        if (!sameLength) shapes.set(tau, (sameLength = []));
+        sameLength.push({ comps: iv.components, shape });
+        shapeCount++;
+      }
     }
     // free part per block: scalar modes carry η − η_p(0); clusters a real vector
     const etas: (C[] | null)[] = [];
@@ -67,7 +73,8 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
       }
     });
     readouts.forEach((r, w) => {
-      const terms = shape!.readoutTerms[w].map(copyTerm);
+      // the shape's terms are shared by its pieces (never changed: addFree replaces what it merges into)
+      const terms = shape!.readoutTerms[w].slice();
       modal.blocks.forEach((b, k) => {
         const eta = etas[k];
         if (eta) addFree(terms, modeSets[k]!, outModes[w][k]!, eta);
@@ -84,11 +91,11 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
       const eta = etas[k];
       if (eta) {
         const modes = modeSets[k]!;
+        const growth = shape!.growth[k]!;
         b.index.forEach((col, i) => {
           let v = 0;
           modes.forEach((m, l) => {
-            const e = cexpT(m.lambda, tau);
-            const z = cmul(eta[l], e);
+            const z = cmul(eta[l], growth[l]);
             v += m.right[i].re * z.re - m.right[i].im * z.im;
           });
           next[col] += v;
@@ -118,18 +125,6 @@ function dotRC(g: Vec, v: C[]): C {
   return { re, im };
 }
 
-function copyTerm(t: Term): Term {
-  switch (t.kind) {
-    case 'exp':
-    case 'osc':
-      return { ...t };
-    case 'poly-exp':
-      return { ...t, polyCoefs: t.polyCoefs.slice() };
-    case 'quasi':
-      return { ...t, cosPoly: t.cosPoly.slice(), sinPoly: t.sinPoly.slice() };
-  }
-}
-
 /**
  * Add the free response Re[Σ_ℓ (γ·v_ℓ)·η_ℓ·e^(λ_ℓ τ)] of one block to a term list, merging with a
  * term of the same exponent when there is one. A conjugate pair becomes one damped cosine/sine.
@@ -138,8 +133,9 @@ function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
   if (modes.length === 1) {
     const coef = out[0].re * eta[0].re - out[0].im * eta[0].im;
     const lambda = modes[0].lambda.re;
-    const same = terms.find((t) => t.kind === 'exp' && t.lambda === lambda);
-    if (same && same.kind === 'exp') same.coef += coef;
+    const at = terms.findIndex((t) => t.kind === 'exp' && t.lambda === lambda);
+    const same = terms[at];
+    if (same && same.kind === 'exp') terms[at] = { kind: 'exp', lambda, coef: same.coef + coef };
     else terms.push({ kind: 'exp', lambda, coef });
     return;
   }
@@ -150,11 +146,10 @@ function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
   const b = c1.im - c2.im;
   const sigma = modes[0].lambda.re;
   const omega = modes[0].lambda.im;
-  const same = terms.find((t) => t.kind === 'osc' && t.sigma === sigma && t.omega === omega);
-  if (same && same.kind === 'osc') {
-    same.cosCoef += a;
-    same.sinCoef -= b;
-  } else terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });
+  const at = terms.findIndex((t) => t.kind === 'osc' && t.sigma === sigma && t.omega === omega);
+  const same = terms[at];
+  if (same && same.kind === 'osc') terms[at] = { kind: 'osc', sigma, omega, cosCoef: same.cosCoef + a, sinCoef: same.sinCoef - b };
+  else terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });
 }
 
 interface Shape {
@@ -163,13 +158,21 @@ interface Shape {
   readoutTerms: Term[][];
   /** modal state at the interval's end due to the particular parts alone */
   end: number[];
+  /** per block of scalar modes: e^(λτ) over the interval, per mode */
+  growth: (C[] | null)[];
 }
 
-function shapeKey(iv: Interval, tau: number): string {
-  return `${tau}|${iv.components.map((k) => `${k.input},${k.power},${k.sigma},${k.omega},${k.re},${k.im}`).join(';')}`;
+function sameComponents(a: Component[], b: Component[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) {
+    const x = a[i];
+    const y = b[i];
+    if (x.input !== y.input || x.power !== y.power || x.sigma !== y.sigma || x.omega !== y.omega || x.re !== y.re || x.im !== y.im) return false;
+  }
+  return true;
 }
 
-function makeShape(modal: Modal, beta: Mat, gammas: Vec[], readouts: Readout[], iv: Interval, tau: number): Shape {
+function makeShape(modal: Modal, beta: Mat, gammas: Vec[], readouts: Readout[], iv: Interval, tau: number, modeSets: (ScalarMode[] | null)[]): Shape {
   // series form only where the particular and free parts would otherwise cancel beyond 1e-12 on
   // this interval (see scalarParticular)
   const particulars = modal.blocks.map((b) => particularOf(b, forcingsFor(b, beta, iv.components), tau, -1));
@@ -187,7 +190,8 @@ function makeShape(modal: Modal, beta: Mat, gammas: Vec[], readouts: Readout[], 
     const v = blockStateAt(b, { quasi: quasiOf(particulars[k]), clusterFree: null }, tau);
     b.index.forEach((col, i) => (end[col] = v[i]));
   });
-  return { particulars, readoutTerms, end };
+  const growth = modeSets.map((modes) => modes?.map((m) => cexpT(m.lambda, tau)) ?? null);
+  return { particulars, readoutTerms, end, growth };
 }
 
 /** Read-out terms that follow the inputs directly: Re[d·c·τ^p·e^(sτ)]. */
