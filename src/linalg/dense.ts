@@ -22,14 +22,49 @@ export function cols(m: Mat, fallback = 0): number {
 export function matmul(a: Mat, b: Mat, bCols = cols(b)): Mat {
   const n = a.length;
   const k = b.length;
-  // flat typed arrays: the i-k-j loop then runs on contiguous memory
+  // b's rows as compressed lists of nonzeros: circuit matrices are mostly zeros (a capacitor's row
+  // touches a few nodes), and then a·b costs Σ over a's nonzeros of the matching row of b
+  let nnz = 0;
+  for (let p = 0; p < k; p++) {
+    const bp = b[p];
+    for (let j = 0; j < bCols; j++) if (bp[j] !== 0) nnz++;
+  }
+  const out: Mat = new Array(n);
+  const row = new Float64Array(bCols);
+  if (nnz <= 0.25 * k * bCols) {
+    const start = new Int32Array(k + 1);
+    const idx = new Int32Array(nnz);
+    const val = new Float64Array(nnz);
+    let q = 0;
+    for (let p = 0; p < k; p++) {
+      start[p] = q;
+      const bp = b[p];
+      for (let j = 0; j < bCols; j++) {
+        if (bp[j] !== 0) {
+          idx[q] = j;
+          val[q++] = bp[j];
+        }
+      }
+    }
+    start[k] = q;
+    for (let i = 0; i < n; i++) {
+      row.fill(0);
+      const ai = a[i];
+      for (let p = 0; p < k; p++) {
+        const aip = ai[p];
+        if (aip === 0) continue;
+        for (let r = start[p]; r < start[p + 1]; r++) row[idx[r]] += aip * val[r];
+      }
+      out[i] = Array.from(row);
+    }
+    return out;
+  }
+  // dense b: flat typed array, the i-k-j loop then runs on contiguous memory
   const B = new Float64Array(k * bCols);
   for (let p = 0; p < k; p++) {
     const bp = b[p];
     for (let j = 0; j < bCols; j++) B[p * bCols + j] = bp[j];
   }
-  const out: Mat = new Array(n);
-  const row = new Float64Array(bCols);
   for (let i = 0; i < n; i++) {
     row.fill(0);
     const ai = a[i];

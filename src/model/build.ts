@@ -101,7 +101,7 @@ export function buildModel(circuit: Circuit): Model {
   const Xu = SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
   const Xinv = np ? solveSquare(X, identityOf(np)) : [];
   const F = red.F;
-  const Ax = np ? times(times(X, F, np), Xinv, np) : [];
+  const Ax = np ? matmul(matmul(X, F, np), Xinv, np) : [];
   // Bx[j] = X·G[j] − Ax·Xu[j] + Xu[j−1]
   const order = Math.max(red.G.length, Xu.length + 1);
   const Bx: Mat[] = [];
@@ -390,15 +390,10 @@ function addVec(a: Vec, b: Vec, k = 1): Vec {
   return a.map((v, i) => v + k * b[i]);
 }
 
-/** a·b, with the sparser factor on the left (matmul skips its zeros): O(n²) for a permutation-like one */
-function times(a: Mat, b: Mat, bCols: number): Mat {
-  const zerosIn = (M: Mat) => M.reduce((acc, row) => acc + row.reduce((z, v) => z + (v === 0 ? 1 : 0), 0), 0);
-  if (zerosIn(b) <= zerosIn(a)) return matmul(a, b, bCols);
-  return transpose(matmul(transpose(b, bCols), transpose(a, cols(a, 0)), a.length), a.length);
-}
-
 function identityOf(n: number): Mat {
-  return Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+  const I = zeros(n, n);
+  for (let i = 0; i < n; i++) I[i][i] = 1;
+  return I;
 }
 
 function maxAbsMat(M: Mat): number {

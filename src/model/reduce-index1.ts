@@ -1,4 +1,4 @@
-import { type Mat, matmul, zeros } from '../linalg/dense.js';
+import { type Mat, zeros } from '../linalg/dense.js';
 import { solveSquare } from '../linalg/factor.js';
 import { luFactor, luSingular } from '../linalg/lu.js';
 import type { Reduction } from './reduce.js';
@@ -36,17 +36,32 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
     // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
     // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
     const chop = (v: number, mag: number) => (Math.abs(v) <= 1e-13 * mag ? 0 : v);
-    // A_da is sparse (a capacitor node touches a few resistors): matmul skips its zeros
-    const absOf = (M: Mat) => M.map((row) => row.map(Math.abs));
-    const AdaAbs = absOf(Ada);
-    const P = a.length ? matmul(Ada, AaaInvAad, d.length) : [];
-    const Pabs = a.length ? matmul(AdaAbs, absOf(AaaInvAad), d.length) : [];
-    const Q = a.length && m ? matmul(Ada, AaaInvBa, m) : [];
-    const Qabs = a.length && m ? matmul(AdaAbs, absOf(AaaInvBa), m) : [];
-    const Fr = sub(A, d, d).map((row, i) => row.map((v, j) => (a.length ? chop(v - P[i][j], Math.abs(v) + Pabs[i][j]) : v)));
-    const Gr = d.map((i, r) => B[i].map((v, j) => (a.length ? chop(v - Q[r][j], Math.abs(v) + Qabs[r][j]) : v)));
-    F = d.length ? solveSquare(Edd, Fr) : [];
-    G0 = d.length && m ? solveSquare(Edd, Gr) : d.map(() => new Array<number>(m).fill(0));
+    // A_da is sparse (a capacitor node touches a few resistors): only its nonzeros contribute,
+    // and a row of it without any leaves that row of A_dd (and B_d) as it is
+    const correct = (rowA: number[], r: number, X: Mat): number[] => {
+      const out = rowA.slice();
+      const touch: number[] = [];
+      Ada[r].forEach((v, k) => v !== 0 && touch.push(k));
+      if (!touch.length) return out;
+      for (let j = 0; j < out.length; j++) {
+        let p = 0;
+        let mag = Math.abs(rowA[j]);
+        for (const k of touch) {
+          const t = Ada[r][k] * X[k][j];
+          p += t;
+          mag += Math.abs(t);
+        }
+        out[j] = chop(rowA[j] - p, mag);
+      }
+      return out;
+    };
+    const Fr = d.map((i, r) => correct(d.map((j) => A[i][j]), r, AaaInvAad));
+    const Gr = d.map((i, r) => (m ? correct(B[i].slice(), r, AaaInvBa) : []));
+    // E_dd is diagonal when every capacitor has a grounded or otherwise private node: a row scaling
+    const diagonal = Edd.every((row, i) => row.every((v, j) => i === j || v === 0));
+    const divide = (M: Mat) => M.map((row, i) => row.map((v) => v / Edd[i][i]));
+    F = d.length ? (diagonal ? divide(Fr) : solveSquare(Edd, Fr)) : [];
+    G0 = d.length && m ? (diagonal ? divide(Gr) : solveSquare(Edd, Gr)) : d.map(() => new Array<number>(m).fill(0));
   } catch {
     return null;
   }
