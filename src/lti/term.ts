@@ -205,3 +205,19 @@ export function groupsValue(g: Groups, tau: number): number {
   }
   return s;
 }
+
+/**
+ * An upper bound of |Σ groups| over τ ∈ [a, b] (0 ≤ a ≤ b): Σ_g Σ_k |c_k|·b^k·max(e^(Re κ·a), e^(Re κ·b)).
+ * NaN when a coefficient is.
+ */
+export function groupsBound(g: Groups, a: number, b: number): number {
+  let s = 0;
+  for (let q = 0; q < g.n; q++) {
+    let p = 0;
+    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) p = p * b + Math.hypot(g.cr[i]!, g.ci[i]!);
+    if (p === 0) continue;
+    const kr = g.kr[q]!;
+    s += kr === 0 ? p : p * Math.exp(Math.max(kr * a, kr * b));
+  }
+  return s;
+}

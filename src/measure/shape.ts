@@ -2,7 +2,7 @@ import type { Piece, Term } from '../simulate/result.js';
 import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
-import { emptyGroups, type Groups, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
+import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
 import { clipPieces, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
@@ -122,17 +122,22 @@ export function maxSlope(pieces: readonly Piece[], start: number, end: number, e
   const G = emptyGroups();
   const D1 = emptyGroups();
   const D2 = emptyGroups();
-  // bounds: |y'| at each piece's first instant (a value it reaches) and above it over the piece
+  const D3 = emptyGroups();
+  // bounds: |y'| at each piece's first instant (a value it reaches) and above it over the piece:
+  // the size of y' there, or (shorter pieces) |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor)
   const upper = new Float64Array(clipped.length);
   let reached = 0;
   clipped.forEach(({ piece, lo, hi }, i) => {
     groupTerms(piece.terms, G);
     groupsDerivative(G, D1);
+    groupsDerivative(D1, D2);
+    groupsDerivative(D2, D3);
     const a = lo - piece.t0;
     const b = hi - piece.t0;
     const v = Math.abs(groupsValue(D1, a));
     if (v > reached) reached = v;
-    upper[i] = a >= 0 ? groupsBound(D1, a, b) : Infinity;
+    const w = b - a;
+    upper[i] = a >= 0 ? Math.min(groupsBound(D1, a, b), v + Math.abs(groupsValue(D2, a)) * w + (groupsBound(D3, a, b) * w * w) / 2) : Infinity;
   });
   const sweeper = new Sweeper();
   const extraStep = extra ? uniformStep(extra) : NaN;
@@ -147,19 +152,6 @@ export function maxSlope(pieces: readonly Piece[], start: number, end: number, e
   const found = best as { value: number; time: number } | null;
   if (found && Math.abs(found.time - start) <= 1e-12 * (end - start)) found.time = start;
   return found;
-}
-
-/** An upper bound of |Σ groups| over τ ∈ [a, b] (0 ≤ a ≤ b): Σ_g Σ_k |c_k|·b^k·max(e^(Re κ·a), e^(Re κ·b)). */
-function groupsBound(g: Groups, a: number, b: number): number {
-  let s = 0;
-  for (let q = 0; q < g.n; q++) {
-    let p = 0;
-    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) p = p * b + Math.hypot(g.cr[i]!, g.ci[i]!);
-    if (p === 0) continue;
-    const kr = g.kr[q]!;
-    s += kr === 0 ? p : p * Math.exp(Math.max(kr * a, kr * b));
-  }
-  return s;
 }
 
 /**

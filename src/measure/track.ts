@@ -1,5 +1,5 @@
 import type { Piece } from '../simulate/result.js';
-import { emptyGroups, type Groups, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
+import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
 import { maxOmega, pieceValue } from './evaluate.js';
 import { uniformIntervals } from './peak.js';
 import { findRoot } from './root.js';
@@ -37,7 +37,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
-  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups() };
+  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups() };
   const stretches: Stretch[] = [];
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
@@ -65,6 +65,8 @@ interface Ctx {
   /** scratch: the piece's terms grouped by exponent, and their derivative */
   G: Groups;
   D: Groups;
+  D2: Groups;
+  D3: Groups;
 }
 
 function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): Stretch {
@@ -74,6 +76,22 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
   const G = groupTerms(piece.terms, ctx.G);
   const D = groupsDerivative(G, ctx.D);
   const df = (t: number) => groupsValue(D, t - t0);
+
+  // a short piece (a cycle of a pulse train) is often provably monotone: y'(a + s) stays within
+  // max|y'''|·s²/2 of the line y'(a) + y''(a)·s, so no root when that line keeps its sign by more;
+  // its ends are then its only knots
+  const a = lo - t0;
+  if (a >= 0) {
+    const w = hi - lo;
+    const D2 = groupsDerivative(D, ctx.D2);
+    const D3 = groupsDerivative(D2, ctx.D3);
+    const d0 = groupsValue(D, a);
+    const d1 = d0 + groupsValue(D2, a) * w;
+    const r = (groupsBound(D3, a, a + w) * w * w) / 2;
+    if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
+      return { f, ts: [lo, hi], ys: [groupsValue(G, a), groupsValue(G, hi - t0)] };
+    }
+  }
 
   // the search grid of peak.ts (equal steps fine enough for the fastest oscillation, plus the
   // sample times inside the piece; no extra steps near the start), thinned where the fast

@@ -16,7 +16,8 @@ export interface Component {
 }
 
 export function componentValue(k: Component, tau: number): number {
-  const m = Math.exp(k.sigma * tau) * (k.power === 0 ? 1 : tau ** k.power);
+  // (e^0 = 1 and τ^1 = τ exactly: the shortcuts change no digit)
+  const m = (k.sigma === 0 ? 1 : Math.exp(k.sigma * tau)) * (k.power === 0 ? 1 : k.power === 1 ? tau : tau ** k.power);
   if (k.omega === 0) return k.re * m;
   return m * (k.re * Math.cos(k.omega * tau) - k.im * Math.sin(k.omega * tau));
 }

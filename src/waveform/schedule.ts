@@ -76,10 +76,12 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
     const t0 = times[k];
     const t1 = times[k + 1];
     const components: Component[] = [];
-    models.forEach((ms, input) => {
-      for (const m of ms) for (const c of m.components(t0, t1)) components.push({ ...c, input });
-    });
-    intervals.push({ t0, t1, components: merge(components), slopes: merge(components.flatMap(componentDerivative)) });
+    for (let input = 0; input < models.length; input++) {
+      for (const m of models[input]) for (const c of m.components(t0, t1)) components.push({ power: c.power, sigma: c.sigma, omega: c.omega, re: c.re, im: c.im, input });
+    }
+    const slopes: Component[] = [];
+    for (const c of components) for (const d of componentDerivative(c)) slopes.push(d);
+    intervals.push({ t0, t1, components: merge(components), slopes: merge(slopes) });
   }
   const m = waves.length;
   const diracs: InputSchedule['diracs'] = [];
@@ -100,9 +102,11 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
   for (let k = 1; k < intervals.length; k++) {
     const before = inputValues(intervals[k - 1], m, intervals[k - 1].t1 - intervals[k - 1].t0);
     const after = inputValues(intervals[k], m, 0);
-    const delta = after.map((v, j) => v - before[j]);
-    const scale = Math.max(...before.map(Math.abs), ...after.map(Math.abs), 1e-300);
-    if (delta.some((d) => Math.abs(d) > 1e-12 * scale)) jumps.push({ t: intervals[k].t0, delta });
+    let scale = 1e-300;
+    for (let j = 0; j < m; j++) scale = Math.max(scale, Math.abs(before[j]), Math.abs(after[j]));
+    let jumped = false;
+    for (let j = 0; j < m; j++) if (Math.abs(after[j] - before[j]) > 1e-12 * scale) jumped = true;
+    if (jumped) jumps.push({ t: intervals[k].t0, delta: after.map((v, j) => v - before[j]) });
   }
   const approximation = models.map((ms) => Math.max(0, ...ms.map((x) => x.approximationError)));
   return { intervals, diracs, jumps, outside, approximation };
@@ -121,8 +125,24 @@ export function inputSlopes(iv: Interval, m: number, tau: number): number[] {
   return u;
 }
 
-/** Combine components that differ only in coefficient. */
+/** Combine components that differ only in coefficient (the list's own objects when none do). */
 function merge(list: Component[]): Component[] {
+  let repeated = false;
+  for (let i = 0; i < list.length && !repeated; i++) {
+    const c = list[i];
+    for (let j = 0; j < i; j++) {
+      const o = list[j];
+      if (o.input === c.input && o.power === c.power && o.sigma === c.sigma && o.omega === c.omega) {
+        repeated = true;
+        break;
+      }
+    }
+  }
+  if (!repeated) {
+    let zero = false;
+    for (const c of list) if (c.re === 0 && c.im === 0) zero = true;
+    return zero ? list.filter((c) => c.re !== 0 || c.im !== 0) : list;
+  }
   const out: Component[] = [];
   for (const c of list) {
     const same = out.find((o) => o.input === c.input && o.power === c.power && o.sigma === c.sigma && o.omega === c.omega);
