@@ -3,6 +3,7 @@ import { eig } from '../linalg/eig.js';
 import { type Mat, identity, matmul, matvec, zeros } from '../linalg/dense.js';
 import { symmetrize } from '../linalg/symmetrize.js';
 import { solveSquare } from '../linalg/factor.js';
+import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
 
 
 /**
@@ -28,7 +29,10 @@ export interface Block {
 export interface Modal {
   n: number;
   W: Mat;
-  Winv: Mat;
+  /** W⁻¹·M: the modal coordinates of M's columns (an LU solve, or the symmetric inverse) */
+  toModal(M: Mat): Mat;
+  /** W⁻¹ itself, formed on first use (O(n³) unless the symmetric inverse exists) */
+  readonly Winv: Mat;
   blocks: Block[];
 }
 
@@ -40,7 +44,7 @@ const PARALLEL = 1e-2;
 
 export function modalDecomposition(A: Mat): Modal {
   const n = A.length;
-  if (n === 0) return { n, W: [], Winv: [], blocks: [] };
+  if (n === 0) return { n, W: [], Winv: [], toModal: (M) => M.map(() => []), blocks: [] };
   // balanced Hessenberg QR (src/linalg/eig.ts): balancing matters for circuits whose states
   // differ in scale by many orders (nanohenry currents next to millifarad voltages)
   const { re, im, V } = eig(A);
@@ -113,14 +117,26 @@ export function modalDecomposition(A: Mat): Modal {
   }
   const W = zeros(n, n);
   Wcols.forEach((c, j) => c.forEach((v, i) => (W[i][j] = v)));
-  const Winv = symmetricInverse(A, W, cols) ?? solveSquare(W, identity(n));
+  const sym = symmetricInverse(A, W, cols);
+  const lu = sym ? null : luFactor(W);
+  if (lu && luSingular(lu)) throw new Error('the eigenvectors of the state matrix do not form a basis (singular modal matrix)');
+  const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
+  let full: Mat | null = sym;
   const blocks: Block[] = cols.map((index, b) => ({
     kind: specs[b].kind,
     index,
-    T: blockMatrix(A, W, Winv, index, specs[b]),
+    T: blockMatrix(A, W, toModal, index, specs[b]),
     eig: specs[b].eig,
   }));
-  return { n, W, Winv, blocks };
+  return {
+    n,
+    W,
+    toModal,
+    get Winv() {
+      return (full ??= toModal(identity(n)));
+    },
+    blocks,
+  };
 }
 
 /**
@@ -128,7 +144,7 @@ export function modalDecomposition(A: Mat): Modal {
  * from its eigenvalues ([λ], or [[σ, ω], [−ω, σ]] for the columns Re v, Im v, as eig() returns
  * them); a cluster's comes from the product, restricted to its columns (O(n²) per column).
  */
-function blockMatrix(A: Mat, W: Mat, Winv: Mat, index: number[], spec: { kind: Block['kind']; eig: { re: number; im: number }[] }): Mat {
+function blockMatrix(A: Mat, W: Mat, toModal: (M: Mat) => Mat, index: number[], spec: { kind: Block['kind']; eig: { re: number; im: number }[] }): Mat {
   if (spec.kind === 'real') return [[spec.eig[0].re]];
   if (spec.kind === 'pair') {
     const { re, im } = spec.eig[0];
@@ -137,13 +153,10 @@ function blockMatrix(A: Mat, W: Mat, Winv: Mat, index: number[], spec: { kind: B
       [-im, re],
     ];
   }
-  const n = A.length;
-  const AW = index.map((j) => A.map((row) => row.reduce((acc, v, k) => acc + v * W[k][j], 0)));
-  return index.map((i) => AW.map((col) => {
-    let acc = 0;
-    for (let k = 0; k < n; k++) acc += Winv[i][k] * col[k];
-    return acc;
-  }));
+  // W⁻¹·(A·W_b), then its rows of the block
+  const AWb = A.map((row) => index.map((j) => row.reduce((acc, v, k) => acc + v * W[k][j], 0)));
+  const X = toModal(AWb);
+  return index.map((i) => X[i].slice());
 }
 
 /**
