@@ -44,6 +44,7 @@ export interface EigFlatResult {
   V: Float64Array;
 }
 
+import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { pathOrder, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 
@@ -51,6 +52,10 @@ const EPS = 2 ** -52;
 // relative mismatch allowed between Aᵢⱼ·dⱼ² and Aⱼᵢ·dᵢ² on the symmetric route: the route solves
 // D·S·D⁻¹, which differs from A by at most half of this per entry
 const SYMMETRIC_TOL = 1e-13;
+// below this size the Schur-form path is cheap anyway
+const INVERSE_ITERATION_MIN = 16;
+// eigenvalues closer than this fraction of ‖H‖ count as repeated (see wellSeparated)
+const SEPARATION = 1e-8;
 
 /** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
 export function eig(A: number[][]): EigResult {
@@ -69,7 +74,11 @@ export function eig(A: number[][]): EigResult {
  * The same on a row-major Float64Array; `a` is overwritten (it ends up holding the back-substituted
  * Schur form). Throws when an entry is not finite or the QR iteration fails to converge.
  */
-export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean; structured?: boolean } = {}): EigFlatResult {
+export function eigFlat(
+  a: Float64Array,
+  n: number,
+  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean } = {},
+): EigFlatResult {
   if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
   for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
   if (opts.structured !== false) {
@@ -86,6 +95,7 @@ export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean; s
   // the QR sweeps combine columns of V, which are then contiguous rows of vt.
   const vt = new Float64Array(n * n);
   const order = opts.structured !== false ? pathOrder(patternAdjacency(a, n)) : null;
+  let ort: Float64Array | null = null;
   if (order) {
     // a ladder (LC, RLC): reordered along its path it is tridiagonal, hence already Hessenberg,
     // and the Householder reduction is skipped; the permutation is the starting Schur basis
@@ -93,9 +103,31 @@ export function eigFlat(a: Float64Array, n: number, opts: { balance?: boolean; s
     for (let i = 0; i < n; i++) {
       const ri = order[i] * n;
       for (let j = 0; j < n; j++) a[i * n + j] = p[ri + order[j]];
-      vt[i * n + order[i]] = 1;
     }
-  } else hessenberg(a, n, vt);
+  } else ort = hessenberg(a, n);
+  if (order && opts.inverseIteration !== false && n >= INVERSE_ITERATION_MIN) {
+    // tridiagonal: eigenvalues alone (QR sweeps restricted to the active window), then each
+    // eigenvector by inverse iteration on the tridiagonal, O(n) apiece, instead of accumulating
+    // Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the same (measured),
+    // so it keeps the Schur-form path.
+    const h = a.slice();
+    hqr2(h, n, vt, re, im, false);
+    const X = wellSeparated(re, im, a, n) ? hessenbergEigenvectors(a, n, re, im) : null;
+    if (X) {
+      for (let i = 0; i < n; i++) {
+        const oi = order[i];
+        const s = scale[oi];
+        const b = oi * n;
+        for (let j = 0; j < n; j++) V[b + j] = X[i * n + j] * s;
+      }
+      normalizeColumns(V, n, im);
+      return { n, re, im, V };
+    }
+  }
+  if (order) {
+    vt.fill(0);
+    for (let i = 0; i < n; i++) vt[i * n + order[i]] = 1;
+  } else if (ort) accumulateQ(a, n, ort, vt);
   hqr2(a, n, vt, re, im);
   // undo the balancing (eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂) while transposing back
   for (let i = 0; i < n; i++) {
@@ -143,6 +175,31 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
   }
   normalizeColumns(V, n, im);
   return { n, re, im, V };
+}
+
+/**
+ * Inverse iteration needs distinct eigenvalues: a repeated or nearly repeated one (identical
+ * sections, several zero poles) would give the same vector twice where independent ones exist.
+ * Those spectra take the Schur-form path, which keeps them apart.
+ */
+function wellSeparated(re: Float64Array, im: Float64Array, h: Float64Array, n: number): boolean {
+  let norm = 0;
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    for (let j = Math.max(i - 1, 0); j < n; j++) s += Math.abs(h[i * n + j]);
+    norm = Math.max(norm, s);
+  }
+  const tol = SEPARATION * norm;
+  // sorted by real part, only neighbours within tol in the real part can be close
+  const idx = Array.from(re.keys()).sort((p, q) => re[p] - re[q]);
+  for (let a = 0; a < n; a++) {
+    const i = idx[a];
+    for (let b = a + 1; b < n && re[idx[b]] - re[i] <= tol; b++) {
+      const j = idx[b];
+      if (Math.hypot(re[j] - re[i], im[j] - im[i]) <= tol) return false;
+    }
+  }
+  return true;
 }
 
 /** Neighbours of each index in the off-diagonal pattern of A + Aᵀ. */
@@ -208,11 +265,11 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 }
 
 /**
- * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place; V receives Q.
- * Entries below the subdiagonal are left holding the Householder vectors (hqr2 ignores them).
- * Vt receives Qᵀ (row-major), i.e. Q column-major.
+ * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place. Entries below the
+ * subdiagonal are left holding the Householder vectors (hqr2 ignores them); the returned array
+ * holds their leading entries. accumulateQ or applyQ use them afterwards.
  */
-function hessenberg(H: Float64Array, n: number, Vt: Float64Array): void {
+function hessenberg(H: Float64Array, n: number): Float64Array {
   const low = 0;
   const high = n - 1;
   const ort = new Float64Array(n);
@@ -298,22 +355,66 @@ function hessenberg(H: Float64Array, n: number, Vt: Float64Array): void {
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
-  // accumulate the transformations: V = Q, stored transposed (Vt row j = column j of V)
-  Vt.fill(0);
-  for (let i = 0; i < n; i++) Vt[i * n + i] = 1;
-  for (let m = high - 1; m >= low + 1; m--) {
-    const hm = H[m * n + m - 1];
-    if (hm === 0) continue;
-    for (let i = m + 1; i <= high; i++) ort[i] = H[i * n + m - 1];
-    const den = ort[m];
-    // for each column j of V: g = (uᵀ·V[:, j]) / (u_m · h_m), then V[:, j] += g·u
-    for (let j = m; j <= high; j++) {
-      const b = j * n;
-      let g = 0;
-      for (let i = m; i <= high; i++) g += ort[i] * Vt[b + i];
-      g = g / den / hm; // two divisions avoid underflow
-      if (g === 0) continue;
-      for (let i = m; i <= high; i++) Vt[b + i] += g * ort[i];
+  return ort;
+}
+
+/**
+ * Vt := Qᵀ (row-major), i.e. V = Q column-major, from hessenberg()'s reflectors: the rows of I
+ * go through the reflectors last to first (row j is untouched by those of index m > j). The
+ * reflectors are first packed contiguously; then four rows at a time meet every reflector (one
+ * pass over the reflector serves four dot products and four updates).
+ */
+function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Array): void {
+  X.fill(0);
+  for (let i = 0; i < n; i++) X[i * n + i] = 1;
+  const high = n - 1;
+  // packed reflector m: u_m = (ort[m], H[m+1][m−1], …, H[high][m−1]) at offs[m]
+  const offs = new Int32Array(n);
+  let total = 0;
+  for (let m = 1; m <= high - 1; m++) {
+    offs[m] = total;
+    total += high - m + 1;
+  }
+  const u = new Float64Array(total);
+  for (let m = 1; m <= high - 1; m++) {
+    const o = offs[m] - m;
+    u[o + m] = ort[m];
+    for (let i = m + 1; i <= high; i++) u[o + i] = H[i * n + m - 1];
+  }
+  for (let j0 = 0; j0 < n; j0 += 4) {
+    const cnt = Math.min(4, n - j0);
+    const b0 = j0 * n;
+    const b1 = cnt > 1 ? b0 + n : b0;
+    const b2 = cnt > 2 ? b1 + n : b1;
+    const b3 = cnt > 3 ? b2 + n : b2;
+    for (let m = Math.min(high - 1, j0 + 3); m >= 1; m--) {
+      const hm = H[m * n + m - 1];
+      if (hm === 0) continue;
+      const o = offs[m] - m;
+      const den = u[o + m];
+      let g0 = 0;
+      let g1 = 0;
+      let g2 = 0;
+      let g3 = 0;
+      for (let i = m; i <= high; i++) {
+        const ui = u[o + i];
+        g0 += ui * X[b0 + i];
+        g1 += ui * X[b1 + i];
+        g2 += ui * X[b2 + i];
+        g3 += ui * X[b3 + i];
+      }
+      // two divisions avoid underflow; a short last block repeats its first row, updated once
+      g0 = g0 / den / hm;
+      g1 = cnt > 1 ? g1 / den / hm : 0;
+      g2 = cnt > 2 ? g2 / den / hm : 0;
+      g3 = cnt > 3 ? g3 / den / hm : 0;
+      for (let i = m; i <= high; i++) {
+        const ui = u[o + i];
+        X[b0 + i] += g0 * ui;
+        X[b1 + i] += g1 * ui;
+        X[b2 + i] += g2 * ui;
+        X[b3 + i] += g3 * ui;
+      }
     }
   }
 }
@@ -338,16 +439,19 @@ const MAX_ITER_PER_EIGENVALUE = 60;
 /**
  * The deferred part of one double-shift sweep with reflectors P_m..P_(n−1) (P_(n−1) acts on two
  * rows only; an all-zero reflector is the identity):
- *  - H := H·P_k on rows 0..k (row by row: each row meets the sweep's reflectors in order, so a
+ *  - H := H·P_k on rows top..k (row by row: each row meets the sweep's reflectors in order, so a
  *    sliding window of three entries carries it, one load and one store per entry);
  *  - H := P_k·H on columns n+1..nn−1 (right of the window, never touched by the chase);
  *  - V := V·P_k, in the transposed storage Vt := P_kᵀ·Vt on rows k..k+2.
  * Left and right products commute, and each row or column sees its own reflectors in order.
+ * Without vectors (eigenvalues only) just the active window is kept up to date: top = l, and
+ * the last two items are skipped.
  */
 function sweepRest(
   H: Float64Array,
   Vt: Float64Array,
   nn: number,
+  top: number,
   m: number,
   n: number,
   rx: Float64Array,
@@ -355,8 +459,9 @@ function sweepRest(
   rz: Float64Array,
   rq: Float64Array,
   rr: Float64Array,
+  vectors: boolean,
 ): void {
-  for (let i = 0; i <= n - 1; i++) {
+  for (let i = top; i <= n - 1; i++) {
     const b = i * nn;
     const k0 = Math.max(i, m);
     let h0 = H[b + k0];
@@ -372,6 +477,7 @@ function sweepRest(
     H[b + n - 1] = h0 - pi;
     H[b + n] = h1 - pi * rq[n - 1];
   }
+  if (!vectors) return;
   if (n + 1 < nn) applyLeft(H, nn, n + 1, nn, m, n, rx, ry, rz, rq, rr, false);
   applyLeft(Vt, nn, 0, nn, m, n, rx, ry, rz, rq, rr, true);
 }
@@ -467,11 +573,108 @@ function applyLeft(
 }
 
 /**
+ * The bulge chase of one Francis double-shift step on the window l..n starting at row m, with the
+ * first reflector's (p, q, r) from the shifts. Records the reflectors in (rx, ry, rz, rq, rr).
+ * Kept apart from hqr2 so that the optimizing compiler treats this hot loop on its own.
+ */
+function francisSweep(
+  H: Float64Array,
+  nn: number,
+  l: number,
+  m: number,
+  n: number,
+  p: number,
+  q: number,
+  r: number,
+  rx: Float64Array,
+  ry: Float64Array,
+  rz: Float64Array,
+  rq: Float64Array,
+  rr: Float64Array,
+): void {
+  let s: number;
+  let x = 0;
+  let y: number;
+  let z: number;
+  // Double QR step on rows l..n and columns m..n. The bulge chase itself only needs the
+  // window and the three rows below each reflector; the rest is deferred to sweepRest, which
+  // applies the whole sweep at once along contiguous memory (same products, less traffic).
+  for (let k = m; k <= n - 1; k++) {
+    const notlast = k !== n - 1;
+    rx[k] = ry[k] = rz[k] = rq[k] = rr[k] = 0; // identity unless a reflector is formed
+    if (k !== m) {
+      p = H[k * nn + k - 1];
+      q = H[(k + 1) * nn + k - 1];
+      r = notlast ? H[(k + 2) * nn + k - 1] : 0;
+      x = Math.abs(p) + Math.abs(q) + Math.abs(r);
+      if (x === 0) continue;
+      p /= x;
+      q /= x;
+      r /= x;
+    }
+    s = Math.sqrt(p * p + q * q + r * r);
+    if (p < 0) s = -s;
+    if (s === 0) continue;
+    if (k !== m) H[k * nn + k - 1] = -s * x;
+    else if (l !== m) H[k * nn + k - 1] = -H[k * nn + k - 1];
+    p += s;
+    x = p / s;
+    y = q / s;
+    z = r / s;
+    q /= p;
+    r /= p;
+    rx[k] = x;
+    ry[k] = y;
+    rz[k] = z;
+    rq[k] = q;
+    rr[k] = r;
+    const bk = k * nn;
+    const bk1 = bk + nn;
+    const bk2 = bk1 + nn;
+    // row modification inside the window (columns k..n)
+    if (notlast) {
+      for (let j = k; j <= n; j++) {
+        const pj = H[bk + j] + q * H[bk1 + j] + r * H[bk2 + j];
+        H[bk + j] -= pj * x;
+        H[bk1 + j] -= pj * y;
+        H[bk2 + j] -= pj * z;
+      }
+    } else {
+      for (let j = k; j <= n; j++) {
+        const pj = H[bk + j] + q * H[bk1 + j];
+        H[bk + j] -= pj * x;
+        H[bk1 + j] -= pj * y;
+      }
+    }
+    // column modification of the rows below the reflector (k+1..k+3): the chase reads them next;
+    // rows 0..k are never combined again in this sweep, so their update waits for sweepRest
+    const iEnd = Math.min(n, k + 3);
+    if (notlast) {
+      for (let i = k + 1; i <= iEnd; i++) {
+        const b = i * nn + k;
+        const pi = x * H[b] + y * H[b + 1] + z * H[b + 2];
+        H[b] -= pi;
+        H[b + 1] -= pi * q;
+        H[b + 2] -= pi * r;
+      }
+    } else {
+      for (let i = k + 1; i <= iEnd; i++) {
+        const b = i * nn + k;
+        const pi = x * H[b] + y * H[b + 1];
+        H[b] -= pi;
+        H[b + 1] -= pi * q;
+      }
+    }
+  }
+}
+
+/**
  * Francis double-shift QR on the Hessenberg matrix H (row-major, in place) with deflation,
  * accumulating the Schur vectors in V, followed by back-substitution for the eigenvectors of the
- * quasi-triangular form and back-transformation V := V·X.
+ * quasi-triangular form and back-transformation V := V·X. With vectors = false only the
+ * eigenvalues (d + j·e): the sweeps then keep just the active window up to date.
  */
-function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array): void {
+function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array, vectors = true): void {
   let n = nn - 1;
   const low = 0;
   const high = nn - 1;
@@ -481,7 +684,6 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
   let r = 0;
   let s = 0;
   let z = 0;
-  let t: number;
   let w: number;
   let x: number;
   let y: number;
@@ -544,12 +746,12 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         r = Math.sqrt(p * p + q * q);
         p /= r;
         q /= r;
-        for (let j = n - 1; j < nn; j++) {
+        for (let j = n - 1; j < (vectors ? nn : 0); j++) {
           z = H[(n - 1) * nn + j];
           H[(n - 1) * nn + j] = q * z + p * H[n * nn + j];
           H[n * nn + j] = q * H[n * nn + j] - p * z;
         }
-        for (let i = 0; i <= n; i++) {
+        for (let i = 0; i <= (vectors ? n : -1); i++) {
           const b = i * nn;
           z = H[b + n - 1];
           H[b + n - 1] = q * z + p * H[b + n];
@@ -557,7 +759,7 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         }
         const c0 = (n - 1) * nn;
         const c1 = n * nn;
-        for (let i = low; i <= high; i++) {
+        for (let i = low; i <= (vectors ? high : -1); i++) {
           z = Vt[c0 + i];
           Vt[c0 + i] = q * z + p * Vt[c1 + i];
           Vt[c1 + i] = q * Vt[c1 + i] - p * z;
@@ -629,80 +831,32 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         H[i * nn + i - 2] = 0;
         if (i > m + 2) H[i * nn + i - 3] = 0;
       }
-      // Double QR step on rows l..n and columns m..n. The bulge chase itself only needs the
-      // window and the three rows below each reflector; the rest is deferred to sweepRest, which
-      // applies the whole sweep at once along contiguous memory (same products, less traffic).
-      for (let k = m; k <= n - 1; k++) {
-        const notlast = k !== n - 1;
-        rx[k] = ry[k] = rz[k] = rq[k] = rr[k] = 0; // identity unless a reflector is formed
-        if (k !== m) {
-          p = H[k * nn + k - 1];
-          q = H[(k + 1) * nn + k - 1];
-          r = notlast ? H[(k + 2) * nn + k - 1] : 0;
-          x = Math.abs(p) + Math.abs(q) + Math.abs(r);
-          if (x === 0) continue;
-          p /= x;
-          q /= x;
-          r /= x;
-        }
-        s = Math.sqrt(p * p + q * q + r * r);
-        if (p < 0) s = -s;
-        if (s === 0) continue;
-        if (k !== m) H[k * nn + k - 1] = -s * x;
-        else if (l !== m) H[k * nn + k - 1] = -H[k * nn + k - 1];
-        p += s;
-        x = p / s;
-        y = q / s;
-        z = r / s;
-        q /= p;
-        r /= p;
-        rx[k] = x;
-        ry[k] = y;
-        rz[k] = z;
-        rq[k] = q;
-        rr[k] = r;
-        const bk = k * nn;
-        const bk1 = bk + nn;
-        const bk2 = bk1 + nn;
-        // row modification inside the window (columns k..n)
-        if (notlast) {
-          for (let j = k; j <= n; j++) {
-            const pj = H[bk + j] + q * H[bk1 + j] + r * H[bk2 + j];
-            H[bk + j] -= pj * x;
-            H[bk1 + j] -= pj * y;
-            H[bk2 + j] -= pj * z;
-          }
-        } else {
-          for (let j = k; j <= n; j++) {
-            const pj = H[bk + j] + q * H[bk1 + j];
-            H[bk + j] -= pj * x;
-            H[bk1 + j] -= pj * y;
-          }
-        }
-        // column modification of the rows below the reflector (k+1..k+3): the chase reads them next;
-        // rows 0..k are never combined again in this sweep, so their update waits for sweepRest
-        const iEnd = Math.min(n, k + 3);
-        if (notlast) {
-          for (let i = k + 1; i <= iEnd; i++) {
-            const b = i * nn + k;
-            const pi = x * H[b] + y * H[b + 1] + z * H[b + 2];
-            H[b] -= pi;
-            H[b + 1] -= pi * q;
-            H[b + 2] -= pi * r;
-          }
-        } else {
-          for (let i = k + 1; i <= iEnd; i++) {
-            const b = i * nn + k;
-            const pi = x * H[b] + y * H[b + 1];
-            H[b] -= pi;
-            H[b + 1] -= pi * q;
-          }
-        }
-      }
-      sweepRest(H, Vt, nn, m, n, rx, ry, rz, rq, rr);
+      // Double QR step on rows l..n and columns m..n (francisSweep), then the deferred rest
+      francisSweep(H, nn, l, m, n, p, q, r, rx, ry, rz, rq, rr);
+      sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors);
     }
   }
 
+  if (!vectors) return;
+  backSubstitute(H, nn, d, e, norm);
+  backTransform(H, nn, Vt);
+}
+
+/**
+ * Eigenvectors of the upper quasi-triangular Schur form by back-substitution (hqr2 structure),
+ * written into H in place: column n of X in column n (a pair: Re, Im in columns n−1, n).
+ */
+function backSubstitute(H: Float64Array, nn: number, d: Float64Array, e: Float64Array, norm: number): void {
+  let n: number;
+  let p: number;
+  let q: number;
+  let r = 0;
+  let s = 0;
+  let t: number;
+  let w: number;
+  let x: number;
+  let y: number;
+  let z = 0;
   // Back-substitute to find the eigenvectors of the upper quasi-triangular form. Column n of the
   // result is built in the contiguous work vectors xr (and xi for the second column of a pair).
   const xr = new Float64Array(nn);
@@ -817,7 +971,10 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
       // H[n][n−1] now holds Re v_n = 0, which the back-transformation below never reads
     }
   }
+}
 
+/** V := V·X in the transposed storage (X upper triangular in H, from backSubstitute). */
+function backTransform(H: Float64Array, nn: number, Vt: Float64Array): void {
   // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
   // (column j of X uses rows 0..j only). In the transposed storage: Vt := Xᵀ·Vt, row j of the
   // result = Σ_{k ≤ j} X[k][j]·(row k of Vt); going from the last row up, rows k < j are still old.

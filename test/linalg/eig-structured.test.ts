@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { eig, eigFlat, eigRC } from '../../src/linalg/eig.js';
-import { frob, matchEigenvalues, pairs, rcLadder, residual, rng, zerosM } from './matrices.js';
+import { frob, lcLadder, matchEigenvalues, pairs, rcLadder, residual, rng, zerosM } from './matrices.js';
 
 /** P·D·A·D⁻¹·Pᵀ with a random power-of-ten diagonal D and a random permutation P. */
 function scrambled(A: number[][], seed: number): { B: number[][]; perm: number[]; s: number[] } {
@@ -132,5 +132,63 @@ describe('RC networks through the symmetric route', () => {
     const P = A.map((row, i) => row.map((v, j) => (i === j ? v : v * (1 + 1e-6 * (2 * r0() - 1)))));
     const r = eig(P);
     expect(residual(P, r)).toBeLessThan(1e-14);
+  });
+});
+
+describe('ladders with complex poles: tridiagonal after reordering, vectors by inverse iteration', () => {
+  it('uniformly damped ladder: poles −σ ± j·2ω₀·cos(kπ/(n+1)) (textbook, from memory), scaled and reordered', () => {
+    // A = −σI + K with K tridiagonal, K[k][k+1] = a_k, K[k+1][k] = −ω₀²/a_k: diagonally similar to
+    // ω₀·(skew tridiag(1, 0, −1)), whose eigenvalues are j·2ω₀·cos(kπ/(n+1)) (those of
+    // tridiag(1, 0, 1) times j)
+    const n = 300;
+    const w0 = 1e6;
+    const sigma = 2e3;
+    const r0 = rng(41);
+    const A = zerosM(n);
+    for (let k = 0; k < n; k++) A[k][k] = -sigma;
+    for (let k = 0; k + 1 < n; k++) {
+      // modest spread: a random walk of large factors along the chain makes the poles
+      // ill-conditioned in floating point for any method (numpy.linalg.eig too)
+      const a = w0 * 10 ** (0.2 * r0() - 0.1);
+      A[k][k + 1] = a;
+      A[k + 1][k] = -(w0 * w0) / a;
+    }
+    const { B } = scrambled(A, 43);
+    const r = eig(B);
+    const exRe: number[] = [];
+    const exIm: number[] = [];
+    for (let k = 1; k <= n; k++) {
+      exRe.push(-sigma);
+      exIm.push(2 * w0 * Math.cos((k * Math.PI) / (n + 1)));
+    }
+    expect(matchEigenvalues(pairs(r.re, r.im), pairs(exRe, exIm))).toBeLessThan(1e-13 * 2 * w0);
+    expect(residual(B, r)).toBeLessThan(1e-14);
+  });
+  for (const n of [40, 300]) {
+    it(`random lossy LC ladder, ${n} states: agrees with the Schur-form path`, () => {
+      const A = lcLadder(n, 50 + n);
+      const r = eig(A);
+      expect(residual(A, r)).toBeLessThan(1e-14);
+      const g = eigFlat(new Float64Array(A.flat()), n, { inverseIteration: false });
+      const scaleA = Math.max(...r.re.map((x, i) => Math.hypot(x, r.im[i])));
+      expect(matchEigenvalues(pairs(r.re, r.im), pairs(Array.from(g.re), Array.from(g.im)))).toBeLessThan(1e-12 * scaleA);
+    });
+  }
+  it('two identical decoupled ladders (every pole twice) keep independent vectors', () => {
+    const m = 30;
+    const L = lcLadder(m, 61);
+    const A = zerosM(2 * m);
+    for (let i = 0; i < m; i++) {
+      for (let j = 0; j < m; j++) {
+        A[i][j] = L[i][j];
+        A[m + i][m + j] = L[i][j];
+      }
+    }
+    const r = eig(A);
+    expect(residual(A, r)).toBeLessThan(1e-14);
+    // the eigenvector matrix is not singular: its smallest singular value is bounded away from 0
+    const VtV = r.V[0].map((_, a) => r.V[0].map((__, b) => r.V.reduce((acc, row) => acc + row[a] * row[b], 0)));
+    const s = eig(VtV).re; // symmetric positive semidefinite: real eigenvalues
+    expect(Math.min(...s)).toBeGreaterThan(1e-6);
   });
 });
