@@ -325,24 +325,34 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
       const base = i * n;
       for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
     }
-    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high, two rows at a time
+    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high, four rows at a time
     i = 0;
-    for (; i + 1 <= high; i += 2) {
+    for (; i + 3 <= high; i += 4) {
       const b0 = i * n;
       const b1 = b0 + n;
+      const b2 = b1 + n;
+      const b3 = b2 + n;
       let s0 = 0;
       let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
       for (let j = m; j <= high; j++) {
         const oj = ort[j];
         s0 += oj * H[b0 + j];
         s1 += oj * H[b1 + j];
+        s2 += oj * H[b2 + j];
+        s3 += oj * H[b3 + j];
       }
       s0 /= h;
       s1 /= h;
+      s2 /= h;
+      s3 /= h;
       for (let j = m; j <= high; j++) {
         const oj = ort[j];
         H[b0 + j] -= s0 * oj;
         H[b1 + j] -= s1 * oj;
+        H[b2 + j] -= s2 * oj;
+        H[b3 + j] -= s3 * oj;
       }
     }
     for (; i <= high; i++) {
@@ -461,7 +471,50 @@ function sweepRest(
   rr: Float64Array,
   vectors: boolean,
 ): void {
-  for (let i = top; i <= n - 1; i++) {
+  let i = top;
+  // two rows at a time share the reflector loads; the first row of a pair inside the sweep
+  // (i ≥ m) meets reflector i alone first
+  for (; i + 1 <= n - 1; i += 2) {
+    const a = i * nn;
+    const b = a + nn;
+    let k = Math.max(i, m);
+    let a0 = H[a + k];
+    let a1 = H[a + k + 1];
+    if (i >= m) {
+      const a2 = H[a + k + 2];
+      const pi = rx[k] * a0 + ry[k] * a1 + rz[k] * a2;
+      H[a + k] = a0 - pi;
+      a0 = a1 - pi * rq[k];
+      a1 = a2 - pi * rr[k];
+      k++;
+    }
+    let b0 = H[b + k];
+    let b1 = H[b + k + 1];
+    for (; k < n - 1; k++) {
+      const x = rx[k];
+      const y = ry[k];
+      const z = rz[k];
+      const q = rq[k];
+      const r = rr[k];
+      const a2 = H[a + k + 2];
+      const b2 = H[b + k + 2];
+      const pa = x * a0 + y * a1 + z * a2;
+      const pb = x * b0 + y * b1 + z * b2;
+      H[a + k] = a0 - pa;
+      H[b + k] = b0 - pb;
+      a0 = a1 - pa * q;
+      a1 = a2 - pa * r;
+      b0 = b1 - pb * q;
+      b1 = b2 - pb * r;
+    }
+    const pa = rx[n - 1] * a0 + ry[n - 1] * a1;
+    const pb = rx[n - 1] * b0 + ry[n - 1] * b1;
+    H[a + n - 1] = a0 - pa;
+    H[a + n] = a1 - pa * rq[n - 1];
+    H[b + n - 1] = b0 - pb;
+    H[b + n] = b1 - pb * rq[n - 1];
+  }
+  for (; i <= n - 1; i++) {
     const b = i * nn;
     const k0 = Math.max(i, m);
     let h0 = H[b + k0];
@@ -978,10 +1031,23 @@ function backTransform(H: Float64Array, nn: number, Vt: Float64Array): void {
   // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
   // (column j of X uses rows 0..j only). In the transposed storage: Vt := Xᵀ·Vt, row j of the
   // result = Σ_{k ≤ j} X[k][j]·(row k of Vt); going from the last row up, rows k < j are still old.
+  // Four rows of Vt per pass over the accumulator.
   const row = new Float64Array(nn);
   for (let j = nn - 1; j >= 0; j--) {
     row.fill(0);
-    for (let k = 0; k <= j; k++) {
+    let k = 0;
+    for (; k + 3 <= j; k += 4) {
+      const x0 = H[k * nn + j];
+      const x1 = H[(k + 1) * nn + j];
+      const x2 = H[(k + 2) * nn + j];
+      const x3 = H[(k + 3) * nn + j];
+      const b0 = k * nn;
+      const b1 = b0 + nn;
+      const b2 = b1 + nn;
+      const b3 = b2 + nn;
+      for (let i = 0; i < nn; i++) row[i] += x0 * Vt[b0 + i] + x1 * Vt[b1 + i] + x2 * Vt[b2 + i] + x3 * Vt[b3 + i];
+    }
+    for (; k <= j; k++) {
       const xkj = H[k * nn + j];
       if (xkj === 0) continue;
       const bk = k * nn;
