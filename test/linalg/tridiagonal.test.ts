@@ -74,7 +74,8 @@ describe('clusters: inverse iteration keeps the vectors orthogonal', () => {
     expect(Math.abs(w[n - 1] - 10.746194182903393)).toBeLessThan(1e-13);
     expect(Math.abs(w[n - 2] - 10.746194182903322)).toBeLessThan(1e-13);
     const z = tridiagonalEigenvectors(d, e, w);
-    const s = stats(d, e, w, z);
+    expect(z).not.toBeNull();
+    const s = stats(d, e, w, z as Float64Array);
     expect(s.residual).toBeLessThan(1e-14);
     expect(s.orth).toBeLessThan(1e-13);
   });
@@ -104,12 +105,13 @@ describe('clusters: inverse iteration keeps the vectors orthogonal', () => {
     for (let i = 0; i < n - 1; i++) e[i] = 1 / Math.sqrt(C[i] * C[i + 1]);
     const w = tridiagonalEigenvalues(d, e);
     const z1 = tridiagonalEigenvectors(d, e, w);
+    expect(z1).not.toBeNull();
     const z2 = new Float64Array(n * n);
     for (let k = 0; k < n; k++) z2[k * n + k] = 1;
     const w2 = Float64Array.from(d);
     tridiagonalQL(w2, e, z2);
     for (let k = 0; k < n; k++) expect(Math.abs(w2[k] - w[k])).toBeLessThan(1e-15 * 4);
-    for (const z of [z1, z2]) {
+    for (const z of [z1 as Float64Array, z2]) {
       const s = stats(d, e, w, z);
       expect(s.residual).toBeLessThan(1e-14);
       expect(s.orth).toBeLessThan(1e-13);
