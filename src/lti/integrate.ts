@@ -49,41 +49,40 @@ function monomials(terms: Term[]): Monos {
   return m;
 }
 
-/** The monomials of `terms` into `m` (reused), zero coefficients kept: the layout is the terms' shape. */
-function monomialsInto(terms: Term[], m: Monos): Monos {
+/**
+ * The monomials of `terms` into `m` (reused; entries past the count are stale), zero coefficients
+ * kept: the layout is the terms' shape. Returns the count.
+ */
+function monomialsInto(terms: Term[], m: Monos): number {
   let n = 0;
-  const put = (re: number, im: number, k: number, kr: number, ki: number) => {
-    m.cre[n] = re;
-    m.cim[n] = im;
-    m.k[n] = k;
-    m.kre[n] = kr;
-    m.kim[n] = ki;
-    n++;
-  };
   for (const t of terms) {
     switch (t.kind) {
       case 'exp':
-        put(t.coef, 0, 0, t.lambda, 0);
+        n = put(m, n, t.coef, 0, 0, t.lambda, 0);
         break;
       case 'poly-exp':
-        for (let k = 0; k < t.polyCoefs.length; k++) put(t.polyCoefs[k], 0, k, t.lambda, 0);
+        for (let k = 0; k < t.polyCoefs.length; k++) n = put(m, n, t.polyCoefs[k], 0, k, t.lambda, 0);
         break;
       case 'osc':
-        put(t.cosCoef, -t.sinCoef, 0, t.sigma, t.omega);
+        n = put(m, n, t.cosCoef, -t.sinCoef, 0, t.sigma, t.omega);
         break;
       case 'quasi': {
         const len = Math.max(t.cosPoly.length, t.sinPoly.length);
-        for (let k = 0; k < len; k++) put(t.cosPoly[k] ?? 0, -(t.sinPoly[k] ?? 0), k, t.sigma, t.omega);
+        for (let k = 0; k < len; k++) n = put(m, n, t.cosPoly[k] ?? 0, -(t.sinPoly[k] ?? 0), k, t.sigma, t.omega);
         break;
       }
     }
   }
-  m.cre.length = n;
-  m.cim.length = n;
-  m.k.length = n;
-  m.kre.length = n;
-  m.kim.length = n;
-  return m;
+  return n;
+}
+
+function put(m: Monos, n: number, re: number, im: number, k: number, kr: number, ki: number): number {
+  m.cre[n] = re;
+  m.cim[n] = im;
+  m.k[n] = k;
+  m.kre[n] = kr;
+  m.kim[n] = ki;
+  return n + 1;
 }
 
 // output slots of powerExpIntegralInto (no allocation on the hot path)
@@ -210,8 +209,8 @@ export class RepeatedIntegrals {
 
   /** ∫0^T f dτ into `sum` and ∫0^T f² dτ into `square`. */
   integrate(terms: Term[], T: number): void {
-    const m = monomialsInto(terms, this.scratch);
-    const M = m.k.length;
+    const m = this.scratch;
+    const M = monomialsInto(terms, m);
     if (M > MAX_LAYOUT || this.layouts >= MAX_LAYOUTS) {
       this.sum = integrateTerms(terms, T);
       this.square = integrateProduct(terms, terms, T);
@@ -219,9 +218,15 @@ export class RepeatedIntegrals {
     }
     let list = this.byLength.get(T);
     if (!list) this.byLength.set(T, (list = []));
-    let L = list.find((l) => sameLayout(l, m));
+    let L: Layout | undefined;
+    for (const l of list) {
+      if (sameLayout(l, m, M)) {
+        L = l;
+        break;
+      }
+    }
     if (!L) {
-      L = makeLayout(m, T);
+      L = makeLayout(m, M, T);
       list.push(L);
       this.layouts++;
     }
@@ -288,15 +293,13 @@ interface Layout {
   wim: Float64Array;
 }
 
-function sameLayout(l: Layout, m: Monos): boolean {
-  const M = m.k.length;
+function sameLayout(l: Layout, m: Monos, M: number): boolean {
   if (l.k.length !== M) return false;
   for (let x = 0; x < M; x++) if (l.k[x] !== m.k[x] || l.kre[x] !== m.kre[x] || l.kim[x] !== m.kim[x]) return false;
   return true;
 }
 
-function makeLayout(m: Monos, T: number): Layout {
-  const M = m.k.length;
+function makeLayout(m: Monos, M: number, T: number): Layout {
   const Ire = new Float64Array(M);
   const Iim = new Float64Array(M);
   for (let x = 0; x < M; x++) {
@@ -320,17 +323,17 @@ function makeLayout(m: Monos, T: number): Layout {
     }
   }
   const L: Layout = {
-    k: m.k.slice(),
-    kre: m.kre.slice(),
-    kim: m.kim.slice(),
+    k: m.k.slice(0, M),
+    kre: m.kre.slice(0, M),
+    kim: m.kim.slice(0, M),
     Ire,
     Iim,
     G1re,
     G1im,
     G2re,
     G2im,
-    c0re: m.cre.slice(),
-    c0im: m.cim.slice(),
+    c0re: m.cre.slice(0, M),
+    c0im: m.cim.slice(0, M),
     varying: new Uint8Array(M),
     vlist: [],
     fixedSum: 0,

@@ -214,7 +214,8 @@ export function groupsBound(g: Groups, a: number, b: number): number {
   let s = 0;
   for (let q = 0; q < g.n; q++) {
     let p = 0;
-    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) p = p * b + Math.hypot(g.cr[i]!, g.ci[i]!);
+    // |c| as √(re² + im²): overflows to Infinity only beyond 1e154, which leaves the bound valid
+    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) p = p * b + Math.sqrt(g.cr[i]! * g.cr[i]! + g.ci[i]! * g.ci[i]!);
     if (p === 0) continue;
     const kr = g.kr[q]!;
     s += kr === 0 ? p : p * Math.exp(Math.max(kr * a, kr * b));

@@ -76,7 +76,7 @@ function shapeMetrics(times: Float64Array, pieces: readonly Piece[], a: ReturnTy
   return {
     ringingHz: ring ? ring.hz : null,
     logDecrement: ring ? ring.logDecrement : null,
-    maxSlope: pieces.length > 0 ? maxSlope(pieces, start, end, times) : null,
+    maxSlope: pieces.length > 0 ? maxSlope(pieces, start, end, times, a.track.slopeBounds) : null,
     average: mean ? mean.average : null,
     rms: mean ? mean.rms : null,
   };

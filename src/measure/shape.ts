@@ -116,7 +116,13 @@ export function ringing(pieces: readonly Piece[], start: number, end: number, fl
  * any piece start (divided by that margin twice) can neither win nor block a winner, so it is not
  * searched: a long pulse train searches only the few pieces where the slope can be largest.
  */
-export function maxSlope(pieces: readonly Piece[], start: number, end: number, extra?: ArrayLike<number>): { value: number; time: number } | null {
+export function maxSlope(
+  pieces: readonly Piece[],
+  start: number,
+  end: number,
+  extra?: ArrayLike<number>,
+  bounds?: Track['slopeBounds'],
+): { value: number; time: number } | null {
   const clipped = clipPieces(pieces, start, end);
   if (clipped.length === 0) return null;
   const G = emptyGroups();
@@ -124,10 +130,12 @@ export function maxSlope(pieces: readonly Piece[], start: number, end: number, e
   const D2 = emptyGroups();
   const D3 = emptyGroups();
   // bounds: |y'| at each piece's first instant (a value it reaches) and above it over the piece:
-  // the size of y' there, or (shorter pieces) |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor)
-  const upper = new Float64Array(clipped.length);
-  let reached = 0;
-  clipped.forEach(({ piece, lo, hi }, i) => {
+  // the size of y' there, or (shorter pieces) |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor);
+  // the track of the same pieces over the same span found them already
+  const given = bounds && bounds.upper.length === clipped.length;
+  const upper = given ? bounds.upper : new Float64Array(clipped.length);
+  let reached = given ? bounds.reached : 0;
+  if (!given) clipped.forEach(({ piece, lo, hi }, i) => {
     groupTerms(piece.terms, G);
     groupsDerivative(G, D1);
     groupsDerivative(D1, D2);

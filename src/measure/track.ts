@@ -24,6 +24,11 @@ export interface Track {
   stretches: Stretch[];
   start: number;
   end: number;
+  /**
+   * Found on the way (closed forms only), for the steepest-slope search (shape.ts maxSlope): per
+   * stretch an upper bound of |dy/dt| over it, and the largest |dy/dt| at a stretch start.
+   */
+  slopeBounds?: { upper: Float64Array; reached: number };
 }
 
 /** Fewest grid intervals per piece when looking for extrema. */
@@ -37,7 +42,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
-  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups() };
+  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0 };
   const stretches: Stretch[] = [];
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
@@ -54,7 +59,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     // Every piece lies outside the span: measure the last piece over the span.
     stretches.push(pieceStretch(pieces[pieces.length - 1]!, start, end, ctx));
   }
-  return { stretches, start, end };
+  return { stretches, start, end, slopeBounds: { upper: Float64Array.from(ctx.upper), reached: ctx.reached } };
 }
 
 interface Ctx {
@@ -67,31 +72,54 @@ interface Ctx {
   D: Groups;
   D2: Groups;
   D3: Groups;
+  /** per stretch so far: an upper bound of |y'| over it; the largest |y'| at a stretch start */
+  upper: number[];
+  reached: number;
+}
+
+/** The stretch of one piece: its value is the piece's closed form (a method: no closure per piece). */
+class PieceStretch implements Stretch {
+  constructor(
+    private readonly piece: Piece,
+    readonly ts: number[],
+    readonly ys: number[],
+  ) {}
+
+  f(t: number): number {
+    return pieceValue(this.piece, t);
+  }
 }
 
 function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): Stretch {
   const t0 = piece.t0;
-  const f = (t: number) => pieceValue(piece, t);
-  if (hi === lo) return { f, ts: [lo], ys: [f(lo)] };
+  if (hi === lo) {
+    ctx.upper.push(Infinity);
+    return new PieceStretch(piece, [lo], [pieceValue(piece, lo)]);
+  }
   const G = groupTerms(piece.terms, ctx.G);
   const D = groupsDerivative(G, ctx.D);
-  const df = (t: number) => groupsValue(D, t - t0);
 
   // a short piece (a cycle of a pulse train) is often provably monotone: y'(a + s) stays within
   // max|y'''|·s²/2 of the line y'(a) + y''(a)·s, so no root when that line keeps its sign by more;
   // its ends are then its only knots
   const a = lo - t0;
-  if (a >= 0) {
+  if (a < 0) ctx.upper.push(Infinity);
+  else {
     const w = hi - lo;
     const D2 = groupsDerivative(D, ctx.D2);
     const D3 = groupsDerivative(D2, ctx.D3);
     const d0 = groupsValue(D, a);
-    const d1 = d0 + groupsValue(D2, a) * w;
+    const s0 = groupsValue(D2, a);
+    const d1 = d0 + s0 * w;
     const r = (groupsBound(D3, a, a + w) * w * w) / 2;
+    // for the slope search: |y'| ≤ its size, and ≤ |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor)
+    ctx.upper.push(Math.min(groupsBound(D, a, a + w), Math.abs(d0) + Math.abs(s0) * w + r));
+    if (Math.abs(d0) > ctx.reached) ctx.reached = Math.abs(d0);
     if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
-      return { f, ts: [lo, hi], ys: [groupsValue(G, a), groupsValue(G, hi - t0)] };
+      return new PieceStretch(piece, [lo, hi], [groupsValue(G, a), groupsValue(G, hi - t0)]);
     }
   }
+  const df = (t: number) => groupsValue(D, t - t0);
 
   // the search grid of peak.ts (equal steps fine enough for the fastest oscillation, plus the
   // sample times inside the piece; no extra steps near the start), thinned where the fast
@@ -126,7 +154,7 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     prevT = t;
     prevD = d;
   }
-  return { f, ts, ys };
+  return new PieceStretch(piece, ts, ys);
 }
 
 function sampledTrack(times: Float64Array, values: Float64Array): Track {

@@ -38,12 +38,12 @@ const clean = (pct: number) => (pct > NOISE_PCT ? pct : 0);
  * signal is monotone between them, so the extremum before the 50 % instant is at a knot: exact
  * on the closed form.
  */
-function preExcursion(stretches: readonly Stretch[], from: number, to: number): number {
+function preExcursion(stretches: readonly Stretch[], g0: number, g1: number, from: number, to: number): number {
   const dir = Math.sign(to - from);
   const mid = (from + to) / 2;
   let worst = 0;
-  for (const s of stretches) {
-    for (const y of s.ys) {
+  for (let i = g0; i < g1; i++) {
+    for (const y of stretches[i]!.ys) {
       if ((y - mid) * dir >= 0) return worst;
       worst = Math.max(worst, (from - y) * dir);
     }
@@ -51,11 +51,11 @@ function preExcursion(stretches: readonly Stretch[], from: number, to: number): 
   return worst;
 }
 
-/** Largest excursion past `to` in the direction of from → to over the knots of `stretches`; 0 when none. */
-function postExcursion(stretches: readonly Stretch[], from: number, to: number): number {
+/** Largest excursion past `to` in the direction of from → to over the knots of stretches g0 … g1−1; 0 when none. */
+function postExcursion(stretches: readonly Stretch[], g0: number, g1: number, from: number, to: number): number {
   const dir = Math.sign(to - from);
   let worst = 0;
-  for (const s of stretches) for (const y of s.ys) worst = Math.max(worst, (y - to) * dir);
+  for (let i = g0; i < g1; i++) for (const y of stretches[i]!.ys) worst = Math.max(worst, (y - to) * dir);
   return worst;
 }
 
@@ -70,7 +70,7 @@ function postExcursion(stretches: readonly Stretch[], from: number, to: number):
 export function undershootPercent(track: Track, initial: number, final: number): number | null {
   const delta = final - initial;
   if (!(delta !== 0) || !Number.isFinite(delta)) return null;
-  return clean((preExcursion(track.stretches, initial, final) / Math.abs(delta)) * 100);
+  return clean((preExcursion(track.stretches, 0, track.stretches.length, initial, final) / Math.abs(delta)) * 100);
 }
 
 /**
@@ -87,30 +87,44 @@ export function eventShoots(track: Track, swing: number, eventTimes?: readonly n
   const stretches = track.stretches;
   // With the sources' own event times, the stretches between two events form one event (a pulse
   // edge with a finite rise is one event, not a ramp and a level); without them, every stretch.
-  const starts = eventTimes ? new Set(eventTimes) : null;
-  const groups: (typeof stretches)[] = [];
-  for (let k = 0; k < stretches.length; k++) {
-    const s = stretches[k]!;
-    if (s.ys.length === 0) continue;
-    if (groups.length === 0 || !starts || starts.has(s.ts[0]!)) groups.push([s]);
-    else groups[groups.length - 1]!.push(s);
-  }
+  // event times sorted, walked alongside the stretch starts (which increase): no hashing per stretch
+  const starts = eventTimes ? Float64Array.from(eventTimes).sort() : null;
+  let p = 0;
+  const isStart = (t: number) => {
+    if (p > 0 && starts![p - 1]! > t) p = 0;
+    while (p < starts!.length && starts![p]! < t) p++;
+    return p < starts!.length && starts![p] === t;
+  };
+  // groups as index ranges [g0, g1) of stretches (no array per group: a long train has 10⁴ of them)
   let prevEnd: number | null = null;
-  for (const group of groups) {
-    const first = group[0]!;
-    const last = group[group.length - 1]!;
+  let g0 = -1;
+  const close = (g1: number) => {
+    if (g0 < 0) return;
+    const first = stretches[g0]!;
+    const last = stretches[g1 - 1]!;
     const from = prevEnd ?? first.ys[0]!;
     const to = last.ys[last.ys.length - 1]!;
     prevEnd = to;
     const size = Math.abs(to - from);
-    if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) continue;
+    if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) return;
     out.push({
       t: first.ts[0]!,
       from,
       to,
-      overshootPct: clean((postExcursion(group, from, to) / size) * 100),
-      undershootPct: clean((preExcursion(group, from, to) / size) * 100),
+      overshootPct: clean((postExcursion(stretches, g0, g1, from, to) / size) * 100),
+      undershootPct: clean((preExcursion(stretches, g0, g1, from, to) / size) * 100),
     });
+  };
+  let lastNonEmpty = -1;
+  for (let k = 0; k < stretches.length; k++) {
+    const s = stretches[k]!;
+    if (s.ys.length === 0) continue;
+    if (g0 < 0 || !starts || isStart(s.ts[0]!)) {
+      close(lastNonEmpty + 1);
+      g0 = k;
+    }
+    lastNonEmpty = k;
   }
+  close(lastNonEmpty + 1);
   return out;
 }

@@ -1,7 +1,7 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import { type Mat, type Vec, dot, matmul, matvec, transpose } from '../linalg/dense.js';
-import { type C, c, cmul, csub } from '../lti/complex.js';
-import { type ScalarMode, project, scalarModes } from '../lti/scalar-modes.js';
+import { type C, c, cmul } from '../lti/complex.js';
+import { type ScalarMode, scalarModes } from '../lti/scalar-modes.js';
 import type { Block, Modal } from '../lti/modal.js';
 import { type BlockSolution, type Forcing, type Particular, blockSolutionTerms, blockStateAt, particularOf, quasiTerm, solveBlockForced, withFree } from '../lti/response.js';
 import { simplifyTerms } from '../lti/simplify.js';
@@ -41,6 +41,7 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const diracAt = new Map(schedule.diracs.map((d) => [d.t, d.area]));
   const jumpAt = new Map(schedule.jumps.map((j) => [j.t, j.delta]));
   const modeSets = modal.blocks.map((b) => scalarModes(b));
+  const nb = modal.blocks.length;
   const outModes = readouts.map((_, w) => modal.blocks.map((b, k) => modeSets[k]?.map((m) => dotRC(pick(gammas[w], b), m.right)) ?? null));
   for (const iv of schedule.intervals) {
     if (wanted.has(iv.t0)) statesAt.set(iv.t0, ss.n ? matvec(modal.W, xm) : []);
@@ -49,7 +50,15 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
     const jump = jumpAt.get(iv.t0);
     const tau = iv.t1 - iv.t0;
     let sameLength = shapes.get(tau);
-    let shape = sameLength?.find((x) => sameComponents(x.comps, iv.components))?.shape;
+    let shape: Shape | undefined;
+    if (sameLength) {
+      for (const x of sameLength) {
+        if (sameComponents(x.comps, iv.components)) {
+          shape = x.shape;
+          break;
+        }
+      }
+    }
     if (!shape) {
       shape = makeShape(modal, beta, gammas, readouts, iv, tau, modeSets);
       if (shapeCount < 4096) {
@@ -59,52 +68,73 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
       }
     }
     // free part per block: scalar modes carry η − η_p(0); clusters a real vector
+    // (plain loops: a long pulse train runs this tens of thousands of times)
     const etas: (C[] | null)[] = [];
     const clusterSols: (BlockSolution | null)[] = [];
-    modal.blocks.forEach((b, k) => {
+    for (let k = 0; k < nb; k++) {
+      const b = modal.blocks[k];
       const modes = modeSets[k];
-      const pt = shape!.particulars[k];
+      const pt = shape.particulars[k];
       if (modes && pt.modes) {
-        etas.push(modes.map((m, i) => csub(project(m.left, pick(xm, b)), pt.modes![i].at0)));
+        const eta: C[] = [];
+        for (let l = 0; l < modes.length; l++) {
+          // left·ξ_block − η_p(0)
+          const left = modes[l].left;
+          let re = 0;
+          let im = 0;
+          for (let i = 0; i < b.index.length; i++) {
+            re += left[i].re * xm[b.index[i]];
+            im += left[i].im * xm[b.index[i]];
+          }
+          const at0 = pt.modes[l].at0;
+          eta.push({ re: re - at0.re, im: im - at0.im });
+        }
+        etas.push(eta);
         clusterSols.push(null);
       } else {
         etas.push(null);
         clusterSols.push(withFree(b, pt, pick(xm, b)));
       }
-    });
-    readouts.forEach((r, w) => {
+    }
+    for (let w = 0; w < readouts.length; w++) {
+      const r = readouts[w];
       // the shape's terms are shared by its pieces (never changed: addFree replaces what it merges into)
-      const terms = shape!.readoutTerms[w].slice();
-      modal.blocks.forEach((b, k) => {
+      const terms = shape.readoutTerms[w].slice();
+      for (let k = 0; k < nb; k++) {
         const eta = etas[k];
         if (eta) addFree(terms, modeSets[k]!, outModes[w][k]!, eta);
-        else terms.push(...blockSolutionTerms(b, { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, pick(gammas[w], b), tau));
-      });
+        else terms.push(...blockSolutionTerms(modal.blocks[k], { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, pick(gammas[w], modal.blocks[k]), tau));
+      }
       let impulseArea = 0;
       if (dirac) impulseArea += dot(r.D, dirac);
       if (jump) impulseArea += dot(r.D1, jump);
       pieces[w].push({ t0: iv.t0, t1: iv.t1, terms, impulseArea });
-    });
+    }
     // state at the interval's end: particular end values (cached) plus the free parts carried over
     const next = shape.end.slice();
-    modal.blocks.forEach((b, k) => {
+    for (let k = 0; k < nb; k++) {
+      const b = modal.blocks[k];
       const eta = etas[k];
       if (eta) {
         const modes = modeSets[k]!;
-        const growth = shape!.growth[k]!;
-        b.index.forEach((col, i) => {
+        const growth = shape.growth[k]!;
+        for (let i = 0; i < b.index.length; i++) {
           let v = 0;
-          modes.forEach((m, l) => {
-            const z = cmul(eta[l], growth[l]);
-            v += m.right[i].re * z.re - m.right[i].im * z.im;
-          });
-          next[col] += v;
-        });
+          for (let l = 0; l < modes.length; l++) {
+            // Re[right_i · η_l·e^(λ_l τ)]
+            const e = eta[l];
+            const g = growth[l];
+            const zr = e.re * g.re - e.im * g.im;
+            const zi = e.re * g.im + e.im * g.re;
+            v += modes[l].right[i].re * zr - modes[l].right[i].im * zi;
+          }
+          next[b.index[i]] += v;
+        }
       } else {
         const v = blockStateAt(b, { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, tau);
         b.index.forEach((col, i) => (next[col] += v[i]));
       }
-    });
+    }
     xm = next;
   }
   return { pieces, statesAt, final: ss.n ? matvec(modal.W, xm) : [] };
@@ -133,7 +163,8 @@ function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
   if (modes.length === 1) {
     const coef = out[0].re * eta[0].re - out[0].im * eta[0].im;
     const lambda = modes[0].lambda.re;
-    const at = terms.findIndex((t) => t.kind === 'exp' && t.lambda === lambda);
+    let at = 0;
+    while (at < terms.length && !(terms[at].kind === 'exp' && (terms[at] as { lambda: number }).lambda === lambda)) at++;
     const same = terms[at];
     if (same && same.kind === 'exp') terms[at] = { kind: 'exp', lambda, coef: same.coef + coef };
     else terms.push({ kind: 'exp', lambda, coef });
@@ -146,7 +177,11 @@ function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
   const b = c1.im - c2.im;
   const sigma = modes[0].lambda.re;
   const omega = modes[0].lambda.im;
-  const at = terms.findIndex((t) => t.kind === 'osc' && t.sigma === sigma && t.omega === omega);
+  let at = 0;
+  for (; at < terms.length; at++) {
+    const t = terms[at];
+    if (t.kind === 'osc' && t.sigma === sigma && t.omega === omega) break;
+  }
   const same = terms[at];
   if (same && same.kind === 'osc') terms[at] = { kind: 'osc', sigma, omega, cosCoef: same.cosCoef + a, sinCoef: same.sinCoef - b };
   else terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });

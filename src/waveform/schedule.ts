@@ -77,7 +77,14 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
     const t1 = times[k + 1];
     const components: Component[] = [];
     for (let input = 0; input < models.length; input++) {
-      for (const m of models[input]) for (const c of m.components(t0, t1)) components.push({ power: c.power, sigma: c.sigma, omega: c.omega, re: c.re, im: c.im, input });
+      // (components() returns fresh objects: tag them with their input instead of copying)
+      for (const m of models[input]) {
+        for (const c of m.components(t0, t1)) {
+          const k = c as Component;
+          k.input = input;
+          components.push(k);
+        }
+      }
     }
     const slopes: Component[] = [];
     for (const c of components) for (const d of componentDerivative(c)) slopes.push(d);
