@@ -38,16 +38,24 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const shapes = new Map<number, { comps: Component[]; shape: Shape }[]>();
   let shapeCount = 0;
   const first = schedule.intervals[0]?.t0;
+  // impulses and jumps by time (hashing 10⁴ float keys costs more than walking the sorted lists)
   const diracAt = new Map(schedule.diracs.map((d) => [d.t, d.area]));
-  const jumpAt = new Map(schedule.jumps.map((j) => [j.t, j.delta]));
+  const jumpsSorted = schedule.jumps.every((j, i) => i === 0 || schedule.jumps[i - 1].t < j.t);
+  const jumpAt = jumpsSorted ? null : new Map(schedule.jumps.map((j) => [j.t, j.delta]));
+  let nextJump = 0;
   const modeSets = modal.blocks.map((b) => scalarModes(b));
   const nb = modal.blocks.length;
   const outModes = readouts.map((_, w) => modal.blocks.map((b, k) => modeSets[k]?.map((m) => dotRC(pick(gammas[w], b), m.right)) ?? null));
   for (const iv of schedule.intervals) {
-    if (wanted.has(iv.t0)) statesAt.set(iv.t0, ss.n ? matvec(modal.W, xm) : []);
-    const dirac = diracAt.get(iv.t0);
+    if (wanted.size > 0 && wanted.has(iv.t0)) statesAt.set(iv.t0, ss.n ? matvec(modal.W, xm) : []);
+    const dirac = diracAt.size > 0 ? diracAt.get(iv.t0) : undefined;
     if (dirac && iv.t0 > first) xm = xm.map((v, i) => v + dot(beta[i], dirac));
-    const jump = jumpAt.get(iv.t0);
+    let jump: number[] | undefined;
+    if (jumpAt) jump = jumpAt.get(iv.t0);
+    else {
+      while (nextJump < schedule.jumps.length && schedule.jumps[nextJump].t < iv.t0) nextJump++;
+      if (nextJump < schedule.jumps.length && schedule.jumps[nextJump].t === iv.t0) jump = schedule.jumps[nextJump].delta;
+    }
     const tau = iv.t1 - iv.t0;
     let sameLength = shapes.get(tau);
     let shape: Shape | undefined;

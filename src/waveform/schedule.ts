@@ -67,10 +67,13 @@ export function valueLeftOf(w: Waveform, t: number): number {
 export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = []): InputSchedule {
   const outside: InputSchedule['outside'] = [];
   const models = waves.map((w) => w.terms.filter((t) => t.kind !== 'impulse').map((t) => termModel(t, span)));
-  const raw = new Set<number>([from, span, ...extraBreaks.filter((t) => t > from && t < span)]);
-  for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.add(t);
-  for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.add(t.at);
-  const times = [...raw].sort((a, b) => a - b);
+  // (sorted then deduplicated: a set of 10⁴ float keys costs more)
+  const raw: number[] = [from, span, ...extraBreaks.filter((t) => t > from && t < span)];
+  for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.push(t);
+  for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.push(t.at);
+  const sorted = Float64Array.from(raw).sort();
+  const times: number[] = [];
+  for (const t of sorted) if (times.length === 0 || t !== times[times.length - 1]) times.push(t);
   const intervals: Interval[] = [];
   for (let k = 0; k + 1 < times.length; k++) {
     const t0 = times[k];
