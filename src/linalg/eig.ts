@@ -449,13 +449,17 @@ const MAX_ITER_PER_EIGENVALUE = 60;
 /**
  * The deferred part of one double-shift sweep with reflectors P_m..P_(n−1) (P_(n−1) acts on two
  * rows only; an all-zero reflector is the identity):
- *  - H := H·P_k on rows top..k (row by row: each row meets the sweep's reflectors in order, so a
- *    sliding window of three entries carries it, one load and one store per entry);
  *  - H := P_k·H on columns n+1..nn−1 (right of the window, never touched by the chase);
- *  - V := V·P_k, in the transposed storage Vt := P_kᵀ·Vt on rows k..k+2.
+ *  - V := V·P_k, in the transposed storage Vt := P_kᵀ·Vt on rows k..k+2;
+ *  - H := H·P_k on rows top..k (row by row: each row meets the sweep's reflectors in order, so a
+ *    sliding window of three entries carries it, one load and one store per entry).
  * Left and right products commute, and each row or column sees its own reflectors in order.
  * Without vectors (eigenvalues only) just the active window is kept up to date: top = l, and
- * the last two items are skipped.
+ * the first two items are skipped.
+ *
+ * The loops over memory live in small kernels (slide1, slide2, reflect*): the optimizing compiler
+ * then compiles each on its own, instead of compiling a long first loop on the fly and stalling
+ * on the code after it, which has not run yet (measured: first calls 2× slower).
  */
 function sweepRest(
   H: Float64Array,
@@ -471,73 +475,95 @@ function sweepRest(
   rr: Float64Array,
   vectors: boolean,
 ): void {
+  if (vectors) {
+    if (n + 1 < nn) applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
+    applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
+  }
   let i = top;
-  // two rows at a time share the reflector loads; the first row of a pair inside the sweep
-  // (i ≥ m) meets reflector i alone first
-  for (; i + 1 <= n - 1; i += 2) {
-    const a = i * nn;
-    const b = a + nn;
-    let k = Math.max(i, m);
-    let a0 = H[a + k];
-    let a1 = H[a + k + 1];
-    if (i >= m) {
-      const a2 = H[a + k + 2];
-      const pi = rx[k] * a0 + ry[k] * a1 + rz[k] * a2;
-      H[a + k] = a0 - pi;
-      a0 = a1 - pi * rq[k];
-      a1 = a2 - pi * rr[k];
-      k++;
-    }
-    let b0 = H[b + k];
-    let b1 = H[b + k + 1];
-    for (; k < n - 1; k++) {
-      const x = rx[k];
-      const y = ry[k];
-      const z = rz[k];
-      const q = rq[k];
-      const r = rr[k];
-      const a2 = H[a + k + 2];
-      const b2 = H[b + k + 2];
-      const pa = x * a0 + y * a1 + z * a2;
-      const pb = x * b0 + y * b1 + z * b2;
-      H[a + k] = a0 - pa;
-      H[b + k] = b0 - pb;
-      a0 = a1 - pa * q;
-      a1 = a2 - pa * r;
-      b0 = b1 - pb * q;
-      b1 = b2 - pb * r;
-    }
-    const pa = rx[n - 1] * a0 + ry[n - 1] * a1;
-    const pb = rx[n - 1] * b0 + ry[n - 1] * b1;
-    H[a + n - 1] = a0 - pa;
-    H[a + n] = a1 - pa * rq[n - 1];
-    H[b + n - 1] = b0 - pb;
-    H[b + n] = b1 - pb * rq[n - 1];
+  if ((n - top) % 2 === 1) {
+    // an odd number of rows: the first goes alone, the rest in pairs
+    slide1(H, i * nn, Math.max(i, m), n, rx, ry, rz, rq, rr);
+    i++;
   }
-  for (; i <= n - 1; i++) {
-    const b = i * nn;
-    const k0 = Math.max(i, m);
-    let h0 = H[b + k0];
-    let h1 = H[b + k0 + 1];
-    for (let k = k0; k < n - 1; k++) {
-      const h2 = H[b + k + 2];
-      const pi = rx[k] * h0 + ry[k] * h1 + rz[k] * h2;
-      H[b + k] = h0 - pi;
-      h0 = h1 - pi * rq[k];
-      h1 = h2 - pi * rr[k];
-    }
-    const pi = rx[n - 1] * h0 + ry[n - 1] * h1;
-    H[b + n - 1] = h0 - pi;
-    H[b + n] = h1 - pi * rq[n - 1];
+  for (; i < n; i += 2) slide2(H, i * nn, (i + 1) * nn, i, m, n, rx, ry, rz, rq, rr);
+}
+
+/** Row at offset b: H := H·P_k for k = k0..n−1, a sliding window of three entries. */
+function slide1(H: Float64Array, b: number, k0: number, n: number, rx: Float64Array, ry: Float64Array, rz: Float64Array, rq: Float64Array, rr: Float64Array): void {
+  const last = n - 1;
+  let h0 = H[b + k0];
+  let h1 = H[b + k0 + 1];
+  for (let k = k0; k < last; k++) {
+    const h2 = H[b + k + 2];
+    const pi = rx[k] * h0 + ry[k] * h1 + rz[k] * h2;
+    H[b + k] = h0 - pi;
+    h0 = h1 - pi * rq[k];
+    h1 = h2 - pi * rr[k];
   }
-  if (!vectors) return;
-  if (n + 1 < nn) applyLeft(H, nn, n + 1, nn, m, n, rx, ry, rz, rq, rr, false);
-  applyLeft(Vt, nn, 0, nn, m, n, rx, ry, rz, rq, rr, true);
+  const pi = rx[last] * h0 + ry[last] * h1;
+  H[b + last] = h0 - pi;
+  H[b + n] = h1 - pi * rq[last];
+}
+
+/**
+ * Rows i (offset a) and i+1 (offset b) together, sharing the reflector loads; row i meets
+ * reflector i alone first when i ≥ m (row i+1 starts one reflector later).
+ */
+function slide2(
+  H: Float64Array,
+  a: number,
+  b: number,
+  i: number,
+  m: number,
+  n: number,
+  rx: Float64Array,
+  ry: Float64Array,
+  rz: Float64Array,
+  rq: Float64Array,
+  rr: Float64Array,
+): void {
+  const last = n - 1;
+  let k = i >= m ? i : m;
+  let a0 = H[a + k];
+  let a1 = H[a + k + 1];
+  if (i >= m) {
+    const a2 = H[a + k + 2];
+    const pi = rx[k] * a0 + ry[k] * a1 + rz[k] * a2;
+    H[a + k] = a0 - pi;
+    a0 = a1 - pi * rq[k];
+    a1 = a2 - pi * rr[k];
+    k++;
+  }
+  let b0 = H[b + k];
+  let b1 = H[b + k + 1];
+  for (; k < last; k++) {
+    const x = rx[k];
+    const y = ry[k];
+    const z = rz[k];
+    const q = rq[k];
+    const r = rr[k];
+    const a2 = H[a + k + 2];
+    const b2 = H[b + k + 2];
+    const pa = x * a0 + y * a1 + z * a2;
+    const pb = x * b0 + y * b1 + z * b2;
+    H[a + k] = a0 - pa;
+    H[b + k] = b0 - pb;
+    a0 = a1 - pa * q;
+    a1 = a2 - pa * r;
+    b0 = b1 - pb * q;
+    b1 = b2 - pb * r;
+  }
+  const pa = rx[last] * a0 + ry[last] * a1;
+  const pb = rx[last] * b0 + ry[last] * b1;
+  H[a + last] = a0 - pa;
+  H[a + n] = a1 - pa * rq[last];
+  H[b + last] = b0 - pb;
+  H[b + n] = b1 - pb * rq[last];
 }
 
 /**
  * M := P_k·M (transposed: false; P = I − v·uᵀ with v = (x, y, z), u = (1, q, r)) or M := P_kᵀ·M
- * (transposed: true) on rows k..k+2, columns c0..c1−1, for k = m..n−1 in order. Two consecutive
+ * (transposed: true) on rows k..k+2, columns c0..c1, for k = m..n−1 in order. Two consecutive
  * reflectors share one pass over the columns (four rows in registers).
  */
 function applyLeft(
@@ -554,73 +580,96 @@ function applyLeft(
   rr: Float64Array,
   transposed: boolean,
 ): void {
-  // weights (W0, W1, W2) form the dot product, (E0, E1, E2) scale the update; null stands for 1
-  const W0 = transposed ? rx : null;
-  const W1 = transposed ? ry : rq;
-  const W2 = transposed ? rz : rr;
-  const E0 = transposed ? null : rx;
-  const E1 = transposed ? rq : ry;
-  const E2 = transposed ? rr : rz;
+  // the product with (w0, w1, w2) forms the dot, (e0, e1, e2) scale the update
   let k = m;
   for (; k + 1 < n - 1; k += 2) {
-    const a0 = W0 ? W0[k] : 1;
-    const a1 = W1[k];
-    const a2 = W2[k];
-    const f0 = E0 ? E0[k] : 1;
-    const f1 = E1[k];
-    const f2 = E2[k];
-    const b0 = W0 ? W0[k + 1] : 1;
-    const b1 = W1[k + 1];
-    const b2 = W2[k + 1];
-    const g0 = E0 ? E0[k + 1] : 1;
-    const g1 = E1[k + 1];
-    const g2 = E2[k + 1];
     const r0 = k * nn;
-    const r1 = r0 + nn;
-    const r2 = r1 + nn;
-    const r3 = r2 + nn;
-    for (let j = c0; j < c1; j++) {
-      let v0 = M[r0 + j];
-      let v1 = M[r1 + j];
-      let v2 = M[r2 + j];
-      let v3 = M[r3 + j];
-      const p = a0 * v0 + a1 * v1 + a2 * v2;
-      v0 -= p * f0;
-      v1 -= p * f1;
-      v2 -= p * f2;
-      const t = b0 * v1 + b1 * v2 + b2 * v3;
-      v1 -= t * g0;
-      v2 -= t * g1;
-      v3 -= t * g2;
-      M[r0 + j] = v0;
-      M[r1 + j] = v1;
-      M[r2 + j] = v2;
-      M[r3 + j] = v3;
+    if (transposed) {
+      reflect4(M, r0, nn, c0, c1, rx[k], ry[k], rz[k], 1, rq[k], rr[k], rx[k + 1], ry[k + 1], rz[k + 1], 1, rq[k + 1], rr[k + 1]);
+    } else {
+      reflect4(M, r0, nn, c0, c1, 1, rq[k], rr[k], rx[k], ry[k], rz[k], 1, rq[k + 1], rr[k + 1], rx[k + 1], ry[k + 1], rz[k + 1]);
     }
   }
   for (; k <= n - 1; k++) {
-    const a0 = W0 ? W0[k] : 1;
-    const a1 = W1[k];
-    const f0 = E0 ? E0[k] : 1;
-    const f1 = E1[k];
     const r0 = k * nn;
-    const r1 = r0 + nn;
-    if (k < n - 1) {
-      const a2 = W2[k];
-      const f2 = E2[k];
-      const r2 = r1 + nn;
-      for (let j = c0; j < c1; j++) {
-        const p = a0 * M[r0 + j] + a1 * M[r1 + j] + a2 * M[r2 + j];
-        M[r0 + j] -= p * f0;
-        M[r1 + j] -= p * f1;
-        M[r2 + j] -= p * f2;
-      }
-    } else {
-      for (let j = c0; j < c1; j++) {
-        const p = a0 * M[r0 + j] + a1 * M[r1 + j];
-        M[r0 + j] -= p * f0;
-        M[r1 + j] -= p * f1;
-      }
+    const rows = k < n - 1 ? 3 : 2;
+    if (transposed) reflect3(M, r0, nn, c0, c1, rows, rx[k], ry[k], rz[k], 1, rq[k], rr[k]);
+    else reflect3(M, r0, nn, c0, c1, rows, 1, rq[k], rr[k], rx[k], ry[k], rz[k]);
+  }
+}
+
+/** Two reflectors on rows r0/nn … r0/nn + 3 (the second one row lower), columns c0..c1. */
+function reflect4(
+  M: Float64Array,
+  r0: number,
+  nn: number,
+  c0: number,
+  c1: number,
+  a0: number,
+  a1: number,
+  a2: number,
+  f0: number,
+  f1: number,
+  f2: number,
+  b0: number,
+  b1: number,
+  b2: number,
+  g0: number,
+  g1: number,
+  g2: number,
+): void {
+  const r1 = r0 + nn;
+  const r2 = r1 + nn;
+  const r3 = r2 + nn;
+  for (let j = c0; j <= c1; j++) {
+    let v0 = M[r0 + j];
+    let v1 = M[r1 + j];
+    let v2 = M[r2 + j];
+    let v3 = M[r3 + j];
+    const p = a0 * v0 + a1 * v1 + a2 * v2;
+    v0 -= p * f0;
+    v1 -= p * f1;
+    v2 -= p * f2;
+    const t = b0 * v1 + b1 * v2 + b2 * v3;
+    v1 -= t * g0;
+    v2 -= t * g1;
+    v3 -= t * g2;
+    M[r0 + j] = v0;
+    M[r1 + j] = v1;
+    M[r2 + j] = v2;
+    M[r3 + j] = v3;
+  }
+}
+
+/** One reflector on three rows (or two: the last reflector of a sweep) from row offset r0, columns c0..c1. */
+function reflect3(
+  M: Float64Array,
+  r0: number,
+  nn: number,
+  c0: number,
+  c1: number,
+  rows: number,
+  a0: number,
+  a1: number,
+  a2: number,
+  f0: number,
+  f1: number,
+  f2: number,
+): void {
+  const r1 = r0 + nn;
+  if (rows === 3) {
+    const r2 = r1 + nn;
+    for (let j = c0; j <= c1; j++) {
+      const p = a0 * M[r0 + j] + a1 * M[r1 + j] + a2 * M[r2 + j];
+      M[r0 + j] -= p * f0;
+      M[r1 + j] -= p * f1;
+      M[r2 + j] -= p * f2;
+    }
+  } else {
+    for (let j = c0; j <= c1; j++) {
+      const p = a0 * M[r0 + j] + a1 * M[r1 + j];
+      M[r0 + j] -= p * f0;
+      M[r1 + j] -= p * f1;
     }
   }
 }
@@ -681,24 +730,8 @@ function francisSweep(
     rz[k] = z;
     rq[k] = q;
     rr[k] = r;
-    const bk = k * nn;
-    const bk1 = bk + nn;
-    const bk2 = bk1 + nn;
     // row modification inside the window (columns k..n)
-    if (notlast) {
-      for (let j = k; j <= n; j++) {
-        const pj = H[bk + j] + q * H[bk1 + j] + r * H[bk2 + j];
-        H[bk + j] -= pj * x;
-        H[bk1 + j] -= pj * y;
-        H[bk2 + j] -= pj * z;
-      }
-    } else {
-      for (let j = k; j <= n; j++) {
-        const pj = H[bk + j] + q * H[bk1 + j];
-        H[bk + j] -= pj * x;
-        H[bk1 + j] -= pj * y;
-      }
-    }
+    reflect3(H, k * nn, nn, k, n, notlast ? 3 : 2, 1, q, r, x, y, z);
     // column modification of the rows below the reflector (k+1..k+3): the chase reads them next;
     // rows 0..k are never combined again in this sweep, so their update waits for sweepRest
     const iEnd = Math.min(n, k + 3);
