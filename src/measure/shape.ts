@@ -173,7 +173,6 @@ function pieceSlope(piece: Piece, lo: number, hi: number, sweeper: Sweeper, extr
   groupsDerivative(G, D1);
   groupsDerivative(D1, D2);
   const f = (t: number) => groupsValue(D1, t - t0);
-  const df = (t: number) => groupsValue(D2, t - t0);
   const best: MagnitudePeak = { value: Math.abs(f(lo)), time: lo };
   const consider = (t: number) => {
     const y = Math.abs(f(t));
@@ -199,7 +198,8 @@ function pieceSlope(piece: Piece, lo: number, hi: number, sweeper: Sweeper, extr
     if (t === prevT) continue;
     const d = ds[k]!;
     if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
-      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
+      const near = sweeper.near(D2, piece, prevT - t0, t - t0);
+      const r = findRoot((u) => near(u - t0), prevT, t, 1e-14, prevD, d);
       if (r > prevT && r < t) consider(r);
     }
     if (d === 0 && k < count - 1) consider(t);

@@ -10,7 +10,7 @@ import { type Groups, groupsValue as groupsAt } from '../lti/term.js';
  * of long pulse trains (10⁴ pieces of the same few shapes, which share the tables).
  */
 
-const CHUNK = 32;
+const CHUNK = 64;
 /** a group counts when it can reach 1e-3 of the sum's rounding (2⁻⁵² of its largest term) */
 const SKIP = 1e-3 * 2 ** -52;
 
@@ -44,6 +44,8 @@ interface Prep {
   logAmp: Float64Array[];
   /** per channel and group: whether the group is a single coefficient (its size is a lower bound too) */
   single: boolean[];
+  /** whether any group is a polynomial */
+  poly: boolean;
 }
 
 function prepare(chs: readonly Groups[]): Prep {
@@ -59,7 +61,7 @@ function prepare(chs: readonly Groups[]): Prep {
   });
   const single: boolean[] = [];
   for (let q = 0; q < g0.n; q++) single.push(g0.off[q + 1]! - g0.off[q]! === 1);
-  return { logAmp, single };
+  return { logAmp, single, poly: single.some((x) => !x) };
 }
 
 /**
@@ -83,7 +85,7 @@ function aliveGroups(chs: readonly Groups[], prep: Prep, ta: number, tb: number,
     }
     floors.push(top + logSkip);
   }
-  const logTb = Math.log(Math.max(tb, 1e-300));
+  const logTb = prep.poly ? Math.log(Math.max(tb, 1e-300)) : 0;
   let count = 0;
   for (let q = 0; q < n; q++) {
     const kr = g.kr[q]!;
@@ -122,6 +124,28 @@ export class Sweeper {
   private sV = [new Float64Array(64), new Float64Array(64)];
   private pts: number[] = [];
   private alive = new Int32Array(16);
+
+  /**
+   * The groups of `g` (the grouped sum of `owner`, one piece) that matter on [ta, tb] (τ), for
+   * root refinement there: an evaluator of their sum (the others are below 1e-3 of its
+   * rounding), valid until the next call.
+   */
+  near(g: Groups, owner: object, ta: number, tb: number): (tau: number) => number {
+    if (g.n <= CHUNK) return (tau) => groupsAt(g, tau);
+    // the sizes of the groups, once per piece (`owner`: a long closed form refines many roots)
+    if (this.nearOf !== owner) {
+      this.nearOf = owner;
+      this.nearPrep = prepare([g]);
+    }
+    const idx = this.nearIdx.length >= g.n ? this.nearIdx : (this.nearIdx = new Int32Array(g.n));
+    const na = aliveGroups([g], this.nearPrep!, ta, tb, idx);
+    return (tau) => groupsAtSome(g, idx, na, tau);
+  }
+
+  private nearOf: object | null = null;
+  private nearPrep: Prep | null = null;
+
+  private nearIdx = new Int32Array(16);
 
   private aliveRoom(n: number): Int32Array {
     if (this.alive.length < n) this.alive = new Int32Array(Math.max(n, 2 * this.alive.length));
@@ -355,4 +379,26 @@ export interface GridSpec {
   extraStep: number;
   /** further times (unsorted), evaluated one by one */
   points?: number[];
+}
+
+/** Σ of the groups idx[0 … count−1] of g at τ (as lti/term.ts groupsValue). */
+function groupsAtSome(g: Groups, idx: Int32Array, count: number, tau: number): number {
+  let s = 0;
+  for (let j = 0; j < count; j++) {
+    const q = idx[j]!;
+    const a = g.kr[q]!;
+    const w = g.ki[q]!;
+    let pr = 0;
+    let pi = 0;
+    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) {
+      pr = pr * tau + g.cr[i]!;
+      pi = pi * tau + g.ci[i]!;
+    }
+    if (w === 0) s += a === 0 ? pr : pr * Math.exp(a * tau);
+    else {
+      const m = a === 0 ? 1 : Math.exp(a * tau);
+      s += m * (pr * Math.cos(w * tau) - pi * Math.sin(w * tau));
+    }
+  }
+  return s;
 }

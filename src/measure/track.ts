@@ -119,7 +119,6 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
       return new PieceStretch(piece, [lo, hi], [groupsValue(G, a), groupsValue(G, hi - t0)]);
     }
   }
-  const df = (t: number) => groupsValue(D, t - t0);
 
   // the search grid of peak.ts (equal steps fine enough for the fastest oscillation, plus the
   // sample times inside the piece; no extra steps near the start), thinned where the fast
@@ -143,7 +142,8 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     if (t === prevT) continue;
     const d = gd[k]!;
     if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
-      const r = findRoot(df, prevT, t, 1e-14, prevD, d);
+      const near = sw.near(D, piece, prevT - t0, t - t0);
+      const r = findRoot((u) => near(u - t0), prevT, t, 1e-14, prevD, d);
       if (r > prevT && r < t) {
         ts.push(r);
         ys.push(groupsValue(G, r - t0));
