@@ -317,7 +317,8 @@ function consistentInitial(ctx: InitContext, Es: Mat, As: Mat, beforeValues: Map
 /** Stored charge (KCL rows) and flux (inductor rows) E·z− from capacitor voltages and inductor currents. */
 function storedCharge(circuit: Circuit, d: Descriptor, beforeValues: Map<string, number>): Vec {
   const q = new Array<number>(d.nz).fill(0);
-  const node = (n: string) => d.nodes.indexOf(n);
+  const index = new Map(d.nodes.map((n, i) => [n, i]));
+  const node = (n: string) => index.get(n) ?? -1;
   for (const p of circuit.parts) {
     const v0 = beforeValues.get(p.name) ?? 0;
     if (p.kind === 'capacitor') {
@@ -336,7 +337,8 @@ function storedCharge(circuit: Circuit, d: Descriptor, beforeValues: Map<string,
 function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat }, beforeValues: Map<string, number>, u0: Vec): InitialState {
   const { circuit, d, s, Zp, Zu, np, X, Xu, chosen, physical } = ctx;
   const q = storedCharge(circuit, d, beforeValues);
-  const p = np ? solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]) : [];
+  const diagonal = idx.Edd.every((row, i) => row.every((v, j) => i === j || v === 0));
+  const p = !np ? [] : diagonal ? idx.d.map((i, k) => q[i] / idx.Edd[k][k]) : solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]);
   const zu = new Array<number>(d.nz).fill(0);
   if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
   const x = np ? matvec(X, p) : [];
@@ -354,7 +356,7 @@ function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, num
   const values = physical.map((ph) => ({
     ph,
     before: beforeValues.get(ph.part.name) ?? 0,
-    after: ph.probe.cz.reduce((acc, c, i) => acc + c * zPlus[i], 0),
+    after: dotSparse(ph.probe.cz, zPlus),
   }));
   let scale = 0;
   for (const v of values) scale = Math.max(scale, Math.abs(v.before), Math.abs(v.after));
@@ -388,6 +390,13 @@ function addInto(a: Vec, b: Vec): void {
 
 function addVec(a: Vec, b: Vec, k = 1): Vec {
   return a.map((v, i) => v + k * b[i]);
+}
+
+/** a·b where a is mostly zeros (a probe row) */
+function dotSparse(a: Vec, b: Vec): number {
+  let acc = 0;
+  for (let i = 0; i < a.length; i++) if (a[i] !== 0) acc += a[i] * b[i];
+  return acc;
 }
 
 function identityOf(n: number): Mat {

@@ -29,14 +29,29 @@ export function sampleUniform(pieces: Piece[], times: Float64Array): Float64Arra
         out[k] = v;
       }
     } else {
-      for (const term of piece.terms) addTerm(out, times, i, end, h, piece.t0, term);
+      // a decaying term stops once it is below 1e-22 of the piece's largest coefficient: far
+      // below the rounding of the sum it belongs to
+      let big = 0;
+      for (const term of piece.terms) big = Math.max(big, termSize(term));
+      for (const term of piece.terms) addTerm(out, times, i, end, h, piece.t0, term, 1e-22 * big);
     }
     i = end;
   }
   return out;
 }
 
-function addTerm(out: Float64Array, times: Float64Array, from: number, to: number, h: number, t0: number, term: Piece['terms'][number]): void {
+function termSize(term: Piece['terms'][number]): number {
+  switch (term.kind) {
+    case 'exp':
+      return Math.abs(term.coef);
+    case 'osc':
+      return Math.abs(term.cosCoef) + Math.abs(term.sinCoef);
+    default:
+      return 0;
+  }
+}
+
+function addTerm(out: Float64Array, times: Float64Array, from: number, to: number, h: number, t0: number, term: Piece['terms'][number], negligible: number): void {
   if (term.kind === 'exp') {
     if (term.lambda === 0) {
       for (let k = from; k < to; k++) out[k] += term.coef;
@@ -45,7 +60,10 @@ function addTerm(out: Float64Array, times: Float64Array, from: number, to: numbe
     const r = Math.exp(term.lambda * h);
     let v = 0;
     for (let k = from; k < to; k++) {
-      if ((k - from) % ANCHOR_EVERY === 0) v = term.coef * Math.exp(term.lambda * (times[k] - t0));
+      if ((k - from) % ANCHOR_EVERY === 0) {
+        v = term.coef * Math.exp(term.lambda * (times[k] - t0));
+        if (term.lambda < 0 && Math.abs(v) < negligible) return;
+      }
       out[k] += v;
       v *= r;
     }
@@ -66,6 +84,7 @@ function addTerm(out: Float64Array, times: Float64Array, from: number, to: numbe
         const s = Math.sin(term.omega * tau);
         zr = e * (term.cosCoef * c + term.sinCoef * s);
         zi = e * (term.cosCoef * s - term.sinCoef * c);
+        if (term.sigma < 0 && e * (Math.abs(term.cosCoef) + Math.abs(term.sinCoef)) < negligible) return;
       }
       out[k] += zr;
       const nr = zr * rr - zi * ri;

@@ -46,4 +46,18 @@ describe('uniform-grid sampling of closed forms', () => {
     const v = sampleUniform(pieces, times);
     times.forEach((t, k) => expect(Math.abs(v[k] - direct(t))).toBeLessThan(1e-15));
   });
+
+  it('stops a decayed term only where it is far below the rounding of the sum', () => {
+    // 5e3·e^(−t/1 ns) dies within a few samples; 2·e^(−t/0.4 ms) carries the rest
+    const p: Piece[] = [{ t0: 0, t1: 1e-3, impulseArea: 0, terms: [{ kind: 'exp', lambda: -1e9, coef: 5e3 }, { kind: 'exp', lambda: -2.5e3, coef: 2 }, { kind: 'osc', sigma: -3e8, omega: 1e9, cosCoef: 40, sinCoef: -7 }] }];
+    const N = 4001;
+    const times = new Float64Array(N);
+    for (let k = 0; k < N; k++) times[k] = (1e-3 * k) / (N - 1);
+    const v = sampleUniform(p, times);
+    for (let k = 0; k < N; k++) {
+      const t = times[k];
+      const exact = 5e3 * Math.exp(-1e9 * t) + 2 * Math.exp(-2.5e3 * t) + Math.exp(-3e8 * t) * (40 * Math.cos(1e9 * t) - 7 * Math.sin(1e9 * t));
+      expect(Math.abs(v[k] - exact)).toBeLessThanOrEqual(1e-15 * Math.max(1, Math.abs(exact)) + 1e-18 * 5e3);
+    }
+  });
 });
