@@ -21,9 +21,18 @@ export function keepsSwinging(pieces: readonly Piece[], track: Track, final: num
     if ((t.kind === 'osc' || t.kind === 'quasi') && t.sigma === 0 && t.omega > 0 && amplitude(t) > 1e-9 * scale) return true;
   }
   const quarter = end - (end - start) / 4;
-  const late = pieces.map((p) => p.t0).filter((t) => t > quarter && t < end);
-  if (late.length < 3 || !(halfWidth > 0) || !Number.isFinite(halfWidth)) return false;
-  return settlingTime(track, final, halfWidth) > late[late.length - 3]!;
+  // the third-last piece start in (quarter, end), from the back (a long train has 10⁴ pieces)
+  let found = 0;
+  let third = NaN;
+  for (let i = pieces.length - 1; i >= 0 && found < 3; i--) {
+    const t = pieces[i]!.t0;
+    if (t > quarter && t < end) {
+      found++;
+      third = t;
+    }
+  }
+  if (found < 3 || !(halfWidth > 0) || !Number.isFinite(halfWidth)) return false;
+  return settlingTime(track, final, halfWidth) > third;
 }
 
 function amplitude(t: Piece['terms'][number]): number {

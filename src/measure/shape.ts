@@ -3,7 +3,7 @@ import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
-import { clipPieces, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
+import { forEachClipped, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
 import type { Track } from './track.js';
@@ -123,8 +123,8 @@ export function maxSlope(
   extra?: ArrayLike<number>,
   bounds?: Track['slopeBounds'],
 ): { value: number; time: number } | null {
-  const clipped = clipPieces(pieces, start, end);
-  if (clipped.length === 0) return null;
+  const count = forEachClipped(pieces, start, end, () => {});
+  if (count === 0) return null;
   const G = emptyGroups();
   const D1 = emptyGroups();
   const D2 = emptyGroups();
@@ -132,26 +132,28 @@ export function maxSlope(
   // bounds: |y'| at each piece's first instant (a value it reaches) and above it over the piece:
   // the size of y' there, or (shorter pieces) |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor);
   // the track of the same pieces over the same span found them already
-  const given = bounds && bounds.upper.length === clipped.length;
-  const upper = given ? bounds.upper : new Float64Array(clipped.length);
+  const given = bounds && bounds.upper.length === count;
+  const upper = given ? bounds.upper : new Float64Array(count);
   let reached = given ? bounds.reached : 0;
-  if (!given) clipped.forEach(({ piece, lo, hi }, i) => {
-    groupTerms(piece.terms, G);
-    groupsDerivative(G, D1);
-    groupsDerivative(D1, D2);
-    groupsDerivative(D2, D3);
-    const a = lo - piece.t0;
-    const b = hi - piece.t0;
-    const v = Math.abs(groupsValue(D1, a));
-    if (v > reached) reached = v;
-    const w = b - a;
-    upper[i] = a >= 0 ? Math.min(groupsBound(D1, a, b), v + Math.abs(groupsValue(D2, a)) * w + (groupsBound(D3, a, b) * w * w) / 2) : Infinity;
-  });
+  if (!given) {
+    forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
+      groupTerms(piece.terms, G);
+      groupsDerivative(G, D1);
+      groupsDerivative(D1, D2);
+      groupsDerivative(D2, D3);
+      const a = lo - piece.t0;
+      const b = hi - piece.t0;
+      const v = Math.abs(groupsValue(D1, a));
+      if (v > reached) reached = v;
+      const w = b - a;
+      upper[i] = a >= 0 ? Math.min(groupsBound(D1, a, b), v + Math.abs(groupsValue(D2, a)) * w + (groupsBound(D3, a, b) * w * w) / 2) : Infinity;
+    });
+  }
   const sweeper = new Sweeper();
   const extraStep = extra ? uniformStep(extra) : NaN;
   const cut = reached / (1 + TIE) ** 2;
   let best: { value: number; time: number } | null = null;
-  clipped.forEach(({ piece, lo, hi }, i) => {
+  forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
     // the bound is NaN when the terms are: search such a piece
     if (upper[i]! < cut) return;
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
@@ -223,7 +225,7 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
   let impulse = false;
   // the cycles of a pulse train share their integrals (see RepeatedIntegrals)
   const cycles = new RepeatedIntegrals();
-  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
+  forEachClipped(pieces, start, end, (piece, _, __, lo, hi) => {
     const a = lo - piece.t0;
     const b = hi - piece.t0;
     const terms = piece.terms;
@@ -239,6 +241,6 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
       sum += piece.impulseArea;
       impulse = true;
     }
-  }
+  });
   return { average: sum / T, rms: impulse ? Infinity : Math.sqrt(Math.max(0, sq) / T) };
 }

@@ -18,7 +18,19 @@ const SKIP = 1e-3 * 2 ** -52;
 export class PowerTables {
   private readonly byStep = new Map<number, Map<number, Map<number, Float64Array>>>();
 
+  // the last few tables asked for (a pulse train asks for the same two or three over and over:
+  // comparing numbers is cheaper than hashing them)
+  private readonly recent: { kr: number; ki: number; h: number; t: Float64Array }[] = [];
+
   get(kr: number, ki: number, h: number): Float64Array {
+    for (const r of this.recent) if (r.kr === kr && r.ki === ki && r.h === h) return r.t;
+    const t = this.lookup(kr, ki, h);
+    if (this.recent.length >= 4) this.recent.pop();
+    this.recent.unshift({ kr, ki, h, t });
+    return t;
+  }
+
+  private lookup(kr: number, ki: number, h: number): Float64Array {
     let a = this.byStep.get(h);
     if (!a) this.byStep.set(h, (a = new Map()));
     let b = a.get(kr);
