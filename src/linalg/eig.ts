@@ -489,7 +489,17 @@ function sweepRest(
 }
 
 /** Row at offset b: H := H·P_k for k = k0..n−1, a sliding window of three entries. */
-function slide1(H: Float64Array, b: number, k0: number, n: number, rx: Float64Array, ry: Float64Array, rz: Float64Array, rq: Float64Array, rr: Float64Array): void {
+function slide1(
+  H: Float64Array,
+  b: number,
+  k0: number,
+  n: number,
+  rx: Float64Array,
+  ry: Float64Array,
+  rz: Float64Array,
+  rq: Float64Array,
+  rr: Float64Array,
+): void {
   const last = n - 1;
   let h0 = H[b + k0];
   let h1 = H[b + k0 + 1];

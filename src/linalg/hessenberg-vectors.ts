@@ -204,7 +204,16 @@ function normalizeReal(x: Float64Array, n: number): void {
   for (let i = 0; i < n; i++) x[i] *= f;
 }
 
-function complexVector(H: Float64Array, n: number, rowEnd: Int32Array, wr: number, wi: number, eps3: number, hnorm: number, w: Workspace): boolean {
+function complexVector(
+  H: Float64Array,
+  n: number,
+  rowEnd: Int32Array,
+  wr: number,
+  wi: number,
+  eps3: number,
+  hnorm: number,
+  w: Workspace,
+): boolean {
   const { ur: Ur, ui: Ui, uEnd, lr: Lr, li: Li, swap, xr, xi, cr, ci } = w;
   let cEnd = rowEnd[0];
   for (let j = 0; j <= cEnd; j++) {

@@ -165,7 +165,10 @@ function oneNorm(d: Float64Array, e: Float64Array): number {
   return r;
 }
 
-/** Clusters: eigenvalues closer than this fraction of ‖T‖₁ to their neighbour are orthogonalized against each other (dstein's value). */
+/**
+ * Clusters: eigenvalues closer than this fraction of ‖T‖₁ to their neighbour are orthogonalized
+ * against each other (dstein's value).
+ */
 const CLUSTER = 1e-3;
 
 /**
@@ -185,7 +188,10 @@ function inverseIterationWork(d: Float64Array, e: Float64Array, w: Float64Array)
   return 2 * (30 * n * n + 2 * n * pairs);
 }
 
-/** Work estimate of QL with the rotations accumulated (about 1.5 sweeps per eigenvalue, 6n flops per rotation, at half the cost per flop of plain Gram–Schmidt). */
+/**
+ * Work estimate of QL with the rotations accumulated: about 1.5 sweeps per eigenvalue, 6n flops
+ * per rotation, at half the cost per flop of plain Gram–Schmidt.
+ */
 function qlWork(n: number): number {
   return 2.25 * n * n * n;
 }

@@ -31,7 +31,12 @@ function maxCos(V: number[][], w: number[]): number {
   const cols = Array.from({ length: n }, (_, k) => V.map((row, i) => row[k] * w[i]));
   const nr = cols.map((c) => Math.hypot(...c));
   let worst = 0;
-  for (let a = 0; a < n; a++) for (let b = a + 1; b < n; b++) worst = Math.max(worst, Math.abs(cols[a].reduce((acc, x, i) => acc + x * cols[b][i], 0)) / (nr[a] * nr[b]));
+  for (let a = 0; a < n; a++) {
+    for (let b = a + 1; b < n; b++) {
+      const dot = cols[a].reduce((acc, x, i) => acc + x * cols[b][i], 0);
+      worst = Math.max(worst, Math.abs(dot) / (nr[a] * nr[b]));
+    }
+  }
   return worst;
 }
 
@@ -121,7 +126,10 @@ describe('RC networks through the symmetric route', () => {
       if (r.im[i] !== 0) continue;
       const l = r.re[i];
       const M = A.map((row, p) => row.map((v, q) => v - (p === q ? l : 0)));
-      const det = M[0][0] * (M[1][1] * M[2][2] - M[1][2] * M[2][1]) - M[0][1] * (M[1][0] * M[2][2] - M[1][2] * M[2][0]) + M[0][2] * (M[1][0] * M[2][1] - M[1][1] * M[2][0]);
+      const det =
+        M[0][0] * (M[1][1] * M[2][2] - M[1][2] * M[2][1]) -
+        M[0][1] * (M[1][0] * M[2][2] - M[1][2] * M[2][0]) +
+        M[0][2] * (M[1][0] * M[2][1] - M[1][1] * M[2][0]);
       expect(Math.abs(det)).toBeLessThan(1e-12 * frob(A) ** 3);
     }
   });
