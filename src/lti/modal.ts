@@ -48,6 +48,9 @@ export function modalDecomposition(A: Mat): Modal {
   // balanced Hessenberg QR (src/linalg/eig.ts): balancing matters for circuits whose states
   // differ in scale by many orders (nanohenry currents next to millifarad voltages)
   const { re, im, V } = eig(A);
+  // RC networks: D⁻¹·A·D symmetric, eigenvectors orthogonal in the D⁻²-weighted product, so no
+  // pair of them is ill-conditioned: no merging into clusters, and W⁻¹ in O(n²) below
+  const symScale = symmetricScale(A);
   // Eigenvalues within round-off of zero (a capacitor or inductor with nothing to discharge it)
   // are exactly zero; a conjugate pair that collapsed there gets an invariant subspace below.
   let norm = 0;
@@ -90,6 +93,7 @@ export function modalDecomposition(A: Mat): Modal {
       let dist = Infinity;
       for (const i of G) for (const j of H) dist = Math.min(dist, Math.hypot(re[i] - re[j], im[i] - im[j]));
       const equal = dist <= 1e-9 * big + tiny;
+      if (symScale) break;
       if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
@@ -117,7 +121,7 @@ export function modalDecomposition(A: Mat): Modal {
   }
   const W = zeros(n, n);
   Wcols.forEach((c, j) => c.forEach((v, i) => (W[i][j] = v)));
-  const sym = symmetricInverse(A, W, cols);
+  const sym = symScale ? symmetricInverse(symScale, W, cols) : null;
   const lu = sym ? null : luFactor(W);
   if (lu && luSingular(lu)) throw new Error('the eigenvectors of the state matrix do not form a basis (singular modal matrix)');
   const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
@@ -159,19 +163,23 @@ function blockMatrix(A: Mat, W: Mat, toModal: (M: Mat) => Mat, index: number[], 
   return index.map((i) => X[i].slice());
 }
 
+/** D with D⁻¹·A·D symmetric (see linalg/symmetrize.ts), or null. */
+function symmetricScale(A: Mat): Float64Array | null {
+  const n = A.length;
+  const flat = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) flat[i * n + j] = A[i][j];
+  return symmetrize(flat, n, 1e-12)?.scale ?? null;
+}
+
 /**
  * When D⁻¹·A·D is symmetric (RC networks), eigenvectors of different blocks are orthogonal in the
  * inner product ⟨x, y⟩ = xᵀ·D⁻²·y, so W⁻¹ = G⁻¹·Wᵀ·D⁻² with G = Wᵀ·D⁻²·W block diagonal:
  * O(n²) instead of an LU of W. Verified on a random vector (W⁻¹·W·r = r); null when A has no such
  * form or the check fails (then the caller factors W).
  */
-function symmetricInverse(A: Mat, W: Mat, cols: number[][]): Mat | null {
-  const n = A.length;
-  const flat = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) flat[i * n + j] = A[i][j];
-  const sym = symmetrize(flat, n, 1e-12);
-  if (!sym) return null;
-  const w2 = Array.from(sym.scale, (d) => 1 / (d * d));
+function symmetricInverse(scale: Float64Array, W: Mat, cols: number[][]): Mat | null {
+  const n = W.length;
+  const w2 = Array.from(scale, (d) => 1 / (d * d));
   const Winv = zeros(n, n);
   for (const index of cols) {
     // G_b = W_bᵀ·D⁻²·W_b and the rows W_bᵀ·D⁻²

@@ -1,7 +1,7 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import type { Vec } from '../linalg/dense.js';
 import { balance } from '../linalg/balance.js';
-import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
+import { bandLU, bandSolve } from '../linalg/band.js';
 import { powerExpIntegral } from '../lti/integrate.js';
 import type { Component } from '../waveform/component.js';
 import type { InputSchedule } from '../waveform/schedule.js';
@@ -44,10 +44,7 @@ export interface TransformCheckResult {
 
 /** s from 0.5/L (the whole epoch) up to the circuit's fastest rate (its first instants), geometrically. */
 export function transformWeights(ss: StateSpace, L: number, count = 5): number[] {
-  // ‖A‖∞ of the balanced matrix bounds every |λ|
-  const Ab = ss.n ? balance(ss.A).B : [];
-  let rate = 0;
-  for (const row of Ab) rate = Math.max(rate, row.reduce((t, v) => t + Math.abs(v), 0));
+  const { rate } = balanced(ss);
   const lo = 0.5 / L;
   const hi = Math.max(lo, Math.min(rate, 1e6 / L));
   const out: number[] = [];
@@ -61,8 +58,7 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
   const m = ss.m;
   const L = b - a;
   const absErr = readouts.map(() => 0);
-  // balancing keeps sI − A well scaled when volts sit next to nanohenry currents
-  const { B: Ab, d } = n ? balance(ss.A) : { B: [] as number[][], d: [] as number[] };
+  const { Ab, d } = balanced(ss);
   const inner = schedule.diracs.filter((x) => x.t > a && x.t < b);
   for (const s of weights) {
     const U = transformInputs(schedule.intervals, m, a, s, 'components');
@@ -75,18 +71,24 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
     const tail = Math.exp(-s * L);
     let X: number[] = [];
     if (n) {
-      // (sI − D⁻¹AD)·(D⁻¹X̂) = D⁻¹·rhs
-      const rhs: number[][] = new Array(n);
+      // (sI − D⁻¹AD)·(D⁻¹X̂) = D⁻¹·rhs, by an LU within the band (a ladder is tridiagonal)
+      const rhs = new Float64Array(n);
       for (let i = 0; i < n; i++) {
         let r = e.xiStart[i] - tail * e.xiEnd[i];
         const Bi = ss.B[i];
         for (let j = 0; j < m; j++) r += Bi[j] * kick[j];
-        rhs[i] = [r / d[i]];
+        rhs[i] = r / d[i];
       }
-      const M = Ab.map((row, i) => row.map((v, j) => (i === j ? s - v : -v)));
-      const f = luFactor(M);
-      if (luSingular(f)) throw new Error(`transform check: sI − A is singular at s = ${s}`);
-      X = luSolve(f, rhs).map((r, i) => r[0] * d[i]);
+      const M = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) {
+        const row = Ab[i];
+        for (let j = 0; j < n; j++) if (row[j] !== 0) M[i * n + j] = -row[j];
+        M[i * n + i] += s;
+      }
+      const f = bandLU(M, n);
+      if (f.singular) throw new Error(`transform check: sI − A is singular at s = ${s}`);
+      const y = bandSolve(f, rhs);
+      X = Array.from(y, (v, i) => v * d[i]);
     }
     const mass = -Math.expm1(-s * L) / s;
     readouts.forEach((r, w) => {
@@ -105,6 +107,21 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
     });
   }
   return { s: weights, absErr };
+}
+
+// balancing keeps sI − A well scaled when volts sit next to nanohenry currents; once per model
+const balancedOf = new WeakMap<StateSpace, { Ab: number[][]; d: number[]; rate: number }>();
+function balanced(ss: StateSpace): { Ab: number[][]; d: number[]; rate: number } {
+  let b = balancedOf.get(ss);
+  if (!b) {
+    const { B: Ab, d } = ss.n ? balance(ss.A) : { B: [] as number[][], d: [] as number[] };
+    // ‖A‖∞ of the balanced matrix bounds every |λ|
+    let rate = 0;
+    for (const row of Ab) rate = Math.max(rate, row.reduce((t, v) => t + Math.abs(v), 0));
+    b = { Ab, d, rate };
+    balancedOf.set(ss, b);
+  }
+  return b;
 }
 
 /** Per input, Σ over the intervals of e^(−s(t0 − a))·∫0^len e^(−sτ)·u(τ) dτ (or of u′). */
