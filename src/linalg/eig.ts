@@ -19,11 +19,17 @@
  * [[re, im], [−im, re]]. Unlike ml-matrix, each eigenvector is scaled to unit 2-norm (a complex
  * pair: ‖Re v‖² + ‖Im v‖² = 1); the directions are the same.
  *
- * eig() first tries a cheaper exact route: when A is diagonally similar to a symmetric matrix (the
- * state matrix of an RC network, A = −C⁻¹·G), it solves the symmetric problem (src/linalg/
- * symmetrize.ts) and maps the orthonormal eigenvectors back, in O(n²) when the symmetric form is
- * tridiagonal up to a permutation (a ladder; src/linalg/tridiagonal.ts). The eigenvalues are then
- * real and ascending.
+ * eig() picks the cheapest exact route by the structure of A:
+ *  - diagonally similar to a symmetric matrix (the state matrix of an RC network, A = −C⁻¹·G):
+ *    the symmetric problem (symmetrize.ts), eigenvectors mapped back; a ladder (tridiagonal up to
+ *    a permutation) through tridiagonal.ts, O(n²) unless the spectrum has large clusters. The
+ *    eigenvalues are then real and ascending.
+ *  - tridiagonal up to a permutation otherwise (LC and RLC ladders): no Householder reduction;
+ *    eigenvalues by the QR sweeps restricted to the active window, eigenvectors by inverse
+ *    iteration on the tridiagonal (hessenberg-vectors.ts), O(n) each; nearly repeated eigenvalues
+ *    take the Schur-form path instead, which keeps their vectors independent.
+ *  - anything else: the Schur-form path above. Its sweeps chase the bulge inside the active
+ *    window and apply the rest of each sweep afterwards in contiguous passes (sweepRest).
  *
  * Storage: eig works row-major (a[i·n + j]); eigSymmetric works column-major internally (the
  * rotations of the QL sweep then run along contiguous memory). Both accept and return number[][].
@@ -71,8 +77,10 @@ export function eig(A: number[][]): EigResult {
 }
 
 /**
- * The same on a row-major Float64Array; `a` is overwritten (it ends up holding the back-substituted
- * Schur form). Throws when an entry is not finite or the QR iteration fails to converge.
+ * The same on a row-major Float64Array; `a` is overwritten. Throws when an entry is not finite or
+ * the QR iteration fails to converge. Options (for tests and comparisons): balance: false skips
+ * the balancing; structured: false forces the dense Schur-form path; inverseIteration: false
+ * keeps ladders on the Schur-form path.
  */
 export function eigFlat(
   a: Float64Array,

@@ -200,3 +200,41 @@ describe('ladders with complex poles: tridiagonal after reordering, vectors by i
     expect(Math.min(...s)).toBeGreaterThan(1e-6);
   });
 });
+
+describe('nearly defective poles keep nearly dependent vectors (what modal.ts detects)', () => {
+  // a critically damped section (vC, iL): vC' = iL/C, iL' = (−vC − R·iL)/L with R = 2√(L/C) has
+  // the double pole −R/(2L) (textbook, from memory); coupled into a lossy ladder by c·ω₀ it splits.
+  // c = 1e-10: the split stays at rounding level, the poles count as repeated (Schur-form path);
+  // c = 1e-3: split by about 5e-4 of the pole (measured), inverse iteration on the ladder path
+  for (const c of [1e-10, 1e-3]) {
+    it(`coupling ${c}`, () => {
+      const L = 1e-3;
+      const C = 1e-6;
+      const R = 2 * Math.sqrt(L / C);
+      const ladder = lcLadder(38, 71);
+      const n = 40;
+      const A = zerosM(n);
+      A[0][1] = 1 / C;
+      A[1][0] = -1 / L;
+      A[1][1] = -R / L;
+      for (let i = 0; i < 38; i++) for (let j = 0; j < 38; j++) A[i + 2][j + 2] = ladder[i][j];
+      const k = c * Math.sqrt(1 / (L * C));
+      A[1][2] = k;
+      A[2][1] = -k;
+      const p = -R / (2 * L);
+      const r = eig(A);
+      expect(residual(A, r)).toBeLessThan(1e-13);
+      const near = r.re.map((_, i) => i).filter((i) => Math.hypot(r.re[i] - p, r.im[i]) < 1e-2 * Math.abs(p));
+      expect(near.length).toBe(2);
+      // the two columns (two real vectors, or Re v and Im v of a pair) are nearly dependent:
+      // σmin/σmax of the n×2 matrix they form, from its 2×2 Gram matrix
+      const [x, y] = near.map((col) => r.V.map((row) => row[col]));
+      const g11 = x.reduce((acc, v) => acc + v * v, 0);
+      const g22 = y.reduce((acc, v) => acc + v * v, 0);
+      const g12 = x.reduce((acc, v, i) => acc + v * y[i], 0);
+      const mean = (g11 + g22) / 2;
+      const dev = Math.hypot((g11 - g22) / 2, g12);
+      expect(Math.sqrt(Math.max(mean - dev, 0) / (mean + dev))).toBeLessThan(1e-2);
+    });
+  }
+});
