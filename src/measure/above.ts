@@ -34,16 +34,18 @@ declare module '../simulate/result.js' {
 export function timeAbove(track: Track, threshold: number): TimeAbove {
   const { start, end } = track;
   const intervals: [number, number][] = [];
-  for (const s of track.stretches) {
-    const n = s.ts.length;
+  const { ts, ys, first } = track;
+  for (let j = 0; j + 1 < first.length; j++) {
+    const a = first[j]!;
+    const n = first[j + 1]! - a;
     if (n < 2) continue;
-    const h = (t: number) => s.f(t) - threshold;
-    let prevT = s.ts[0]!;
-    let prevG = s.ys[0]! - threshold;
+    const h = (t: number) => track.value(j, t) - threshold;
+    let prevT = ts[a]!;
+    let prevG = ys[a]! - threshold;
     let openedAt: number | null = prevG > 0 ? prevT : null;
     for (let k = 1; k < n; k++) {
-      const t = s.ts[k]!;
-      const g = s.ys[k]! - threshold;
+      const t = ts[a + k]!;
+      const g = ys[a + k]! - threshold;
       if (t > prevT && g > 0 !== (openedAt !== null)) {
         const r = findRoot(h, prevT, t, 1e-14, prevG, g);
         if (openedAt === null) openedAt = r;
@@ -55,7 +57,7 @@ export function timeAbove(track: Track, threshold: number): TimeAbove {
       prevT = t;
       prevG = g;
     }
-    if (openedAt !== null) intervals.push([openedAt, s.ts[n - 1]!]);
+    if (openedAt !== null) intervals.push([openedAt, ts[a + n - 1]!]);
   }
   // merge intervals that touch (rounding of a root at a piece boundary: 1e-12 of the span)
   const eps = 1e-12 * (end - start);

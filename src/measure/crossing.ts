@@ -8,23 +8,26 @@ import type { Track } from './track.js';
  */
 export function firstReach(track: Track, level: number, direction: 1 | -1, from = track.start): number | null {
   const g = (y: number) => direction * (y - level);
-  for (const s of track.stretches) {
-    if (s.ts[s.ts.length - 1]! < from) continue;
+  const { ts, ys, first } = track;
+  for (let k = 0; k + 1 < first.length; k++) {
+    const a = first[k]!;
+    const b = first[k + 1]!;
+    if (b === a || ts[b - 1]! < from) continue;
     let prevT = NaN;
     let prevG = NaN;
-    if (s.ts[0]! < from) {
+    if (ts[a]! < from) {
       // start the walk exactly at `from`, inside this stretch
       prevT = from;
-      prevG = g(s.f(from));
+      prevG = g(track.value(k, from));
       if (prevG >= 0) return from;
     }
-    for (let k = 0; k < s.ts.length; k++) {
-      const t = s.ts[k]!;
+    for (let i = a; i < b; i++) {
+      const t = ts[i]!;
       if (t < from || t === prevT) continue;
-      const gk = g(s.ys[k]!);
+      const gk = g(ys[i]!);
       if (gk >= 0) {
         if (Number.isNaN(prevT)) return t;
-        const h = (u: number) => s.f(u) - level;
+        const h = (u: number) => track.value(k, u) - level;
         return findRoot(h, prevT, t, 1e-14, direction * prevG, direction * gk);
       }
       prevT = t;

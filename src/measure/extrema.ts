@@ -9,17 +9,16 @@ export interface Extremum {
 export function findPeakAndValley(track: Track): { peak: Extremum; valley: Extremum } {
   const peak: Extremum = { value: -Infinity, time: track.start };
   const valley: Extremum = { value: Infinity, time: track.start };
-  for (const s of track.stretches) {
-    for (let k = 0; k < s.ts.length; k++) {
-      const y = s.ys[k]!;
-      if (y > peak.value) {
-        peak.value = y;
-        peak.time = s.ts[k]!;
-      }
-      if (y < valley.value) {
-        valley.value = y;
-        valley.time = s.ts[k]!;
-      }
+  const { ts, ys } = track;
+  for (let k = 0; k < ts.length; k++) {
+    const y = ys[k]!;
+    if (y > peak.value) {
+      peak.value = y;
+      peak.time = ts[k]!;
+    }
+    if (y < valley.value) {
+      valley.value = y;
+      valley.time = ts[k]!;
     }
   }
   if (peak.value === -Infinity) peak.value = NaN;

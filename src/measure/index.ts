@@ -10,7 +10,7 @@ export {
   termDerivative,
 } from './evaluate.js';
 export { findRoot } from './root.js';
-export { buildTrack, type Track, type Stretch } from './track.js';
+export { buildTrack, stretchesOf, type Track, type Stretch } from './track.js';
 export { findPeakAndValley, type Extremum } from './extrema.js';
 export { firstReach } from './crossing.js';
 export { riseTime, type RiseTime } from './rise.js';

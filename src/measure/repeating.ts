@@ -14,7 +14,7 @@ import type { Track } from './track.js';
  *     after the third-last boundary.
  */
 export function keepsSwinging(pieces: readonly Piece[], track: Track, final: number, halfWidth: number, scale: number): boolean {
-  if (pieces.length === 0 || track.stretches.length === 0) return false;
+  if (pieces.length === 0 || track.first.length < 2) return false;
   const { start, end } = track;
   const last = pieces[pieceIndexAt(pieces, end)]!;
   for (const t of last.terms) {

@@ -15,19 +15,20 @@ export function bandHalfWidth(band: SettleBand, initial: number, final: number):
  */
 export function settlingTime(track: Track, final: number, halfWidth: number): number {
   const outside = (y: number) => Math.abs(y - final) > halfWidth;
-  const ss = track.stretches;
-  for (let i = ss.length - 1; i >= 0; i--) {
-    const s = ss[i]!;
-    for (let k = s.ts.length - 1; k >= 0; k--) {
-      const y = s.ys[k]!;
+  const { ts, ys, first } = track;
+  for (let k = first.length - 2; k >= 0; k--) {
+    const a = first[k]!;
+    const b = first[k + 1]!;
+    for (let i = b - 1; i >= a; i--) {
+      const y = ys[i]!;
       if (!outside(y)) continue;
-      const t = s.ts[k]!;
+      const t = ts[i]!;
       // Last outside knot of a stretch: the signal jumps into the band at the boundary,
       // or is still outside at the end of the span.
-      if (k === s.ts.length - 1) return t;
+      if (i === b - 1) return t;
       const edge = y > final ? final + halfWidth : final - halfWidth;
-      const h = (u: number) => s.f(u) - edge;
-      return findRoot(h, t, s.ts[k + 1]!, 1e-14, y - edge, s.ys[k + 1]! - edge);
+      const h = (u: number) => track.value(k, u) - edge;
+      return findRoot(h, t, ts[i + 1]!, 1e-14, y - edge, ys[i + 1]! - edge);
     }
   }
   return track.start;

@@ -10,18 +10,18 @@ import { Sweeper, uniformStep } from './sweep.js';
  * form, clipped to the analysed span), each with knots placed so that the signal is monotone
  * between neighbouring knots. Knots include every local extremum, located by root-finding the
  * exact derivative, so peaks between sample points are not missed.
+ *
+ * The knots of all stretches are kept in two flat lists (a long pulse train has tens of thousands
+ * of stretches: no arrays per stretch); `stretchesOf` gives them one object per stretch.
  */
-export interface Stretch {
-  /** The signal inside the stretch (continuous). */
-  f: (t: number) => number;
-  /** Knot times, increasing; ts[0] and ts[last] are the stretch ends. */
-  ts: number[];
-  /** Signal values at the knots. */
-  ys: number[];
-}
-
 export interface Track {
-  stretches: Stretch[];
+  /** knot times (increasing within a stretch; a stretch's first and last are its ends) and values, all stretches in order */
+  ts: number[];
+  ys: number[];
+  /** stretch k holds knots first[k] … first[k + 1] − 1 (one entry more than there are stretches) */
+  first: number[];
+  /** the signal inside stretch k (continuous there) */
+  value(k: number, t: number): number;
   start: number;
   end: number;
   /**
@@ -31,38 +31,83 @@ export interface Track {
   slopeBounds?: { upper: Float64Array; reached: number };
 }
 
+/** One stretch as its own object (see `stretchesOf`). */
+export interface Stretch {
+  /** The signal inside the stretch (continuous). */
+  f: (t: number) => number;
+  /** Knot times, increasing; ts[0] and ts[last] are the stretch ends. */
+  ts: number[];
+  /** Signal values at the knots. */
+  ys: number[];
+}
+
+/** Number of stretches of a track. */
+export function stretchCount(track: Track): number {
+  return track.first.length - 1;
+}
+
+/** The stretches of a track as separate objects (copies of their knots). */
+export function stretchesOf(track: Track): Stretch[] {
+  const out: Stretch[] = [];
+  for (let k = 0; k < stretchCount(track); k++) {
+    const a = track.first[k]!;
+    const b = track.first[k + 1]!;
+    out.push({ f: (t) => track.value(k, t), ts: track.ts.slice(a, b), ys: track.ys.slice(a, b) });
+  }
+  return out;
+}
+
 /** Fewest grid intervals per piece when looking for extrema. */
 const MIN_INTERVALS = 64;
+
+/** The track of closed-form pieces: stretch k is the closed form of piece of[k]. */
+class PieceTrack implements Track {
+  ts: number[] = [];
+  ys: number[] = [];
+  first: number[] = [0];
+  of: Piece[] = [];
+  slopeBounds?: { upper: Float64Array; reached: number };
+  constructor(
+    readonly start: number,
+    readonly end: number,
+  ) {}
+
+  value(k: number, t: number): number {
+    return pieceValue(this.of[k]!, t);
+  }
+}
 
 /** Builds the measurement track from the exact pieces, or from the samples when there are none. */
 export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[]): Track {
   const n = times.length;
-  if (n === 0) return { stretches: [], start: 0, end: 0 };
+  if (n === 0) return new PieceTrack(0, 0);
   const start = times[0]!;
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
-  const ctx: Ctx = { times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0 };
-  const stretches: Stretch[] = [];
+  const track = new PieceTrack(start, end);
+  const ctx: Ctx = { track, times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0 };
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
     const next = pieces[i + 1];
     const lo = Math.max(piece.t0, start);
     const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
-    if (hi < lo || (hi === lo && stretches.length > 0)) continue;
+    if (hi < lo || (hi === lo && track.of.length > 0)) continue;
     // a piece covering a small part of the span needs proportionally fewer grid intervals
     // (a long pulse train has tens of thousands of short pieces); never fewer than 8
     const share = end > start ? (hi - lo) / (end - start) : 1;
-    stretches.push(pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share))));
+    pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)));
   }
-  if (stretches.length === 0) {
+  if (track.of.length === 0) {
     // Every piece lies outside the span: measure the last piece over the span.
-    stretches.push(pieceStretch(pieces[pieces.length - 1]!, start, end, ctx));
+    pieceStretch(pieces[pieces.length - 1]!, start, end, ctx);
   }
-  return { stretches, start, end, slopeBounds: { upper: Float64Array.from(ctx.upper), reached: ctx.reached } };
+  track.slopeBounds = { upper: Float64Array.from(ctx.upper), reached: ctx.reached };
+  return track;
 }
 
 interface Ctx {
+  track: PieceTrack;
   times: Float64Array;
   /** the sample step when the times are equally spaced, else NaN */
   step: number;
@@ -77,24 +122,17 @@ interface Ctx {
   reached: number;
 }
 
-/** The stretch of one piece: its value is the piece's closed form (a method: no closure per piece). */
-class PieceStretch implements Stretch {
-  constructor(
-    private readonly piece: Piece,
-    readonly ts: number[],
-    readonly ys: number[],
-  ) {}
-
-  f(t: number): number {
-    return pieceValue(this.piece, t);
-  }
-}
-
-function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): Stretch {
+/** Appends the stretch of one piece over [lo, hi] to the track. */
+function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): void {
   const t0 = piece.t0;
+  const { ts, ys, first, of } = ctx.track;
+  of.push(piece);
   if (hi === lo) {
     ctx.upper.push(Infinity);
-    return new PieceStretch(piece, [lo], [pieceValue(piece, lo)]);
+    ts.push(lo);
+    ys.push(pieceValue(piece, lo));
+    first.push(ts.length);
+    return;
   }
   const G = groupTerms(piece.terms, ctx.G);
   const D = groupsDerivative(G, ctx.D);
@@ -116,7 +154,10 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     ctx.upper.push(Math.min(groupsBound(D, a, a + w), Math.abs(d0) + Math.abs(s0) * w + r));
     if (Math.abs(d0) > ctx.reached) ctx.reached = Math.abs(d0);
     if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
-      return new PieceStretch(piece, [lo, hi], [groupsValue(G, a), groupsValue(G, hi - t0)]);
+      ts.push(lo, hi);
+      ys.push(groupsValue(G, a), groupsValue(G, hi - t0));
+      first.push(ts.length);
+      return;
     }
   }
 
@@ -131,8 +172,6 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
   const gd = sw.vals[1]!;
 
   // knots: every grid time (repeats skipped) and every root of the derivative between two of them
-  const ts: number[] = [];
-  const ys: number[] = [];
   let prevT = gts[0]!;
   let prevD = gd[0]!;
   ts.push(prevT);
@@ -154,7 +193,7 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     prevT = t;
     prevD = d;
   }
-  return new PieceStretch(piece, ts, ys);
+  first.push(ts.length);
 }
 
 function sampledTrack(times: Float64Array, values: Float64Array): Track {
@@ -173,17 +212,15 @@ function sampledTrack(times: Float64Array, values: Float64Array): Track {
     const u = (t - ts[lo]!) / (ts[hi]! - ts[lo]!);
     return ys[lo]! + u * (ys[hi]! - ys[lo]!);
   };
-  return { stretches: [{ f, ts, ys }], start: ts[0]!, end: ts[ts.length - 1]! };
+  return { ts, ys, first: [0, ts.length], value: (_k, t) => f(t), start: ts[0]!, end: ts[ts.length - 1]! };
 }
 
 /** Value at the very end of the track (the left-hand limit at the end of the span). */
 export function endValue(track: Track): number {
-  const last = track.stretches[track.stretches.length - 1];
-  return last ? last.ys[last.ys.length - 1]! : NaN;
+  return track.ys.length > 0 ? track.ys[track.ys.length - 1]! : NaN;
 }
 
 /** Value at the start of the track (t = start, right-hand value). */
 export function startValue(track: Track): number {
-  const first = track.stretches[0];
-  return first ? first.ys[0]! : NaN;
+  return track.ys.length > 0 ? track.ys[0]! : NaN;
 }

@@ -1,4 +1,4 @@
-import type { Stretch, Track } from './track.js';
+import type { Track } from './track.js';
 
 /** Excursions below this many percent are rounding noise in the closed form and read as 0 (as overshoot.ts). */
 const NOISE_PCT = 1e-9;
@@ -38,24 +38,25 @@ const clean = (pct: number) => (pct > NOISE_PCT ? pct : 0);
  * signal is monotone between them, so the extremum before the 50 % instant is at a knot: exact
  * on the closed form.
  */
-function preExcursion(stretches: readonly Stretch[], g0: number, g1: number, from: number, to: number): number {
+function preExcursion(track: Track, g0: number, g1: number, from: number, to: number): number {
   const dir = Math.sign(to - from);
   const mid = (from + to) / 2;
   let worst = 0;
-  for (let i = g0; i < g1; i++) {
-    for (const y of stretches[i]!.ys) {
-      if ((y - mid) * dir >= 0) return worst;
-      worst = Math.max(worst, (from - y) * dir);
-    }
+  const ys = track.ys;
+  for (let i = track.first[g0]!; i < track.first[g1]!; i++) {
+    const y = ys[i]!;
+    if ((y - mid) * dir >= 0) return worst;
+    worst = Math.max(worst, (from - y) * dir);
   }
   return worst;
 }
 
 /** Largest excursion past `to` in the direction of from → to over the knots of stretches g0 … g1−1; 0 when none. */
-function postExcursion(stretches: readonly Stretch[], g0: number, g1: number, from: number, to: number): number {
+function postExcursion(track: Track, g0: number, g1: number, from: number, to: number): number {
   const dir = Math.sign(to - from);
   let worst = 0;
-  for (let i = g0; i < g1; i++) for (const y of stretches[i]!.ys) worst = Math.max(worst, (y - to) * dir);
+  const ys = track.ys;
+  for (let i = track.first[g0]!; i < track.first[g1]!; i++) worst = Math.max(worst, (ys[i]! - to) * dir);
   return worst;
 }
 
@@ -70,7 +71,7 @@ function postExcursion(stretches: readonly Stretch[], g0: number, g1: number, fr
 export function undershootPercent(track: Track, initial: number, final: number): number | null {
   const delta = final - initial;
   if (!(delta !== 0) || !Number.isFinite(delta)) return null;
-  return clean((preExcursion(track.stretches, 0, track.stretches.length, initial, final) / Math.abs(delta)) * 100);
+  return clean((preExcursion(track, 0, track.first.length - 1, initial, final) / Math.abs(delta)) * 100);
 }
 
 /**
@@ -84,7 +85,8 @@ export function undershootPercent(track: Track, initial: number, final: number):
  */
 export function eventShoots(track: Track, swing: number, eventTimes?: readonly number[]): EventShoot[] {
   const out: EventShoot[] = [];
-  const stretches = track.stretches;
+  const { ts, ys, first } = track;
+  const count = first.length - 1;
   // With the sources' own event times, the stretches between two events form one event (a pulse
   // edge with a finite rise is one event, not a ramp and a level); without them, every stretch.
   // event times sorted, walked alongside the stretch starts (which increase): no hashing per stretch
@@ -100,26 +102,23 @@ export function eventShoots(track: Track, swing: number, eventTimes?: readonly n
   let g0 = -1;
   const close = (g1: number) => {
     if (g0 < 0) return;
-    const first = stretches[g0]!;
-    const last = stretches[g1 - 1]!;
-    const from = prevEnd ?? first.ys[0]!;
-    const to = last.ys[last.ys.length - 1]!;
+    const from = prevEnd ?? ys[first[g0]!]!;
+    const to = ys[first[g1]! - 1]!;
     prevEnd = to;
     const size = Math.abs(to - from);
     if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) return;
     out.push({
-      t: first.ts[0]!,
+      t: ts[first[g0]!]!,
       from,
       to,
-      overshootPct: clean((postExcursion(stretches, g0, g1, from, to) / size) * 100),
-      undershootPct: clean((preExcursion(stretches, g0, g1, from, to) / size) * 100),
+      overshootPct: clean((postExcursion(track, g0, g1, from, to) / size) * 100),
+      undershootPct: clean((preExcursion(track, g0, g1, from, to) / size) * 100),
     });
   };
   let lastNonEmpty = -1;
-  for (let k = 0; k < stretches.length; k++) {
-    const s = stretches[k]!;
-    if (s.ys.length === 0) continue;
-    if (g0 < 0 || !starts || isStart(s.ts[0]!)) {
+  for (let k = 0; k < count; k++) {
+    if (first[k + 1] === first[k]) continue;
+    if (g0 < 0 || !starts || isStart(ts[first[k]!]!)) {
       close(lastNonEmpty + 1);
       g0 = k;
     }

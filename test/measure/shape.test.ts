@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { evaluatePieces } from '../../src/measure/evaluate.js';
 import { computeMetrics } from '../../src/measure/metrics.js';
 import { averageAndRms, maxSlope, ringing } from '../../src/measure/shape.js';
-import { buildTrack } from '../../src/measure/track.js';
+import { buildTrack, stretchesOf } from '../../src/measure/track.js';
 import type { Piece } from '../../src/simulate/result.js';
 import { grid, piece, sampleAll, underdampedStep } from './helpers.js';
 
@@ -80,7 +80,7 @@ describe('second-order underdamped step (control-engineering textbook, from memo
 
     it(`ζ = ${zeta}: the decrement from the mode agrees with ln of successive peaks of y − 1 located on the closed form`, () => {
       const track = buildTrack(grid(0, end, 201), new Float64Array(201), pieces);
-      const s = track.stretches[0]!;
+      const s = stretchesOf(track)[0]!;
       // local maxima among the knots (every extremum is a knot)
       const peaks: number[] = [];
       for (let k = 1; k + 1 < s.ts.length && peaks.length < 2; k++) if (s.ys[k]! > s.ys[k - 1]! && s.ys[k]! > s.ys[k + 1]!) peaks.push(s.ys[k]! - 1);

@@ -11,7 +11,7 @@ import { groupsBound, groupTerms, groupsDerivative, groupsValue } from '../../sr
 import { computeMetrics } from '../../src/measure/metrics.js';
 import { averageAndRms, maxSlope } from '../../src/measure/shape.js';
 import { Sweeper, uniformStep } from '../../src/measure/sweep.js';
-import { buildTrack } from '../../src/measure/track.js';
+import { buildTrack, stretchesOf } from '../../src/measure/track.js';
 import type { Piece, Term } from '../../src/simulate/result.js';
 import { grid, piece } from './helpers.js';
 
@@ -109,7 +109,7 @@ describe('track of a signal whose fast mode dies out (the grid is thinned there)
   ];
   const end = 1;
   const track = buildTrack(grid(0, end, 101), new Float64Array(101), pieces);
-  const ts = track.stretches[0]!.ts;
+  const ts = stretchesOf(track)[0]!.ts;
 
   it('every extremum of the slow oscillation after the fast mode has died is a knot', () => {
     for (let k = 0; k < 19; k++) {
