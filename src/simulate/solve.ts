@@ -45,6 +45,9 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   let nextJump = 0;
   const modeSets = modal.blocks.map((b) => scalarModes(b));
   const nb = modal.blocks.length;
+  const etaBuf = modeSets.map((modes) => modes?.map(() => c(0)) ?? null);
+  const etas: (C[] | null)[] = new Array(nb).fill(null);
+  const clusterSols: (BlockSolution | null)[] = new Array(nb).fill(null);
   const outModes = readouts.map((_, w) => modal.blocks.map((b, k) => modeSets[k]?.map((m) => dotRC(pick(gammas[w], b), m.right)) ?? null));
   for (const iv of schedule.intervals) {
     if (wanted.size > 0 && wanted.has(iv.t0)) statesAt.set(iv.t0, ss.n ? matvec(modal.W, xm) : []);
@@ -77,14 +80,13 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
     }
     // free part per block: scalar modes carry η − η_p(0); clusters a real vector
     // (plain loops: a long pulse train runs this tens of thousands of times)
-    const etas: (C[] | null)[] = [];
-    const clusterSols: (BlockSolution | null)[] = [];
+    // (η buffers reused from interval to interval: nothing keeps them past it)
     for (let k = 0; k < nb; k++) {
       const b = modal.blocks[k];
       const modes = modeSets[k];
       const pt = shape.particulars[k];
       if (modes && pt.modes) {
-        const eta: C[] = [];
+        const eta = etaBuf[k]!;
         for (let l = 0; l < modes.length; l++) {
           // left·ξ_block − η_p(0)
           const left = modes[l].left;
@@ -95,13 +97,14 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
             im += left[i].im * xm[b.index[i]];
           }
           const at0 = pt.modes[l].at0;
-          eta.push({ re: re - at0.re, im: im - at0.im });
+          eta[l].re = re - at0.re;
+          eta[l].im = im - at0.im;
         }
-        etas.push(eta);
-        clusterSols.push(null);
+        etas[k] = eta;
+        clusterSols[k] = null;
       } else {
-        etas.push(null);
-        clusterSols.push(withFree(b, pt, pick(xm, b)));
+        etas[k] = null;
+        clusterSols[k] = withFree(b, pt, pick(xm, b));
       }
     }
     for (let w = 0; w < readouts.length; w++) {

@@ -6,15 +6,20 @@ import type { Circuit, Waveform } from '../circuit/circuit.js';
  * group the closed form's intervals into events (a pulse edge with a rise time is one event).
  */
 export function eventTimes(circuit: Circuit, span: number): number[] {
-  const out = new Set<number>([0]);
+  // collected, sorted, then deduplicated (a set of 10⁴ float keys costs more)
+  const all: number[] = [0];
   const add = (t: number) => {
-    if (t >= 0 && t <= span) out.add(t);
+    if (t >= 0 && t <= span) all.push(t);
   };
   for (const p of circuit.parts) {
     if (p.waveform) waveformEvents(p.waveform, span, add);
     for (const e of p.switching?.events ?? []) add(e.t);
   }
-  return [...out].sort((a, b) => a - b);
+  const sorted = Float64Array.from(all).sort();
+  const out: number[] = [];
+  // (−0 reads as 0, as in a set)
+  for (const t of sorted) if (out.length === 0 || t !== out[out.length - 1]) out.push(t === 0 ? 0 : t);
+  return out;
 }
 
 function waveformEvents(w: Waveform, span: number, add: (t: number) => void): void {
