@@ -64,9 +64,18 @@ export function valueLeftOf(w: Waveform, t: number): number {
   return v;
 }
 
-export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = []): InputSchedule {
-  const outside: InputSchedule['outside'] = [];
-  const models = waves.map((w) => w.terms.filter((t) => t.kind !== 'impulse').map((t) => termModel(t, span)));
+type Models = ReturnType<typeof termModel>[][];
+
+function modelsOf(waves: Waveform[], span: number): Models {
+  return waves.map((w) => w.terms.filter((t) => t.kind !== 'impulse').map((t) => termModel(t, span)));
+}
+
+/**
+ * The interval boundaries buildSchedule uses over [from, span]: both ends, the extra breaks, every
+ * breakpoint and impulse time of the sources inside, sorted and distinct (bit for bit the same
+ * times, so that a caller can lay other pieces on them).
+ */
+export function breakpointTimes(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = [], models: Models = modelsOf(waves, span)): number[] {
   // (sorted then deduplicated: a set of 10⁴ float keys costs more)
   const raw: number[] = [from, span, ...extraBreaks.filter((t) => t > from && t < span)];
   for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.push(t);
@@ -74,6 +83,13 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
   const sorted = Float64Array.from(raw).sort();
   const times: number[] = [];
   for (const t of sorted) if (times.length === 0 || t !== times[times.length - 1]) times.push(t);
+  return times;
+}
+
+export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = []): InputSchedule {
+  const outside: InputSchedule['outside'] = [];
+  const models = modelsOf(waves, span);
+  const times = breakpointTimes(waves, span, from, extraBreaks, models);
   const intervals: Interval[] = [];
   for (let k = 0; k + 1 < times.length; k++) {
     const t0 = times[k];
