@@ -1,5 +1,5 @@
 import type { RunResult } from '../simulate/result.js';
-import { findRoot } from './root.js';
+import { refineRoot } from './root.js';
 import { buildTrack, type Track } from './track.js';
 
 /** Time a signal spends above a level over the span, with the first and last crossings of it. */
@@ -47,7 +47,7 @@ export function timeAbove(track: Track, threshold: number): TimeAbove {
       const t = ts[a + k]!;
       const g = ys[a + k]! - threshold;
       if (t > prevT && g > 0 !== (openedAt !== null)) {
-        const r = findRoot(h, prevT, t, 1e-14, prevG, g);
+        const r = refineRoot(h, prevT, t, prevG, g);
         if (openedAt === null) openedAt = r;
         else {
           intervals.push([openedAt, r]);

@@ -1,4 +1,4 @@
-import { findRoot } from './root.js';
+import { refineRoot } from './root.js';
 import type { Track } from './track.js';
 
 /**
@@ -28,7 +28,7 @@ export function firstReach(track: Track, level: number, direction: 1 | -1, from 
       if (gk >= 0) {
         if (Number.isNaN(prevT)) return t;
         const h = (u: number) => track.value(k, u) - level;
-        return findRoot(h, prevT, t, 1e-14, direction * prevG, direction * gk);
+        return refineRoot(h, prevT, t, direction * prevG, direction * gk);
       }
       prevT = t;
       prevG = gk;

@@ -73,3 +73,21 @@ export function findRoot(
   }
   return b;
 }
+
+/**
+ * findRoot to 1e-14 of the root itself, not of the bracket's ends: a bracket from near 0 to far
+ * out (knots are only the ends and extrema of a stretch) would otherwise leave the root at
+ * 1e-14 of the far end. The first root is refined once more inside its own uncertainty.
+ */
+export function refineRoot(f: (t: number) => number, a: number, b: number, fa: number, fb: number): number {
+  const r = findRoot(f, a, b, 1e-14, fa, fb);
+  const far = Math.max(Math.abs(a), Math.abs(b));
+  if (!(far > 4 * Math.abs(r)) || fa === 0 || fb === 0) return r;
+  const d = 4e-14 * far;
+  const lo = Math.max(a, r - d);
+  const hi = Math.min(b, r + d);
+  const flo = f(lo);
+  const fhi = f(hi);
+  if (!(flo !== 0 && fhi !== 0 && flo < 0 !== fhi < 0)) return r;
+  return findRoot(f, lo, hi, 1e-14, flo, fhi);
+}

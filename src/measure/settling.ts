@@ -1,5 +1,5 @@
 import type { SettleBand } from '../circuit/circuit.js';
-import { findRoot } from './root.js';
+import { refineRoot } from './root.js';
 import type { Track } from './track.js';
 
 /** Half-width of the settling band; null when a relative band has no transition to be relative to. */
@@ -28,7 +28,7 @@ export function settlingTime(track: Track, final: number, halfWidth: number): nu
       if (i === b - 1) return t;
       const edge = y > final ? final + halfWidth : final - halfWidth;
       const h = (u: number) => track.value(k, u) - edge;
-      return findRoot(h, t, ts[i + 1]!, 1e-14, y - edge, ys[i + 1]! - edge);
+      return refineRoot(h, t, ts[i + 1]!, y - edge, ys[i + 1]! - edge);
     }
   }
   return track.start;

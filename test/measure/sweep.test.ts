@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../../src/lti/integrate.js';
 import { groupsBound, groupTerms, groupsDerivative, groupsValue } from '../../src/lti/term.js';
 import { computeMetrics } from '../../src/measure/metrics.js';
+import { refineRoot } from '../../src/measure/root.js';
 import { averageAndRms, maxSlope } from '../../src/measure/shape.js';
 import { Sweeper, uniformStep } from '../../src/measure/sweep.js';
 import { buildTrack, stretchesOf } from '../../src/measure/track.js';
@@ -215,5 +216,14 @@ describe('integrals of many pieces of one layout (RepeatedIntegrals)', () => {
       expect(rel(r.square, integrateProduct(osc, osc, T))).toBeLessThan(1e-13);
       expect(rel(r.sum, integrateTerms(osc, T))).toBeLessThan(1e-13);
     }
+  });
+});
+
+describe('root refinement relative to the root, not to the bracket', () => {
+  it('e^(−t/τ) = ½ in [0, 1 s] with τ = 1 µs: t = τ·ln 2 to 1e-14 of itself (a bracket from 0 to far out)', () => {
+    const tau = 1e-6;
+    const h = (t: number) => Math.exp(-t / tau) - 0.5;
+    const r = refineRoot(h, 0, 1, h(0), h(1));
+    expect(rel(r, tau * Math.log(2))).toBeLessThan(4e-15);
   });
 });
