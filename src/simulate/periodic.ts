@@ -85,18 +85,11 @@ export function periodicSteadyState(
   from: number,
   period: number,
   xiFrom: Vec,
+  known?: PeriodMap | null,
 ): PeriodicSteadyState | null {
-  const n = ss.n;
-  const sched = buildSchedule(waves, from + period, from);
-  const gamma = solveExact(ss, modal, [], sched, new Array(n).fill(0), period).final;
-  const Phi = freePropagator(ss, modal, period);
-  const IminusPhi = Phi.map((row, i) => row.map((v, j) => (i === j ? 1 : 0) - v));
-  let xiStar: Vec;
-  try {
-    xiStar = n ? solveSquare(IminusPhi, gamma.map((g) => [g])).map((r) => r[0]) : [];
-  } catch {
-    return null; // a mode that neither grows nor decays over a period: no unique periodic state
-  }
+  const map = known ?? periodMap(ss, modal, waves, from, period);
+  if (!map) return null;
+  const { Phi, xiStar, sched } = map;
   const steady = solveExact(ss, modal, readouts, sched, xiStar, period);
   // deviation rows C·e^(Aτ) at 64 points of a period
   const taus = Array.from({ length: 64 }, (_, j) => (period * j) / 64);
@@ -112,6 +105,44 @@ export function periodicSteadyState(
     return { label: w.label, min, max, mean, rms: Math.sqrt(Math.max(ms, 0)), pieces, settledAfterPeriods: periodsToSettle(Phi, rows, xiFrom.map((v, i) => v - xiStar[i]), band) };
   });
   return { period, from, watches };
+}
+
+/** One period of the drive as a map of the state: ξ(k+1) = Φ·ξ(k) + γ, and its fixed point ξ*. */
+export interface PeriodMap {
+  Phi: Mat;
+  gamma: Vec;
+  xiStar: Vec;
+  /** the sources over one period from `from` */
+  sched: InputSchedule;
+}
+
+/** null when a mode neither grows nor decays over a period (no unique periodic state). */
+export function periodMap(ss: StateSpace, modal: Modal, waves: Waveform[], from: number, period: number): PeriodMap | null {
+  const n = ss.n;
+  const sched = buildSchedule(waves, from + period, from);
+  const gamma = solveExact(ss, modal, [], sched, new Array(n).fill(0), period).final;
+  const Phi = freePropagator(ss, modal, period);
+  const IminusPhi = Phi.map((row, i) => row.map((v, j) => (i === j ? 1 : 0) - v));
+  try {
+    const xiStar = n ? solveSquare(IminusPhi, gamma.map((g) => [g])).map((r) => r[0]) : [];
+    return { Phi, gamma, xiStar, sched };
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The number of periods after which Φᵏ·d, the distance from the periodic state, is below round-off
+ * of `scale` (2⁻⁵⁶ of it), or null when that takes more than `limit` periods (slow decay, or none).
+ */
+export function periodsToRoundOff(Phi: Mat, d0: Vec, scale: number, limit: number): number | null {
+  const tiny = 2 ** -56 * scale;
+  let d = d0;
+  for (let k = 0; k <= limit; k++) {
+    if (d.every((v) => Math.abs(v) <= tiny)) return k;
+    d = matvec(Phi, d);
+  }
+  return null;
 }
 
 /** e^(A·τ) in the canonical state coordinates, from the modal blocks (exact). */

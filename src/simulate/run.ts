@@ -11,7 +11,8 @@ import { termsValue } from '../lti/term.js';
 import { type InputSchedule, buildSchedule, inputSlopes, inputValues, lastEventOf } from '../waveform/schedule.js';
 import { type Epoch, epochs, initialConfiguration, switchesOf } from './configure.js';
 import { type DischargeInfo, dischargeTimes } from './discharge.js';
-import { type PeriodicSteadyState, findPeriod, periodicSteadyState } from './periodic.js';
+import { type PeriodMap, type PeriodicSteadyState, findPeriod, periodicSteadyState } from './periodic.js';
+import { steadyTail } from './steady-tail.js';
 import { checkTimes, referenceValues } from './crosscheck.js';
 import { transformCheck, transformWeights } from './transform-check.js';
 import type { CrossCheck, Mode, PathResponse, Piece, StateInfo } from './result.js';
@@ -121,6 +122,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const psFrom = periodic ? periodic.start + Math.ceil(Math.max(0, periodic.after - periodic.start) / periodic.period - 1e-9) * periodic.period : NaN;
   const psWanted = periodic !== null && psFrom < span;
   const ps: { state: Vec | null; epoch: Epoch | null } = { state: null, epoch: null };
+  let knownMap: PeriodMap | null = null;
 
   // state before t = 0
   const pre = initialConfiguration(circuit);
@@ -140,7 +142,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   eps.forEach((ep, k) => {
     const P = prepare(ep.circuit);
     const { ss } = P.model;
-    const schedule = scheduleOrInputError(circuit, ss.inputs, () => buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []));
+    // a long periodic drive: the sources only to one period past its start for now (steadyTail
+    // below decides how far the step-by-step solution has to go)
+    const tailTried = psWanted && periodic !== null && ep.t0 <= psFrom && (ep.t1 - psFrom) / periodic.period >= 64;
+    const firstEnd = tailTried ? Math.min(ep.t1, psFrom + periodic!.period) : ep.t1;
+    let schedule = scheduleOrInputError(circuit, ss.inputs, () => buildSchedule(waves(ep.circuit), firstEnd, ep.t0, psWanted ? [psFrom] : []));
     if (k === 0) for (const o of schedule.outside) notices.push(`a source impulse at t = ${o.t} s lies outside the analysis span and is ignored`);
     schedule.approximation.forEach((err, j) => {
       if (err > 0) approx.set(ss.inputs[j], Math.max(approx.get(ss.inputs[j]) ?? 0, err));
@@ -166,7 +172,18 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     let xi0 = init.x.map((v, i) => v - ss.Bx1[i].reduce((s, b, j) => s + b * u0[j], 0));
     const d0 = schedule.diracs.find((d) => d.t === ep.t0);
     if (d0 && (k === 0 || ep.t0 > 0)) xi0 = xi0.map((v, i) => v + ss.B[i].reduce((s, b, j) => s + b * d0.area[j], 0));
-    const all = solveExact(ss, P.modal, [...P.readouts, ...P.partReadouts], schedule, xi0, span, psWanted ? [psFrom] : []);
+    const readoutsAll = [...P.readouts, ...P.partReadouts];
+    const tail = tailTried
+      ? steadyTail({ ss, modal: P.modal, readouts: readoutsAll, waves: waves(ep.circuit), t0: ep.t0, t1: ep.t1, xi0, from: psFrom, period: periodic!.period, span })
+      : null;
+    if (tail) {
+      schedule = tail.schedule;
+      knownMap = tail.map;
+    } else if (firstEnd < ep.t1) {
+      schedule = scheduleOrInputError(circuit, ss.inputs, () => buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []));
+    }
+    const all = tail ? tail.solution : solveExact(ss, P.modal, readoutsAll, schedule, xi0, span, psWanted ? [psFrom] : []);
+    const checkEnd = tail ? tail.checkEnd : ep.t1;
     if (psWanted && all.statesAt.has(psFrom)) {
       ps.state = all.statesAt.get(psFrom)!;
       ps.epoch = ep;
@@ -187,7 +204,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     // independent check of this epoch: in the time domain while the matrix exponential is cheap,
     // in the Laplace domain (one LU per weight) for larger circuits
     if (ss.n <= TIME_DOMAIN_MAX_STATES) {
-      const ct = checkTimes(ep.t0, ep.t1, schedule);
+      const ct = checkTimes(ep.t0, checkEnd, schedule);
       const ref = referenceValues(ss, P.readouts, schedule, xi0, ct);
       exact.pieces.forEach((ps, w) => {
         ct.forEach((t, i) => {
@@ -198,15 +215,15 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
       });
       checked.push(...ct);
     } else {
-      const weights = transformWeights(ss, ep.t1 - ep.t0);
-      const tc = transformCheck({ ss, readouts: P.readouts, schedule, a: ep.t0, b: ep.t1, xiStart: xi0, xiEnd: all.final, pieces: exact.pieces }, weights);
+      const weights = transformWeights(ss, checkEnd - ep.t0);
+      const tc = transformCheck({ ss, readouts: P.readouts, schedule, a: ep.t0, b: checkEnd, xiStart: xi0, xiEnd: tail ? tail.xiCheckEnd : all.final, pieces: exact.pieces }, weights);
       tc.absErr.forEach((err, w) => (absErr[w] = Math.max(absErr[w], err)));
       transformed.push(...weights);
     }
 
     // hand over every capacitor voltage and inductor current to the next epoch
     const last = schedule.intervals[schedule.intervals.length - 1];
-    const uEnd = inputValues(last, ss.m, last.t1 - last.t0);
+    const uEnd = tail ? tail.uEnd : inputValues(last, ss.m, last.t1 - last.t0);
     values = new Map(values);
     for (const st of P.model.storage) {
       const r = st.readout;
@@ -292,7 +309,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   let steady: PeriodicSteadyState | null = null;
   if (periodic && ps.state && ps.epoch) {
     const P = prepare(ps.epoch.circuit);
-    steady = periodicSteadyState(circuit, P.model.ss, P.modal, P.readouts, waves(ps.epoch.circuit), psFrom, periodic.period, ps.state);
+    steady = periodicSteadyState(circuit, P.model.ss, P.modal, P.readouts, waves(ps.epoch.circuit), psFrom, periodic.period, ps.state, knownMap);
   }
   const configs = configurations.map(({ circuit: _c, ...rest }) => rest);
   return { states, modes, span, spanChosen: spanGiven === undefined, start: before.mode, times, signals, parts, events, configurations: configs, discharge, periodic: steady, crossCheck, notices };
