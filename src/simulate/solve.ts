@@ -31,6 +31,7 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
   const Wt = ss.n ? transpose(modal.W, modal.n) : [];
   const gammas = readouts.map((r) => (ss.n ? matvec(Wt, r.C) : []));
   let xm = ss.n ? matvec(modal.Winv, xi0) : [];
+  let spare = xm.slice();
   const pieces: Piece[][] = readouts.map(() => []);
   // Intervals of the same length and the same source components (the cycles of a pulse train)
   // share their particular solutions, the read-out terms those give, and their end values.
@@ -122,7 +123,9 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
       pieces[w].push({ t0: iv.t0, t1: iv.t1, terms, impulseArea });
     }
     // state at the interval's end: particular end values (cached) plus the free parts carried over
-    const next = shape.end.slice();
+    // (two state arrays in turn: nothing keeps xm past the interval, pick copies)
+    const next = spare;
+    for (let i = 0; i < next.length; i++) next[i] = shape.end[i];
     for (let k = 0; k < nb; k++) {
       const b = modal.blocks[k];
       const eta = etas[k];
@@ -146,6 +149,7 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
         b.index.forEach((col, i) => (next[col] += v[i]));
       }
     }
+    spare = xm;
     xm = next;
   }
   return { pieces, statesAt, final: ss.n ? matvec(modal.W, xm) : [] };

@@ -125,9 +125,12 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
   });
   diracs.sort((a, b) => a.t - b.t);
   const jumps: InputSchedule['jumps'] = [];
+  // (the inputs' values into two reused arrays: a long pulse train has 10⁴ boundaries)
+  const before = new Array<number>(m).fill(0);
+  const after = new Array<number>(m).fill(0);
   for (let k = 1; k < intervals.length; k++) {
-    const before = inputValues(intervals[k - 1], m, intervals[k - 1].t1 - intervals[k - 1].t0);
-    const after = inputValues(intervals[k], m, 0);
+    inputValuesInto(intervals[k - 1], intervals[k - 1].t1 - intervals[k - 1].t0, before);
+    inputValuesInto(intervals[k], 0, after);
     let scale = 1e-300;
     for (let j = 0; j < m; j++) scale = Math.max(scale, Math.abs(before[j]), Math.abs(after[j]));
     let jumped = false;
@@ -143,6 +146,11 @@ export function inputValues(iv: Interval, m: number, tau: number): number[] {
   const u = new Array<number>(m).fill(0);
   for (const c of iv.components) u[c.input] += componentValue(c, tau);
   return u;
+}
+
+function inputValuesInto(iv: Interval, tau: number, u: number[]): void {
+  u.fill(0);
+  for (const c of iv.components) u[c.input] += componentValue(c, tau);
 }
 
 export function inputSlopes(iv: Interval, m: number, tau: number): number[] {
