@@ -5,6 +5,8 @@
 //   node bench/case.js eig <n> <runs> <outJson> [ml]
 // The pipeline is timed as analyzeText(text, file, { partSignals: false }): samples and the watched
 // signals' closed forms only, without the per-part closed forms that only the text report needs.
+// The first call in the fresh process is reported on its own (firstCallSeconds: JIT warm-up
+// included); oursSeconds is the median of the `runs` calls after it.
 import { readFileSync, writeFileSync } from 'node:fs';
 import { performance } from 'node:perf_hooks';
 import { CASES, randomMatrix } from './circuits.js';
@@ -38,6 +40,11 @@ if (kind === 'circuit') {
   const { analyzeText } = await load('pipeline.js');
   const { simulate } = await load('simulate/run.js');
 
+  // the first call in this fresh process (what a single command-line run pays, JIT warm-up included)
+  const c0 = performance.now();
+  analyzeText(text, `${name}.rdn`, { partSignals: false });
+  const firstCall = (performance.now() - c0) / 1000;
+  stage('firstCall', firstCall);
   // stage by stage, once (the current simulate() builds the model and modal form itself again)
   const circuit = timed('loadCircuit', () => loadCircuit(text, `${name}.rdn`));
   const model = timed('buildModel', () => buildModel(circuit));
@@ -80,7 +87,7 @@ if (kind === 'circuit') {
       ours: result.traces.map((t) => Array.from(t.values)),
     }),
   );
-  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), eigSeconds: median(eigTimes), crossCheck: result.crossCheck?.maxRelError })}`);
+  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), firstCallSeconds: firstCall, eigSeconds: median(eigTimes), crossCheck: result.crossCheck?.maxRelError })}`);
 } else if (kind === 'pwm') {
   // one pulse-train source into a small filter; the reference needs the pulse itself, not only the model
   const [file, runsS, out] = args;
@@ -90,6 +97,10 @@ if (kind === 'circuit') {
   const { buildModel } = await load('model/build.js');
   const { voltageProbe } = await load('model/descriptor.js');
   const { analyzeText } = await load('pipeline.js');
+  const c0 = performance.now();
+  analyzeText(text, file, { partSignals: false });
+  const firstCall = (performance.now() - c0) / 1000;
+  stage('firstCall', firstCall);
   const circuit = loadCircuit(text, file);
   const model = buildModel(circuit);
   const { ss } = model;
@@ -124,7 +135,7 @@ if (kind === 'circuit') {
       ours: result.traces.map((t) => Array.from(t.values)),
     }),
   );
-  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), crossCheck: result.crossCheck?.maxRelError })}`);
+  console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), firstCallSeconds: firstCall, crossCheck: result.crossCheck?.maxRelError })}`);
 } else if (kind === 'eig') {
   const [nS, runsS, out, withMl] = args;
   const n = Number(nS);

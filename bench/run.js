@@ -10,7 +10,7 @@
 //            --eig 100,400,800       matrix sizes for the eig rows
 //            --timeout 180            seconds per circuit case before it is skipped
 //            --no-pwm                 skip the PWM case
-//            --runs 3                 repetitions (medians are reported)
+//            --runs 5                 repetitions after the first call (medians are reported)
 //            --no-ml                  skip the ml-matrix column of the eig rows
 //
 // Speed figures are wall-clock medians on this machine; the ratio is ours / reference (> 1: we are
@@ -34,7 +34,7 @@ const STATES = opt('--states', '100,400,1000').split(',').map(Number);
 const EIG_SIZES = opt('--eig', '100,400,800').split(',').map(Number);
 const TIMEOUT = Number(opt('--timeout', '180'));
 const WITH_PWM = !flag('--no-pwm');
-const RUNS = Number(opt('--runs', '3'));
+const RUNS = Number(opt('--runs', '5'));
 const WITH_ML = !flag('--no-ml');
 const SAMPLES = 10000;
 const say = (...a) => (JSON_OUT ? console.error(...a) : console.log(...a));
@@ -154,6 +154,7 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
       states: res.states,
       samples: res.samples,
       oursSeconds: res.oursSeconds,
+      firstCallSeconds: res.firstCallSeconds,
       referenceSeconds: ref ? ref.referenceSeconds : null,
       ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
       maxRelError: ref ? ref.maxRelError : null,
@@ -191,6 +192,7 @@ if (WITH_PWM) {
       states: res.states,
       samples: res.samples,
       oursSeconds: res.oursSeconds,
+      firstCallSeconds: res.firstCallSeconds,
       referenceSeconds: ref ? ref.referenceSeconds : null,
       ratio: ref ? res.oursSeconds / ref.referenceSeconds : null,
       maxRelError: ref ? ref.lsimMaxRelDiff : null,
@@ -229,7 +231,7 @@ for (const n of EIG_SIZES) {
 }
 
 if (JSON_OUT) {
-  const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError', 'fineMaxRelError', 'fine1msMaxRelError'];
+  const keys = ['case', 'states', 'samples', 'oursSeconds', 'referenceSeconds', 'ratio', 'maxRelError', 'firstCallSeconds', 'fineMaxRelError', 'fine1msMaxRelError'];
   const pick = (r) => Object.fromEntries(keys.filter((k) => k in r).map((k) => [k, r[k]]));
   console.log(JSON.stringify([...rows, ...circuitEigRows, ...eigRows].map(pick), null, 2));
   for (const s of stageNotes) console.error(`stages ${s.case} ${s.states}: ${s.stages.join(', ')} (${s.note})`);
@@ -239,12 +241,14 @@ if (JSON_OUT) {
   const e = (v) => (v === null || v === undefined ? '—' : v.toExponential(1));
   console.log('\nWhole pipeline (analyzeText with { partSignals: false }: parse, model, modal form, exact solution,');
   console.log('cross-check, metrics; no per-part closed forms) vs scipy.signal.lsim on the model ringdown exported');
-  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each. "max rel diff" is`);
+  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each after a first call. "max rel diff" is`);
   console.log('|ours − lsim| relative to each signal\'s peak; "vs exact" (pwm-long only) is |ours − exact reference|:\n');
-  console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13), 'vs exact'.padStart(9)].join('  '));
+  console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13), 'vs exact'.padStart(9), '1st call s'.padStart(11)].join('  '));
   for (const r of rows) {
-    console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 1).padStart(8), e(r.maxRelError).padStart(13), e(r.fineMaxRelError).padStart(9)].join('  '));
+    console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 2).padStart(8), e(r.maxRelError).padStart(13), e(r.fineMaxRelError).padStart(9), f(r.firstCallSeconds).padStart(11)].join('  '));
   }
+  console.log('("ours s": median of the calls after the first; "1st call s": the first call in a fresh process,');
+  console.log(' JIT warm-up included, which is what one command-line run pays on top of starting Node)');
   if (pwm) {
     const ref = pwm.ref;
     console.log(`\npwm-long (bench/pwm-long.rdn): 100 kHz, 12 V, 42 % duty, 20 ns edges into 10 µH / 22 µF (15 mΩ ESR) / 2.5 Ω;`);
