@@ -1,5 +1,5 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Mat, type Vec, dot, matmul, matvec, transpose } from '../linalg/dense.js';
+import { type Mat, type Vec, dot, matvec, transpose } from '../linalg/dense.js';
 import { type C, c, cmul } from '../lti/complex.js';
 import { type ScalarMode, scalarModes } from '../lti/scalar-modes.js';
 import type { Block, Modal } from '../lti/modal.js';
@@ -27,10 +27,10 @@ export interface ExactSolution {
 export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], schedule: InputSchedule, xi0: Vec, span: number, recordAt: number[] = []): ExactSolution {
   const statesAt = new Map<number, Vec>();
   const wanted = new Set(recordAt);
-  const beta = matmul(modal.Winv, ss.B, ss.m);
+  const beta = ss.n ? modal.toModal(ss.B) : [];
   const Wt = ss.n ? transpose(modal.W, modal.n) : [];
   const gammas = readouts.map((r) => (ss.n ? matvec(Wt, r.C) : []));
-  let xm = ss.n ? matvec(modal.Winv, xi0) : [];
+  let xm = ss.n ? modal.toModal(xi0.map((v) => [v])).map((r) => r[0]) : [];
   let spare = xm.slice();
   const pieces: Piece[][] = readouts.map(() => []);
   // Intervals of the same length and the same source components (the cycles of a pulse train)
@@ -267,7 +267,7 @@ function forcingsFor(b: Block, beta: Mat, comps: Component[]): Forcing[] {
 
 /** Impulse and step response of each source-to-read-out path, as closed forms in t. */
 export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: number): PathResponse[] {
-  const beta = matmul(modal.Winv, ss.B, ss.m);
+  const beta = ss.n ? modal.toModal(ss.B) : [];
   const gamma = ss.n ? matvec(transpose(modal.W, modal.n), r.C) : [];
   return ss.inputs.map((source, j) => {
     const bj = beta.map((row) => row[j]);
