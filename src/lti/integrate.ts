@@ -207,8 +207,22 @@ export class RepeatedIntegrals {
   private readonly scratch: Monos = { cre: [], cim: [], k: [], kre: [], kim: [] };
   private layouts = 0;
 
+  // the periods of a steady tail share their term arrays: the same array and length, the same integrals
+  private readonly seen = new Map<Term[], { T: number; sum: number; square: number }>();
+
   /** ∫0^T f dτ into `sum` and ∫0^T f² dτ into `square`. */
   integrate(terms: Term[], T: number): void {
+    const hit = this.seen.get(terms);
+    if (hit && hit.T === T) {
+      this.sum = hit.sum;
+      this.square = hit.square;
+      return;
+    }
+    this.integrateNew(terms, T);
+    if (this.seen.size < MAX_LAYOUTS) this.seen.set(terms, { T, sum: this.sum, square: this.square });
+  }
+
+  private integrateNew(terms: Term[], T: number): void {
     const m = this.scratch;
     const M = monomialsInto(terms, m);
     if (M > MAX_LAYOUT || this.layouts >= MAX_LAYOUTS) {

@@ -153,9 +153,15 @@ export function maxSlope(
   const extraStep = extra ? uniformStep(extra) : NaN;
   const cut = reached / (1 + TIE) ** 2;
   let best: { value: number; time: number } | null = null;
+  // a piece with the same term array over the same τ range as one searched before has the same
+  // largest slope (to rounding), which cannot beat the best by 1e-12 then: not searched again
+  const searched = new Map<Piece['terms'], { a: number; b: number }>();
   forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
     // the bound is NaN when the terms are: search such a piece
     if (upper[i]! < cut) return;
+    const before = searched.get(piece.terms);
+    if (before && before.a === lo - piece.t0 && before.b === hi - piece.t0) return;
+    if (searched.size < 4096) searched.set(piece.terms, { a: lo - piece.t0, b: hi - piece.t0 });
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
     if (best === null || p.value > best.value * (1 + 1e-12)) best = { value: p.value, time: p.time };
   });

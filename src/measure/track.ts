@@ -86,7 +86,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   if (pieces.length === 0) return sampledTrack(times, values);
 
   const track = new PieceTrack(start, end);
-  const ctx: Ctx = { track, times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0 };
+  const ctx: Ctx = { track, times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0, laid: new Map(), lastStart: 0 };
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
     const next = pieces[i + 1];
@@ -120,9 +120,27 @@ interface Ctx {
   /** per stretch so far: an upper bound of |y'| over it; the largest |y'| at a stretch start */
   upper: number[];
   reached: number;
+  /** stretches already laid out, by their pieces' term arrays (the periods of a steady tail share them) */
+  laid: Map<Piece['terms'], Laid>;
+  /** |y'| at the start of the stretch just laid out (0 when not found) */
+  lastStart: number;
 }
 
-/** Appends the stretch of one piece over [lo, hi] to the track. */
+/** A stretch in τ = t − t0: its ends, knots and values, bound on |y'| and |y'| at its start. */
+interface Laid {
+  a: number;
+  b: number;
+  taus: number[];
+  ys: number[];
+  upper: number;
+  start: number;
+}
+
+/**
+ * Appends the stretch of one piece over [lo, hi] to the track. A piece with the same term array
+ * as one laid out before, over the same τ range, is the same function of τ: its knots are the
+ * same τ (shifted to its own start) with the same values, and the same bounds.
+ */
 function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): void {
   const t0 = piece.t0;
   const { ts, ys, first, of } = ctx.track;
@@ -134,8 +152,40 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     first.push(ts.length);
     return;
   }
+  const seen = ctx.laid.get(piece.terms);
+  if (seen && seen.a === lo - t0 && seen.b === hi - t0) {
+    ctx.upper.push(seen.upper);
+    if (seen.start > ctx.reached) ctx.reached = seen.start;
+    const n = seen.taus.length;
+    ts.push(lo);
+    ys.push(seen.ys[0]!);
+    for (let j = 1; j < n - 1; j++) {
+      const t = t0 + seen.taus[j]!;
+      if (t > ts[ts.length - 1]! && t < hi) {
+        ts.push(t);
+        ys.push(seen.ys[j]!);
+      }
+    }
+    ts.push(hi);
+    ys.push(seen.ys[n - 1]!);
+    first.push(ts.length);
+    return;
+  }
+  const from = ts.length;
+  layOut(piece, lo, hi, ctx, minIntervals);
+  if (ctx.laid.size < 4096 && lo - t0 >= 0) {
+    const taus: number[] = [];
+    for (let i = from; i < ts.length; i++) taus.push(ts[i]! - t0);
+    ctx.laid.set(piece.terms, { a: lo - t0, b: hi - t0, taus, ys: ys.slice(from), upper: ctx.upper[ctx.upper.length - 1]!, start: ctx.lastStart });
+  }
+}
+
+function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number): void {
+  const t0 = piece.t0;
+  const { ts, ys, first } = ctx.track;
   const G = groupTerms(piece.terms, ctx.G);
   const D = groupsDerivative(G, ctx.D);
+  ctx.lastStart = 0;
 
   // a short piece (a cycle of a pulse train) is often provably monotone: y'(a + s) stays within
   // max|y'''|·s²/2 of the line y'(a) + y''(a)·s, so no root when that line keeps its sign by more;
@@ -152,6 +202,7 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     const r = (groupsBound(D3, a, a + w) * w * w) / 2;
     // for the slope search: |y'| ≤ its size, and ≤ |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor)
     ctx.upper.push(Math.min(groupsBound(D, a, a + w), Math.abs(d0) + Math.abs(s0) * w + r));
+    ctx.lastStart = Math.abs(d0);
     if (Math.abs(d0) > ctx.reached) ctx.reached = Math.abs(d0);
     if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
       ts.push(lo, hi);
