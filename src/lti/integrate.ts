@@ -197,7 +197,9 @@ function pairIntegral(ar: number, ai: number, ak: number, akr: number, aki: numb
  * The layout keeps its first piece's coefficients c0 and the set V of monomials seen to differ from
  * them; with F = c0 off V and d = c on V, ∫f² = Q(F) + 2·B(F, d) + Q(d), where Q(F) and the vector
  * of B(F, ·) are computed once: a piece then costs |V|² pair terms instead of all pairs. The
- * same sum as integrateProduct, regrouped (so equal to rounding).
+ * same sum as integrateProduct, regrouped (so equal to rounding). A term array seen before over
+ * the same length gives its integrals again: term arrays are taken as unchanging (pieces share
+ * them, see simulate/solve.ts).
  */
 export class RepeatedIntegrals {
   /** results of the last `integrate` call */
