@@ -7,6 +7,8 @@
  * T has diagonal d[0..n−1] and off-diagonal e[0..n−2] (e[i] = T[i][i+1] = T[i+1][i]).
  */
 
+import { eigDefiniteTridiagonal } from './definite-tridiagonal.js';
+
 const EPS = 2 ** -52;
 
 export interface TridiagonalEig {
@@ -30,7 +32,10 @@ export function eigTridiagonal(d: Float64Array, e: Float64Array): TridiagonalEig
     const bd = d.slice(start, i + 1);
     const be = e.slice(start, start + m - 1);
     let w = tridiagonalEigenvalues(bd, be);
-    let zb = inverseIterationWork(bd, be, w) < qlWork(m) ? tridiagonalEigenvectors(bd, be, w) : null;
+    // definite (an RC network): relative accuracy, one twisted factorization per vector
+    const def = eigDefiniteTridiagonal(bd, be, w);
+    if (def) w = def.values;
+    let zb = def ? def.z : inverseIterationWork(bd, be, w) < qlWork(m) ? tridiagonalEigenvectors(bd, be, w) : null;
     if (!zb) {
       // large clusters (Gram–Schmidt would cost more than accumulating the QL rotations), or
       // inverse iteration did not converge
@@ -106,7 +111,7 @@ export function tridiagonalQL(d: Float64Array, e0: Float64Array, z: Float64Array
           s2 = s;
           g = c * e[i];
           h = c * p;
-          r = Math.hypot(p, e[i]);
+          r = hypot(p, e[i]);
           e[i + 1] = s * r;
           s = e[i] / r;
           c = p / r;
@@ -155,6 +160,15 @@ export function tridiagonalQL(d: Float64Array, e0: Float64Array, z: Float64Array
       }
     }
   }
+}
+
+/**
+ * √(a² + b²) without Math.hypot's cost (it dominates the QL sweep otherwise); Math.hypot only
+ * where the squares could overflow or underflow.
+ */
+function hypot(a: number, b: number): number {
+  const r = Math.sqrt(a * a + b * b);
+  return r > 1e-150 && r < 1e150 ? r : Math.hypot(a, b);
 }
 
 /** ‖T‖₁ of the symmetric tridiagonal (d, e). */
