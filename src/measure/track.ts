@@ -174,9 +174,23 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
   const from = ts.length;
   layOut(piece, lo, hi, ctx, minIntervals);
   if (ctx.laid.size < 4096 && lo - t0 >= 0) {
-    const taus: number[] = [];
-    for (let i = from; i < ts.length; i++) taus.push(ts[i]! - t0);
-    ctx.laid.set(piece.terms, { a: lo - t0, b: hi - t0, taus, ys: ys.slice(from), upper: ctx.upper[ctx.upper.length - 1]!, start: ctx.lastStart });
+    // kept for the repeats: the ends and the knots where the knot values turn or stay level (the
+    // signal is monotone from knot to knot, so it stays monotone across a knot it goes straight
+    // through in the same direction)
+    const taus: number[] = [ts[from]! - t0];
+    const vals: number[] = [ys[from]!];
+    const last = ts.length - 1;
+    for (let i = from + 1; i < last; i++) {
+      const up = ys[i]! - ys[i - 1]!;
+      const next = ys[i + 1]! - ys[i]!;
+      if (!((up > 0 && next > 0) || (up < 0 && next < 0))) {
+        taus.push(ts[i]! - t0);
+        vals.push(ys[i]!);
+      }
+    }
+    taus.push(ts[last]! - t0);
+    vals.push(ys[last]!);
+    ctx.laid.set(piece.terms, { a: lo - t0, b: hi - t0, taus, ys: vals, upper: ctx.upper[ctx.upper.length - 1]!, start: ctx.lastStart });
   }
 }
 
