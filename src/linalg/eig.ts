@@ -50,9 +50,11 @@ export interface EigFlatResult {
   V: Float64Array;
 }
 
+import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { pathOrder, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
+import { tridiagonalVectors } from './tridiagonal-vectors.js';
 
 const EPS = 2 ** -52;
 // relative mismatch allowed between Aᵢⱼ·dⱼ² and Aⱼᵢ·dᵢ² on the symmetric route: the route solves
@@ -118,9 +120,15 @@ export function eigFlat(
     // eigenvector by inverse iteration on the tridiagonal, O(n) apiece, instead of accumulating
     // Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the same (measured),
     // so it keeps the Schur-form path.
-    const h = a.slice();
-    hqr2(h, n, vt, re, im, false);
-    const X = wellSeparated(re, im, a, n) ? hessenbergEigenvectors(a, n, re, im) : null;
+    const t = ladderEig(a, n);
+    if (t) {
+      re.set(t.re);
+      im.set(t.im);
+    } else {
+      const h = a.slice();
+      hqr2(h, n, vt, re, im, false);
+    }
+    const X = t ? t.X : wellSeparated(re, im, a, n) ? hessenbergEigenvectors(a, n, re, im) : null;
     if (X) {
       for (let i = 0; i < n; i++) {
         const oi = order[i];
@@ -183,6 +191,64 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
   }
   normalizeColumns(V, n, im);
   return { n, re, im, V };
+}
+
+// an eigenvalue of the complex QL whose imaginary part is below this fraction of ‖T‖ is real (its
+// imaginary part is round-off); a genuine pair that close to the real axis is nearly repeated and
+// fails wellSeparated anyway (2·REAL_AXIS < SEPARATION)
+const REAL_AXIS = 1e-9;
+
+/**
+ * The tridiagonal T (a ladder, reordered) in O(n²): eigenvalues by complex symmetric QL
+ * (complex-symmetric-tridiagonal.ts), sorted into eig()'s layout, then refined together with the
+ * eigenvectors by inverse iteration (tridiagonal-vectors.ts). Null when any step declines (the
+ * Schur-form machinery then takes over).
+ */
+function ladderEig(a: Float64Array, n: number): { re: Float64Array; im: Float64Array; X: Float64Array } | null {
+  const d = new Float64Array(n);
+  const b = new Float64Array(Math.max(n - 1, 0));
+  const c = new Float64Array(Math.max(n - 1, 0));
+  for (let k = 0; k < n; k++) d[k] = a[k * n + k];
+  for (let k = 0; k + 1 < n; k++) {
+    b[k] = a[k * n + k + 1];
+    c[k] = a[(k + 1) * n + k];
+  }
+  const ev = tridiagonalEigenvaluesComplex(d, b, c);
+  if (!ev) return null;
+  let norm = 0;
+  for (let k = 0; k < n; k++) norm = Math.max(norm, Math.abs(d[k]) + (k > 0 ? Math.abs(b[k - 1]) : 0) + (k + 1 < n ? Math.abs(c[k]) : 0));
+  const tol = REAL_AXIS * norm;
+  const real: number[] = [];
+  const upper: number[] = [];
+  const lower: number[] = [];
+  for (let k = 0; k < n; k++) {
+    if (Math.abs(ev.im[k]) <= tol) real.push(k);
+    else (ev.im[k] > 0 ? upper : lower).push(k);
+  }
+  // conjugate pairs: the upper and lower halves must match one to one
+  if (upper.length !== lower.length) return null;
+  const byRe = (p: number, q: number): number => ev.re[p] - ev.re[q] || Math.abs(ev.im[p]) - Math.abs(ev.im[q]);
+  upper.sort(byRe);
+  lower.sort(byRe);
+  for (let k = 0; k < upper.length; k++) {
+    const u = upper[k];
+    const l = lower[k];
+    if (Math.hypot(ev.re[u] - ev.re[l], ev.im[u] + ev.im[l]) > SEPARATION * norm) return null;
+  }
+  real.sort(byRe);
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  let j = 0;
+  for (const k of real) re[j++] = ev.re[k];
+  for (const k of upper) {
+    re[j] = ev.re[k];
+    im[j] = ev.im[k];
+    re[j + 1] = ev.re[k];
+    im[j + 1] = -ev.im[k];
+    j += 2;
+  }
+  if (!wellSeparated(re, im, a, n)) return null;
+  return tridiagonalVectors(d, b, c, re, im);
 }
 
 /**

@@ -1,0 +1,306 @@
+/**
+ * Eigenvectors of a real nonsymmetric tridiagonal matrix for approximate eigenvalues, O(n) each,
+ * with the eigenvalues refined on the way.
+ *
+ * Inverse iteration (LAPACK dlaein structure, from memory) with Gaussian elimination of T − λI
+ * with row interchanges, in complex arithmetic (a real λ keeps every imaginary part exactly zero).
+ * The eigenvalue is then refined by the two-sided Rayleigh quotient λ' = yᵀTx / yᵀx with the left
+ * eigenvector y = W·x, W = diag(wₖ), w₀ = 1, wₖ₊₁ = wₖ·bₖ/cₖ (T is diagonally similar to a complex
+ * symmetric matrix, whose left and right eigenvectors coincide): its error is quadratic in the
+ * vector's, so one pass brings an estimate off by many ulps of ‖T‖ (the complex QL of
+ * complex-symmetric-tridiagonal.ts leaves such errors) to full accuracy. A vector is accepted when
+ * its explicit residual ‖T·x − λ·x‖∞ is within RESIDUAL·‖T‖·‖x‖∞ after at least one refinement.
+ */
+
+const EPS = 2 ** -52;
+const RESIDUAL = 1e-13;
+const MAX_SOLVES = 6;
+
+export interface TridiagonalVectors {
+  /** row-major n×n, eig()'s convention: column k real, or Re v and Im v in columns k, k+1 */
+  X: Float64Array;
+  re: Float64Array;
+  im: Float64Array;
+}
+
+/**
+ * d: diagonal; b: superdiagonal (T[k][k+1]); c: subdiagonal (T[k+1][k]); re, im: eigenvalue
+ * estimates in eig()'s layout (pairs adjacent, im[k] > 0 first, conjugates exact). Returns the
+ * vectors and the refined eigenvalues, or null when a vector does not reach the residual bound or
+ * some bₖ·cₖ is zero.
+ */
+export function tridiagonalVectors(
+  d: Float64Array,
+  b: Float64Array,
+  c: Float64Array,
+  re0: Float64Array,
+  im0: Float64Array,
+): TridiagonalVectors | null {
+  const n = d.length;
+  const re = Float64Array.from(re0);
+  const im = Float64Array.from(im0);
+  const w = new Float64Array(n);
+  w[0] = 1;
+  for (let k = 0; k + 1 < n; k++) {
+    w[k + 1] = (w[k] * b[k]) / c[k];
+    if (!(Number.isFinite(w[k + 1]) && w[k + 1] !== 0)) return null;
+  }
+  let norm = 0;
+  for (let k = 0; k < n; k++) norm = Math.max(norm, Math.abs(d[k]) + (k > 0 ? Math.abs(b[k - 1]) : 0) + (k + 1 < n ? Math.abs(c[k]) : 0));
+  if (norm === 0) norm = 1;
+  const ws = new Work(n);
+  const X = new Float64Array(n * n);
+  for (let k = 0; k < n; k++) {
+    if (im[k] < 0) continue;
+    if (!vector(d, b, c, w, norm, re[k], im[k], ws)) return null;
+    const { xr, xi } = ws;
+    // unit 2-norm (a pair: ‖Re v‖² + ‖Im v‖² = 1)
+    let s = 0;
+    for (let i = 0; i < n; i++) s += xr[i] * xr[i] + xi[i] * xi[i];
+    const f = 1 / Math.sqrt(s);
+    if (im[k] === 0) {
+      re[k] = ws.lr;
+      for (let i = 0; i < n; i++) X[i * n + k] = xr[i] * f;
+    } else {
+      re[k] = ws.lr;
+      im[k] = ws.li;
+      re[k + 1] = ws.lr;
+      im[k + 1] = -ws.li;
+      for (let i = 0; i < n; i++) {
+        X[i * n + k] = xr[i] * f;
+        X[i * n + k + 1] = xi[i] * f;
+      }
+      k++;
+    }
+  }
+  return { X, re, im };
+}
+
+class Work {
+  // U of the elimination: diagonal, first and second superdiagonal (real, imaginary parts)
+  u0r: Float64Array;
+  u0i: Float64Array;
+  u1r: Float64Array;
+  u1i: Float64Array;
+  u2: Float64Array;
+  mr: Float64Array;
+  mi: Float64Array;
+  swap: Uint8Array;
+  xr: Float64Array;
+  xi: Float64Array;
+  lr = 0;
+  li = 0;
+  constructor(n: number) {
+    this.u0r = new Float64Array(n);
+    this.u0i = new Float64Array(n);
+    this.u1r = new Float64Array(n);
+    this.u1i = new Float64Array(n);
+    this.u2 = new Float64Array(n);
+    this.mr = new Float64Array(n);
+    this.mi = new Float64Array(n);
+    this.swap = new Uint8Array(n);
+    this.xr = new Float64Array(n);
+    this.xi = new Float64Array(n);
+  }
+}
+
+/** Elimination with row interchanges of T − λI (LAPACK dgttrf structure, complex shift). */
+function factor(d: Float64Array, b: Float64Array, c: Float64Array, lr: number, li: number, eps3: number, ws: Work): void {
+  const n = d.length;
+  const { u0r, u0i, u1r, u1i, u2, mr, mi, swap } = ws;
+  for (let i = 0; i < n; i++) {
+    u0r[i] = d[i] - lr;
+    u0i[i] = -li;
+  }
+  for (let i = 0; i + 1 < n; i++) {
+    u1r[i] = b[i];
+    u1i[i] = 0;
+  }
+  for (let i = 0; i + 1 < n; i++) {
+    const sub = c[i];
+    const ar = u0r[i];
+    const ai = u0i[i];
+    if (Math.abs(ar) + Math.abs(ai) >= Math.abs(sub)) {
+      swap[i] = 0;
+      u2[i] = 0;
+      let pr = ar;
+      const pi = ai;
+      if (pr === 0 && pi === 0) pr = eps3;
+      u0r[i] = pr;
+      // f = sub / p
+      const den = pr * pr + pi * pi;
+      const fr = (sub * pr) / den;
+      const fi = (-sub * pi) / den;
+      mr[i] = fr;
+      mi[i] = fi;
+      // row i+1 −= f · row i (row i: u0, u1 at column i+1)
+      const xr = u1r[i];
+      const xi = u1i[i];
+      u0r[i + 1] -= fr * xr - fi * xi;
+      u0i[i + 1] -= fr * xi + fi * xr;
+    } else {
+      // row i+1 is the pivot row: [c_i, u0[i+1], b[i+1]]
+      swap[i] = 1;
+      // f = a / sub
+      const fr = ar / sub;
+      const fi = ai / sub;
+      mr[i] = fr;
+      mi[i] = fi;
+      const nr = u0r[i + 1];
+      const ni = u0i[i + 1];
+      const br = i + 2 < n ? b[i + 1] : 0;
+      // new row i = old row i+1; new row i+1 = old row i − f·(old row i+1)
+      const or1 = u1r[i];
+      const oi1 = u1i[i];
+      u0r[i] = sub;
+      u0i[i] = 0;
+      u1r[i] = nr;
+      u1i[i] = ni;
+      u2[i] = br;
+      u0r[i + 1] = or1 - (fr * nr - fi * ni);
+      u0i[i + 1] = oi1 - (fr * ni + fi * nr);
+      if (i + 2 < n) {
+        u1r[i + 1] = -fr * br;
+        u1i[i + 1] = -fi * br;
+      }
+    }
+  }
+  if (u0r[n - 1] === 0 && u0i[n - 1] === 0) u0r[n - 1] = eps3;
+}
+
+/** x := U⁻¹·x (backward substitution; pivots below eps3 replaced by eps3). */
+function backSolve(n: number, ws: Work, eps3: number): void {
+  const { u0r, u0i, u1r, u1i, u2, xr, xi } = ws;
+  for (let i = n - 1; i >= 0; i--) {
+    let tr = xr[i];
+    let ti = xi[i];
+    if (i + 1 < n) {
+      const ar = u1r[i];
+      const ai = u1i[i];
+      tr -= ar * xr[i + 1] - ai * xi[i + 1];
+      ti -= ar * xi[i + 1] + ai * xr[i + 1];
+    }
+    if (i + 2 < n) {
+      tr -= u2[i] * xr[i + 2];
+      ti -= u2[i] * xi[i + 2];
+    }
+    let pr = u0r[i];
+    let pi = u0i[i];
+    if (Math.abs(pr) + Math.abs(pi) < eps3) {
+      pr = eps3;
+      pi = 0;
+    }
+    // (tr + j·ti) / (pr + j·pi), Smith's formula
+    if (Math.abs(pr) >= Math.abs(pi)) {
+      const r = pi / pr;
+      const den = pr + r * pi;
+      xr[i] = (tr + r * ti) / den;
+      xi[i] = (ti - r * tr) / den;
+    } else {
+      const r = pr / pi;
+      const den = pi + r * pr;
+      xr[i] = (r * tr + ti) / den;
+      xi[i] = (r * ti - tr) / den;
+    }
+  }
+}
+
+/** x := L⁻¹·P·x (the row interchanges and multipliers of factor). */
+function forwardSolve(n: number, ws: Work): void {
+  const { mr, mi, swap, xr, xi } = ws;
+  for (let k = 0; k + 1 < n; k++) {
+    const fr = mr[k];
+    const fi = mi[k];
+    if (swap[k]) {
+      const tr = xr[k];
+      const ti = xi[k];
+      xr[k] = xr[k + 1];
+      xi[k] = xi[k + 1];
+      xr[k + 1] = tr - (fr * xr[k] - fi * xi[k]);
+      xi[k + 1] = ti - (fr * xi[k] + fi * xr[k]);
+    } else {
+      xr[k + 1] -= fr * xr[k] - fi * xi[k];
+      xi[k + 1] -= fr * xi[k] + fi * xr[k];
+    }
+  }
+}
+
+/** Scales x to max-norm 1 (|re| + |im|); returns the factor's inverse (the old max), 0 if not finite. */
+function rescale(n: number, ws: Work): number {
+  const { xr, xi } = ws;
+  let big = 0;
+  for (let i = 0; i < n; i++) big = Math.max(big, Math.abs(xr[i]) + Math.abs(xi[i]));
+  if (!(big > 0) || !Number.isFinite(big)) return 0;
+  const f = 1 / big;
+  for (let i = 0; i < n; i++) {
+    xr[i] *= f;
+    xi[i] *= f;
+  }
+  return big;
+}
+
+/**
+ * The eigenvector of the eigenvalue near lr + j·li into ws.xr, ws.xi and the refined eigenvalue
+ * into ws.lr, ws.li; false when the residual bound is not reached.
+ */
+function vector(d: Float64Array, b: Float64Array, c: Float64Array, w: Float64Array, norm: number, lr: number, li: number, ws: Work): boolean {
+  const n = d.length;
+  const eps3 = norm * EPS;
+  const { xr, xi } = ws;
+  factor(d, b, c, lr, li, eps3, ws);
+  // dlaein's start: U·x = (1, …, 1)
+  xr.fill(1);
+  xi.fill(0);
+  backSolve(n, ws, eps3);
+  if (!rescale(n, ws)) return false;
+  let refined = 0;
+  for (let its = 0; its < MAX_SOLVES; its++) {
+    // two-sided Rayleigh quotient Σ wᵢ·xᵢ·(T·x)ᵢ / Σ wᵢ·xᵢ² and the residual at the current λ
+    let nr = 0;
+    let ni = 0;
+    let dr = 0;
+    let di = 0;
+    let res = 0;
+    for (let i = 0; i < n; i++) {
+      let tr = d[i] * xr[i];
+      let ti = d[i] * xi[i];
+      if (i > 0) {
+        tr += c[i - 1] * xr[i - 1];
+        ti += c[i - 1] * xi[i - 1];
+      }
+      if (i + 1 < n) {
+        tr += b[i] * xr[i + 1];
+        ti += b[i] * xi[i + 1];
+      }
+      const x2r = xr[i] * xr[i] - xi[i] * xi[i];
+      const x2i = 2 * xr[i] * xi[i];
+      const wi = w[i];
+      nr += wi * (xr[i] * tr - xi[i] * ti);
+      ni += wi * (xr[i] * ti + xi[i] * tr);
+      dr += wi * x2r;
+      di += wi * x2i;
+      res = Math.max(res, Math.abs(tr - (lr * xr[i] - li * xi[i])) + Math.abs(ti - (lr * xi[i] + li * xr[i])));
+    }
+    // accepted only once computed at a refined λ (the estimate may be off by many ulps of ‖T‖)
+    if (refined > 0 && res <= RESIDUAL * norm) {
+      ws.lr = lr;
+      ws.li = li;
+      return true;
+    }
+    const den = dr * dr + di * di;
+    if (den > 0 && refined < 2) {
+      const qr = (nr * dr + ni * di) / den;
+      const qi = li === 0 ? 0 : (ni * dr - nr * di) / den;
+      if (!Number.isFinite(qr) || !Number.isFinite(qi)) return false;
+      // a new shift: refactor, and let the next solve bring the vector to it
+      lr = qr;
+      li = qi;
+      refined++;
+      factor(d, b, c, lr, li, eps3, ws);
+    }
+    forwardSolve(n, ws);
+    backSolve(n, ws, eps3);
+    if (!rescale(n, ws)) return false;
+  }
+  return false;
+}
