@@ -99,12 +99,28 @@ export function eigFlat(
   const im = new Float64Array(n);
   const V = new Float64Array(n * n);
   if (n === 0) return { n, re, im, V };
+  const order = opts.structured !== false ? pathOrder(patternAdjacency(a, n)) : null;
+  if (order && opts.inverseIteration !== false && n >= INVERSE_ITERATION_MIN) {
+    // a ladder: O(n²) on the tridiagonal alone, without touching the dense array
+    const t = ladderEig(a, n, order, opts.balance !== false);
+    if (t) {
+      re.set(t.re);
+      im.set(t.im);
+      for (let i = 0; i < n; i++) {
+        const s = t.scale[i];
+        const src = i * n;
+        const dst = order[i] * n;
+        for (let j = 0; j < n; j++) V[dst + j] = t.X[src + j] * s;
+      }
+      normalizeColumns(V, n, im);
+      return { n, re, im, V };
+    }
+  }
   const scale = new Float64Array(n).fill(1);
   if (opts.balance !== false) balance(a, n, scale);
   // The Schur / eigenvector matrix is kept transposed (vt[j*n + i] = V[i][j]) while it is built:
   // the QR sweeps combine columns of V, which are then contiguous rows of vt.
   const vt = new Float64Array(n * n);
-  const order = opts.structured !== false ? pathOrder(patternAdjacency(a, n)) : null;
   let ort: Float64Array | null = null;
   if (order) {
     // a ladder (LC, RLC): reordered along its path it is tridiagonal, hence already Hessenberg,
@@ -116,19 +132,13 @@ export function eigFlat(
     }
   } else ort = hessenberg(a, n);
   if (order && opts.inverseIteration !== false && n >= INVERSE_ITERATION_MIN) {
-    // tridiagonal: eigenvalues alone (QR sweeps restricted to the active window), then each
-    // eigenvector by inverse iteration on the tridiagonal, O(n) apiece, instead of accumulating
-    // Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the same (measured),
-    // so it keeps the Schur-form path.
-    const t = ladderEig(a, n);
-    if (t) {
-      re.set(t.re);
-      im.set(t.im);
-    } else {
-      const h = a.slice();
-      hqr2(h, n, vt, re, im, false);
-    }
-    const X = t ? t.X : wellSeparated(re, im, a, n) ? hessenbergEigenvectors(a, n, re, im) : null;
+    // tridiagonal, where ladderEig declined: eigenvalues alone (QR sweeps restricted to the active
+    // window), then each eigenvector by inverse iteration on the tridiagonal, O(n) apiece, instead
+    // of accumulating Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the
+    // same (measured), so it keeps the Schur-form path.
+    const h = a.slice();
+    hqr2(h, n, vt, re, im, false);
+    const X = wellSeparated(re, im, hessenbergNorm(a, n)) ? hessenbergEigenvectors(a, n, re, im) : null;
     if (X) {
       for (let i = 0; i < n; i++) {
         const oi = order[i];
@@ -199,19 +209,44 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
 const REAL_AXIS = 1e-9;
 
 /**
- * The tridiagonal T (a ladder, reordered) in O(n²): eigenvalues by complex symmetric QL
- * (complex-symmetric-tridiagonal.ts), sorted into eig()'s layout, then refined together with the
- * eigenvectors by inverse iteration (tridiagonal-vectors.ts). Null when any step declines (the
- * Schur-form machinery then takes over).
+ * A ladder, i.e. A reordered along `order` is tridiagonal T, in O(n²): T's diagonal similarity
+ * Δ⁻¹·T·Δ with |bₖ| ≈ |cₖ| (powers of 2, so exact; the natural balancing of a tridiagonal),
+ * eigenvalues by complex symmetric QL (complex-symmetric-tridiagonal.ts) sorted into eig()'s
+ * layout, then refined together with the eigenvectors by inverse iteration (tridiagonal-vectors.ts).
+ * X (row i: state order[i]) holds the vectors of the balanced T, scale holds Δ. Null when any step
+ * declines (the Hessenberg QR machinery then takes over).
  */
-function ladderEig(a: Float64Array, n: number): { re: Float64Array; im: Float64Array; X: Float64Array } | null {
+function ladderEig(
+  a: Float64Array,
+  n: number,
+  order: number[],
+  balanced: boolean,
+): { re: Float64Array; im: Float64Array; X: Float64Array; scale: Float64Array } | null {
   const d = new Float64Array(n);
   const b = new Float64Array(Math.max(n - 1, 0));
   const c = new Float64Array(Math.max(n - 1, 0));
-  for (let k = 0; k < n; k++) d[k] = a[k * n + k];
+  for (let k = 0; k < n; k++) d[k] = a[order[k] * n + order[k]];
   for (let k = 0; k + 1 < n; k++) {
-    b[k] = a[k * n + k + 1];
-    c[k] = a[(k + 1) * n + k];
+    b[k] = a[order[k] * n + order[k + 1]];
+    c[k] = a[order[k + 1] * n + order[k]];
+    if (b[k] === 0 || c[k] === 0) return null; // one-way coupling: not a similarity of a symmetric one
+  }
+  const scale = new Float64Array(n).fill(1);
+  if (balanced) {
+    // δₖ₊₁/δₖ ≈ √|cₖ/bₖ|, rounded to powers of 2 on the running sum of exponents (the ratios
+    // |bₖ/cₖ| after scaling then stay within [1/4, 4], and so do their products)
+    let exact = 0;
+    let prev = 0;
+    for (let k = 0; k + 1 < n; k++) {
+      exact += 0.5 * Math.log2(Math.abs(c[k] / b[k]));
+      const e = Math.round(exact);
+      if (!(Math.abs(e) < 900)) return null;
+      scale[k + 1] = 2 ** e;
+      const f = 2 ** (e - prev);
+      b[k] *= f;
+      c[k] /= f;
+      prev = e;
+    }
   }
   const ev = tridiagonalEigenvaluesComplex(d, b, c);
   if (!ev) return null;
@@ -247,52 +282,84 @@ function ladderEig(a: Float64Array, n: number): { re: Float64Array; im: Float64A
     im[j + 1] = -ev.im[k];
     j += 2;
   }
-  if (!wellSeparated(re, im, a, n)) return null;
-  return tridiagonalVectors(d, b, c, re, im);
+  if (!wellSeparated(re, im, norm)) return null;
+  const t = tridiagonalVectors(d, b, c, re, im);
+  // the refinement must not have merged two eigenvalues (inverse iteration from a poor estimate
+  // finds whichever eigenvalue dominates)
+  if (!t || !wellSeparated(t.re, t.im, norm)) return null;
+  return { re: t.re, im: t.im, X: t.X, scale };
 }
 
-/**
- * Inverse iteration needs distinct eigenvalues: a repeated or nearly repeated one (identical
- * sections, several zero poles) would give the same vector twice where independent ones exist.
- * Those spectra take the Schur-form path, which keeps them apart.
- */
-function wellSeparated(re: Float64Array, im: Float64Array, h: Float64Array, n: number): boolean {
+/** ‖H‖∞ over the upper Hessenberg part of the row-major n×n array h. */
+function hessenbergNorm(h: Float64Array, n: number): number {
   let norm = 0;
   for (let i = 0; i < n; i++) {
     let s = 0;
     for (let j = Math.max(i - 1, 0); j < n; j++) s += Math.abs(h[i * n + j]);
     norm = Math.max(norm, s);
   }
+  return norm;
+}
+
+/**
+ * Inverse iteration needs distinct eigenvalues: a repeated or nearly repeated one (identical
+ * sections, several zero poles) would give the same vector twice where independent ones exist.
+ * Those spectra take the Schur-form path, which keeps them apart. Pairs closer than
+ * SEPARATION·norm are found through a grid of cells of that size (O(n): a ladder's poles may share
+ * nearly one real part).
+ */
+function wellSeparated(re: Float64Array, im: Float64Array, norm: number): boolean {
+  const n = re.length;
   const tol = SEPARATION * norm;
-  // sorted by real part, only neighbours within tol in the real part can be close
-  const idx = Array.from(re.keys()).sort((p, q) => re[p] - re[q]);
-  for (let a = 0; a < n; a++) {
-    const i = idx[a];
-    for (let b = a + 1; b < n && re[idx[b]] - re[i] <= tol; b++) {
-      const j = idx[b];
-      if (Math.hypot(re[j] - re[i], im[j] - im[i]) <= tol) return false;
+  if (!(tol > 0)) return n < 2;
+  const cells = new Map<string, number[]>();
+  for (let i = 0; i < n; i++) {
+    const cx = Math.floor(re[i] / tol);
+    const cy = Math.floor(im[i] / tol);
+    for (let dx = -1; dx <= 1; dx++) {
+      for (let dy = -1; dy <= 1; dy++) {
+        const near = cells.get(`${cx + dx},${cy + dy}`);
+        if (near) for (const j of near) if (Math.hypot(re[j] - re[i], im[j] - im[i]) <= tol) return false;
+      }
     }
+    const key = `${cx},${cy}`;
+    const own = cells.get(key);
+    if (own) own.push(i);
+    else cells.set(key, [i]);
   }
   return true;
 }
 
-/** Neighbours of each index in the off-diagonal pattern of A + Aᵀ. */
+/**
+ * Neighbours of each index in the off-diagonal pattern of A + Aᵀ, read row by row; stops early
+ * once an index has three (not a path: pathOrder refuses it at once).
+ */
 function patternAdjacency(a: Float64Array, n: number): number[][] {
   const adj: number[][] = Array.from({ length: n }, () => []);
+  const add = (i: number, j: number): boolean => {
+    const l = adj[i];
+    if (!l.includes(j)) l.push(j);
+    return l.length <= 2;
+  };
   for (let i = 0; i < n; i++) {
-    for (let j = i + 1; j < n; j++) {
-      if (a[i * n + j] === 0 && a[j * n + i] === 0) continue;
-      adj[i].push(j);
-      adj[j].push(i);
-      if (adj[i].length > 2) return adj; // not a path: pathOrder refuses it at once
+    const row = i * n;
+    for (let j = 0; j < n; j++) {
+      if (j === i || a[row + j] === 0) continue;
+      if (!add(i, j) || !add(j, i)) return adj;
     }
   }
   return adj;
 }
 
 function toRows(v: Float64Array, n: number): number[][] {
+  // an element loop: Array.from on a typed array is ten times slower (measured)
   const out: number[][] = new Array(n);
-  for (let i = 0; i < n; i++) out[i] = Array.from(v.subarray(i * n, i * n + n));
+  for (let i = 0; i < n; i++) {
+    const row: number[] = new Array(n);
+    const b = i * n;
+    for (let j = 0; j < n; j++) row[j] = v[b + j];
+    out[i] = row;
+  }
   return out;
 }
 
