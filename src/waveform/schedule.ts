@@ -125,17 +125,42 @@ export function buildSchedule(waves: Waveform[], span: number, from = 0, extraBr
   });
   diracs.sort((a, b) => a.t - b.t);
   const jumps: InputSchedule['jumps'] = [];
-  // (the inputs' values into two reused arrays: a long pulse train has 10⁴ boundaries)
-  const before = new Array<number>(m).fill(0);
-  const after = new Array<number>(m).fill(0);
+  // A jump is a change at a boundary beyond round-off of the input's own size over the schedule
+  // (not of its local value: at the foot of a falling edge both sides are rounding-size, and their
+  // difference is no jump). First the values at every boundary, then the comparison.
+  const nb = Math.max(0, intervals.length - 1);
+  const ends = new Float64Array(nb * m);
+  const starts = new Float64Array(nb * m);
+  const size = new Float64Array(m);
+  const u = new Array<number>(m).fill(0);
   for (let k = 1; k < intervals.length; k++) {
-    inputValuesInto(intervals[k - 1], intervals[k - 1].t1 - intervals[k - 1].t0, before);
-    inputValuesInto(intervals[k], 0, after);
-    let scale = 1e-300;
-    for (let j = 0; j < m; j++) scale = Math.max(scale, Math.abs(before[j]), Math.abs(after[j]));
+    inputValuesInto(intervals[k - 1], intervals[k - 1].t1 - intervals[k - 1].t0, u);
+    for (let j = 0; j < m; j++) {
+      ends[(k - 1) * m + j] = u[j];
+      size[j] = Math.max(size[j], Math.abs(u[j]));
+    }
+    inputValuesInto(intervals[k], 0, u);
+    for (let j = 0; j < m; j++) {
+      starts[(k - 1) * m + j] = u[j];
+      size[j] = Math.max(size[j], Math.abs(u[j]));
+    }
+  }
+  // ... and beyond what the rounding of the boundary's position (8 ulps of t) makes of a slope
+  const slope = new Array<number>(m).fill(0);
+  const slopeBefore = new Array<number>(m).fill(0);
+  for (let k = 1; k < intervals.length; k++) {
+    const t = intervals[k].t0;
+    slopesInto(intervals[k - 1], intervals[k - 1].t1 - intervals[k - 1].t0, slopeBefore);
+    slopesInto(intervals[k], 0, slope);
     let jumped = false;
-    for (let j = 0; j < m; j++) if (Math.abs(after[j] - before[j]) > 1e-12 * scale) jumped = true;
-    if (jumped) jumps.push({ t: intervals[k].t0, delta: after.map((v, j) => v - before[j]) });
+    for (let j = 0; j < m; j++) {
+      const blur = 8 * Number.EPSILON * Math.abs(t) * Math.max(Math.abs(slope[j]), Math.abs(slopeBefore[j]));
+      if (Math.abs(starts[(k - 1) * m + j] - ends[(k - 1) * m + j]) > 1e-12 * size[j] + blur) jumped = true;
+    }
+    if (!jumped) continue;
+    const delta = new Array<number>(m);
+    for (let j = 0; j < m; j++) delta[j] = starts[(k - 1) * m + j] - ends[(k - 1) * m + j];
+    jumps.push({ t: intervals[k].t0, delta });
   }
   const approximation = models.map((ms) => Math.max(0, ...ms.map((x) => x.approximationError)));
   return { intervals, diracs, jumps, outside, approximation };
@@ -146,6 +171,11 @@ export function inputValues(iv: Interval, m: number, tau: number): number[] {
   const u = new Array<number>(m).fill(0);
   for (const c of iv.components) u[c.input] += componentValue(c, tau);
   return u;
+}
+
+function slopesInto(iv: Interval, tau: number, u: number[]): void {
+  u.fill(0);
+  for (const c of iv.slopes) u[c.input] += componentValue(c, tau);
 }
 
 function inputValuesInto(iv: Interval, tau: number, u: number[]): void {
