@@ -106,11 +106,18 @@ export function eigFlat(
     if (t) {
       re.set(t.re);
       im.set(t.im);
-      for (let i = 0; i < n; i++) {
-        const s = t.scale[i];
-        const src = i * n;
-        const dst = order[i] * n;
-        for (let j = 0; j < n; j++) V[dst + j] = t.X[src + j] * s;
+      // V[order[i]][k] = δᵢ·X[k][i]: a transposition, in blocks so that both sides stay in cache
+      const B = 32;
+      for (let i0 = 0; i0 < n; i0 += B) {
+        const i1 = Math.min(i0 + B, n);
+        for (let k0 = 0; k0 < n; k0 += B) {
+          const k1 = Math.min(k0 + B, n);
+          for (let i = i0; i < i1; i++) {
+            const s = t.scale[i];
+            const dst = order[i] * n;
+            for (let k = k0; k < k1; k++) V[dst + k] = t.X[k * n + i] * s;
+          }
+        }
       }
       normalizeColumns(V, n, im);
       return { n, re, im, V };

@@ -9,7 +9,7 @@
  * symmetric matrix, whose left and right eigenvectors coincide): its error is quadratic in the
  * vector's, so one pass brings an estimate off by many ulps of ‖T‖ (the complex QL of
  * complex-symmetric-tridiagonal.ts leaves such errors) to full accuracy. A vector is accepted when
- * its explicit residual ‖T·x − λ·x‖∞ is within RESIDUAL·‖T‖·‖x‖∞ after at least one refinement.
+ * its explicit residual ‖T·x − λ'·x‖∞ at the refined λ' is within RESIDUAL·‖T‖·‖x‖∞.
  */
 
 const EPS = 2 ** -52;
@@ -17,7 +17,10 @@ const RESIDUAL = 1e-13;
 const MAX_SOLVES = 6;
 
 export interface TridiagonalVectors {
-  /** row-major n×n, eig()'s convention: column k real, or Re v and Im v in columns k, k+1 */
+  /**
+   * column-major n×n (vector k is X[k·n .. k·n + n − 1]), eig()'s convention: vector k real, or
+   * Re v and Im v in vectors k, k+1
+   */
   X: Float64Array;
   re: Float64Array;
   im: Float64Array;
@@ -58,17 +61,18 @@ export function tridiagonalVectors(
     let s = 0;
     for (let i = 0; i < n; i++) s += xr[i] * xr[i] + xi[i] * xi[i];
     const f = 1 / Math.sqrt(s);
+    const xk = k * n;
     if (im[k] === 0) {
       re[k] = ws.lr;
-      for (let i = 0; i < n; i++) X[i * n + k] = xr[i] * f;
+      for (let i = 0; i < n; i++) X[xk + i] = xr[i] * f;
     } else {
       re[k] = ws.lr;
       im[k] = ws.li;
       re[k + 1] = ws.lr;
       im[k + 1] = -ws.li;
       for (let i = 0; i < n; i++) {
-        X[i * n + k] = xr[i] * f;
-        X[i * n + k + 1] = xi[i] * f;
+        X[xk + i] = xr[i] * f;
+        X[xk + n + i] = xi[i] * f;
       }
       k++;
     }
@@ -86,6 +90,9 @@ class Work {
   mr: Float64Array;
   mi: Float64Array;
   swap: Uint8Array;
+  // reciprocals of U's diagonal (pivots below eps3 taken as eps3): the solves then only multiply
+  vr: Float64Array;
+  vi: Float64Array;
   xr: Float64Array;
   xi: Float64Array;
   lr = 0;
@@ -99,6 +106,8 @@ class Work {
     this.mr = new Float64Array(n);
     this.mi = new Float64Array(n);
     this.swap = new Uint8Array(n);
+    this.vr = new Float64Array(n);
+    this.vi = new Float64Array(n);
     this.xr = new Float64Array(n);
     this.xi = new Float64Array(n);
   }
@@ -128,9 +137,9 @@ function factor(d: Float64Array, b: Float64Array, c: Float64Array, lr: number, l
       if (pr === 0 && pi === 0) pr = eps3;
       u0r[i] = pr;
       // f = sub / p
-      const den = pr * pr + pi * pi;
-      const fr = (sub * pr) / den;
-      const fi = (-sub * pi) / den;
+      const q = sub / (pr * pr + pi * pi);
+      const fr = pr * q;
+      const fi = -pi * q;
       mr[i] = fr;
       mi[i] = fi;
       // row i+1 −= f · row i (row i: u0, u1 at column i+1)
@@ -166,11 +175,24 @@ function factor(d: Float64Array, b: Float64Array, c: Float64Array, lr: number, l
     }
   }
   if (u0r[n - 1] === 0 && u0i[n - 1] === 0) u0r[n - 1] = eps3;
+  // independent divisions, off the elimination's dependency chain
+  const { vr, vi } = ws;
+  for (let i = 0; i < n; i++) {
+    let pr = u0r[i];
+    let pi = u0i[i];
+    if (Math.abs(pr) + Math.abs(pi) < eps3) {
+      pr = eps3;
+      pi = 0;
+    }
+    const q = 1 / (pr * pr + pi * pi);
+    vr[i] = pr * q;
+    vi[i] = -pi * q;
+  }
 }
 
-/** x := U⁻¹·x (backward substitution; pivots below eps3 replaced by eps3). */
-function backSolve(n: number, ws: Work, eps3: number): void {
-  const { u0r, u0i, u1r, u1i, u2, xr, xi } = ws;
+/** x := U⁻¹·x (backward substitution with the reciprocal pivots). */
+function backSolve(n: number, ws: Work): void {
+  const { u1r, u1i, u2, vr, vi, xr, xi } = ws;
   for (let i = n - 1; i >= 0; i--) {
     let tr = xr[i];
     let ti = xi[i];
@@ -184,24 +206,8 @@ function backSolve(n: number, ws: Work, eps3: number): void {
       tr -= u2[i] * xr[i + 2];
       ti -= u2[i] * xi[i + 2];
     }
-    let pr = u0r[i];
-    let pi = u0i[i];
-    if (Math.abs(pr) + Math.abs(pi) < eps3) {
-      pr = eps3;
-      pi = 0;
-    }
-    // (tr + j·ti) / (pr + j·pi), Smith's formula
-    if (Math.abs(pr) >= Math.abs(pi)) {
-      const r = pi / pr;
-      const den = pr + r * pi;
-      xr[i] = (tr + r * ti) / den;
-      xi[i] = (ti - r * tr) / den;
-    } else {
-      const r = pr / pi;
-      const den = pi + r * pr;
-      xr[i] = (r * tr + ti) / den;
-      xi[i] = (r * ti - tr) / den;
-    }
+    xr[i] = tr * vr[i] - ti * vi[i];
+    xi[i] = tr * vi[i] + ti * vr[i];
   }
 }
 
@@ -240,67 +246,92 @@ function rescale(n: number, ws: Work): number {
 }
 
 /**
+ * Two-sided Rayleigh quotient Σ wᵢ·xᵢ·(T·x)ᵢ / Σ wᵢ·xᵢ² of ws.x into ws.lr, ws.li (imaginary part
+ * kept zero for a real x); false when it is not finite.
+ */
+function rayleigh(d: Float64Array, b: Float64Array, c: Float64Array, w: Float64Array, real: boolean, ws: Work): boolean {
+  const n = d.length;
+  const { xr, xi } = ws;
+  let nr = 0;
+  let ni = 0;
+  let dr = 0;
+  let di = 0;
+  for (let i = 0; i < n; i++) {
+    let tr = d[i] * xr[i];
+    let ti = d[i] * xi[i];
+    if (i > 0) {
+      tr += c[i - 1] * xr[i - 1];
+      ti += c[i - 1] * xi[i - 1];
+    }
+    if (i + 1 < n) {
+      tr += b[i] * xr[i + 1];
+      ti += b[i] * xi[i + 1];
+    }
+    const wi = w[i];
+    nr += wi * (xr[i] * tr - xi[i] * ti);
+    ni += wi * (xr[i] * ti + xi[i] * tr);
+    dr += wi * (xr[i] * xr[i] - xi[i] * xi[i]);
+    di += wi * 2 * xr[i] * xi[i];
+  }
+  const den = dr * dr + di * di;
+  const qr = (nr * dr + ni * di) / den;
+  const qi = real ? 0 : (ni * dr - nr * di) / den;
+  if (!Number.isFinite(qr) || !Number.isFinite(qi)) return false;
+  ws.lr = qr;
+  ws.li = qi;
+  return true;
+}
+
+/** max over i of |(T·x − λ·x)ᵢ| (|re| + |im|). */
+function residual(d: Float64Array, b: Float64Array, c: Float64Array, lr: number, li: number, ws: Work): number {
+  const n = d.length;
+  const { xr, xi } = ws;
+  let res = 0;
+  for (let i = 0; i < n; i++) {
+    let tr = (d[i] - lr) * xr[i] + li * xi[i];
+    let ti = (d[i] - lr) * xi[i] - li * xr[i];
+    if (i > 0) {
+      tr += c[i - 1] * xr[i - 1];
+      ti += c[i - 1] * xi[i - 1];
+    }
+    if (i + 1 < n) {
+      tr += b[i] * xr[i + 1];
+      ti += b[i] * xi[i + 1];
+    }
+    res = Math.max(res, Math.abs(tr) + Math.abs(ti));
+  }
+  return res;
+}
+
+/**
  * The eigenvector of the eigenvalue near lr + j·li into ws.xr, ws.xi and the refined eigenvalue
- * into ws.lr, ws.li; false when the residual bound is not reached.
+ * into ws.lr, ws.li; false when the residual bound is not reached. Two solves with the
+ * factorization at the estimate (each shrinks the other eigenvectors' share by |λ̂ − λ|/gap), the
+ * Rayleigh quotient, the residual there; only when that fails, a new factorization at the
+ * refined value and more solves.
  */
 function vector(d: Float64Array, b: Float64Array, c: Float64Array, w: Float64Array, norm: number, lr: number, li: number, ws: Work): boolean {
   const n = d.length;
   const eps3 = norm * EPS;
-  const { xr, xi } = ws;
+  const real = li === 0;
   factor(d, b, c, lr, li, eps3, ws);
   // dlaein's start: U·x = (1, …, 1)
-  xr.fill(1);
-  xi.fill(0);
-  backSolve(n, ws, eps3);
+  ws.xr.fill(1);
+  ws.xi.fill(0);
+  backSolve(n, ws);
   if (!rescale(n, ws)) return false;
-  let refined = 0;
   for (let its = 0; its < MAX_SOLVES; its++) {
-    // two-sided Rayleigh quotient Σ wᵢ·xᵢ·(T·x)ᵢ / Σ wᵢ·xᵢ² and the residual at the current λ
-    let nr = 0;
-    let ni = 0;
-    let dr = 0;
-    let di = 0;
-    let res = 0;
-    for (let i = 0; i < n; i++) {
-      let tr = d[i] * xr[i];
-      let ti = d[i] * xi[i];
-      if (i > 0) {
-        tr += c[i - 1] * xr[i - 1];
-        ti += c[i - 1] * xi[i - 1];
-      }
-      if (i + 1 < n) {
-        tr += b[i] * xr[i + 1];
-        ti += b[i] * xi[i + 1];
-      }
-      const x2r = xr[i] * xr[i] - xi[i] * xi[i];
-      const x2i = 2 * xr[i] * xi[i];
-      const wi = w[i];
-      nr += wi * (xr[i] * tr - xi[i] * ti);
-      ni += wi * (xr[i] * ti + xi[i] * tr);
-      dr += wi * x2r;
-      di += wi * x2i;
-      res = Math.max(res, Math.abs(tr - (lr * xr[i] - li * xi[i])) + Math.abs(ti - (lr * xi[i] + li * xr[i])));
-    }
-    // accepted only once computed at a refined λ (the estimate may be off by many ulps of ‖T‖)
-    if (refined > 0 && res <= RESIDUAL * norm) {
-      ws.lr = lr;
-      ws.li = li;
-      return true;
-    }
-    const den = dr * dr + di * di;
-    if (den > 0 && refined < 2) {
-      const qr = (nr * dr + ni * di) / den;
-      const qi = li === 0 ? 0 : (ni * dr - nr * di) / den;
-      if (!Number.isFinite(qr) || !Number.isFinite(qi)) return false;
-      // a new shift: refactor, and let the next solve bring the vector to it
-      lr = qr;
-      li = qi;
-      refined++;
+    forwardSolve(n, ws);
+    backSolve(n, ws);
+    if (!rescale(n, ws)) return false;
+    if (!rayleigh(d, b, c, w, real, ws)) return false;
+    if (residual(d, b, c, ws.lr, ws.li, ws) <= RESIDUAL * norm) return true;
+    if (its >= 1) {
+      // slow convergence (a poor estimate): shift to the refined value
+      lr = ws.lr;
+      li = ws.li;
       factor(d, b, c, lr, li, eps3, ws);
     }
-    forwardSolve(n, ws);
-    backSolve(n, ws, eps3);
-    if (!rescale(n, ws)) return false;
   }
   return false;
 }
