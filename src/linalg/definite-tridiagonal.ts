@@ -219,23 +219,28 @@ function bisect(D: Float64Array, LLD: Float64Array, j: number, hi: number): numb
 }
 
 /**
- * Column k of z (unit) loses its components along columns start..k−1 (orthonormal), twice;
- * false when less than half of it is left.
+ * Column k of z (unit) loses its components along columns start..k−1 (orthonormal) by modified
+ * Gram–Schmidt, a second time only when the first removed more than a tiny part (the components
+ * are of order ε/relgap, so one pass normally leaves it orthogonal to working precision); false
+ * when less than half of it is left.
  */
 function orthogonalize(z: Float64Array, n: number, start: number, k: number): boolean {
   const zk = k * n;
   for (let pass = 0; pass < 2; pass++) {
+    let removed = 0;
     for (let c = start; c < k; c++) {
       const zc = c * n;
       let s = 0;
       for (let i = 0; i < n; i++) s += z[zk + i] * z[zc + i];
       for (let i = 0; i < n; i++) z[zk + i] -= s * z[zc + i];
+      removed += s * s;
     }
     let nrm = 0;
     for (let i = 0; i < n; i++) nrm += z[zk + i] * z[zk + i];
     nrm = Math.sqrt(nrm);
     if (!(nrm > 0.5)) return false;
     for (let i = 0; i < n; i++) z[zk + i] /= nrm;
+    if (removed < 1e-8) break;
   }
   return true;
 }

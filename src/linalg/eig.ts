@@ -106,19 +106,8 @@ export function eigFlat(
     if (t) {
       re.set(t.re);
       im.set(t.im);
-      // V[order[i]][k] = δᵢ·X[k][i]: a transposition, in blocks so that both sides stay in cache
-      const B = 32;
-      for (let i0 = 0; i0 < n; i0 += B) {
-        const i1 = Math.min(i0 + B, n);
-        for (let k0 = 0; k0 < n; k0 += B) {
-          const k1 = Math.min(k0 + B, n);
-          for (let i = i0; i < i1; i++) {
-            const s = t.scale[i];
-            const dst = order[i] * n;
-            for (let k = k0; k < k1; k++) V[dst + k] = t.X[k * n + i] * s;
-          }
-        }
-      }
+      // V[order[i]][k] = δᵢ·X[k][i]
+      transposeInto(V, t.X, n, order, (i) => t.scale[i]);
       normalizeColumns(V, n, im);
       return { n, re, im, V };
     }
@@ -193,11 +182,8 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
     for (let k = 0; k + 1 < n; k++) e[k] = S[order[k] * n + order[k + 1]];
     const { values, z } = eigTridiagonal(d, e);
     re.set(values);
-    for (let i = 0; i < n; i++) {
-      const row = order[i] * n;
-      const s = scale[order[i]];
-      for (let k = 0; k < n; k++) V[row + k] = s * z[k * n + i];
-    }
+    // V[order[i]][k] = dᵢ·z[k][i]: a transposition, in blocks so that both sides stay in cache
+    transposeInto(V, z, n, order, (i) => scale[order[i]]);
   } else {
     // S is symmetric, so its row-major array is also the column-major one eigSymmetricFlat reads
     eigSymmetricFlat(S, n, re);
@@ -295,6 +281,25 @@ function ladderEig(
   // finds whichever eigenvalue dominates)
   if (!t || !wellSeparated(t.re, t.im, norm)) return null;
   return { re: t.re, im: t.im, X: t.X, scale };
+}
+
+/**
+ * V[order[i]·n + k] = s(i)·Z[k·n + i] (column-major vectors of a reordered problem into eig()'s
+ * row-major V), in blocks so that both sides stay in cache.
+ */
+function transposeInto(V: Float64Array, Z: Float64Array, n: number, order: number[], s: (i: number) => number): void {
+  const B = 32;
+  for (let i0 = 0; i0 < n; i0 += B) {
+    const i1 = Math.min(i0 + B, n);
+    for (let k0 = 0; k0 < n; k0 += B) {
+      const k1 = Math.min(k0 + B, n);
+      for (let i = i0; i < i1; i++) {
+        const f = s(i);
+        const dst = order[i] * n;
+        for (let k = k0; k < k1; k++) V[dst + k] = Z[k * n + i] * f;
+      }
+    }
+  }
 }
 
 /** ‖H‖∞ over the upper Hessenberg part of the row-major n×n array h. */

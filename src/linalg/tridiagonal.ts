@@ -44,6 +44,8 @@ export function eigTridiagonal(d: Float64Array, e: Float64Array): TridiagonalEig
       w = Float64Array.from(bd);
       tridiagonalQL(w, be, zb);
     }
+    // one block (the usual case): already ascending, no copies
+    if (m === n) return { values: w, z: zb };
     for (let k = 0; k < m; k++) {
       values[start + k] = w[k];
       z.set(zb.subarray(k * m, k * m + m), (start + k) * n + start);
