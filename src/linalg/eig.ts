@@ -22,12 +22,16 @@
  * eig() picks the cheapest exact route by the structure of A:
  *  - diagonally similar to a symmetric matrix (the state matrix of an RC network, A = −C⁻¹·G):
  *    the symmetric problem (symmetrize.ts), eigenvectors mapped back; a ladder (tridiagonal up to
- *    a permutation) through tridiagonal.ts, O(n²) unless the spectrum has large clusters. The
- *    eigenvalues are then real and ascending.
- *  - tridiagonal up to a permutation otherwise (LC and RLC ladders): no Householder reduction;
- *    eigenvalues by the QR sweeps restricted to the active window, eigenvectors by inverse
- *    iteration on the tridiagonal (hessenberg-vectors.ts), O(n) each; nearly repeated eigenvalues
- *    take the Schur-form path instead, which keeps their vectors independent.
+ *    a permutation) through tridiagonal.ts: when definite (every RC ladder with a path to ground)
+ *    by twisted factorizations with relative accuracy (definite-tridiagonal.ts), O(n²) however
+ *    graded the spectrum; otherwise inverse iteration, O(n²) unless the spectrum has large
+ *    clusters. The eigenvalues are then real and ascending.
+ *  - tridiagonal up to a permutation otherwise (LC and RLC ladders), O(n²): eigenvalues by complex
+ *    symmetric QL on the tridiagonal (complex-symmetric-tridiagonal.ts), refined together with the
+ *    eigenvectors by inverse iteration (tridiagonal-vectors.ts). Where that declines (a rotation
+ *    too far from unitary, an eigenvector short of its residual bound), the QR sweeps restricted to
+ *    the active window and inverse iteration on the Hessenberg matrix (hessenberg-vectors.ts);
+ *    nearly repeated eigenvalues take the Schur-form path, which keeps their vectors independent.
  *  - anything else: the Schur-form path above. Its sweeps chase the bulge inside the active
  *    window and apply the rest of each sweep afterwards in contiguous passes (sweepRest).
  *
