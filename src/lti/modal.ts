@@ -121,7 +121,10 @@ export function modalDecomposition(A: Mat): Modal {
   }
   const W = zeros(n, n);
   Wcols.forEach((c, j) => c.forEach((v, i) => (W[i][j] = v)));
-  const sym = symScale ? symmetricInverse(symScale, W, cols) : null;
+  // W⁻¹ from a weighted orthogonality when A is self-adjoint for some diagonal weight: positive
+  // (RC) or of either sign (ladders of L and C, where couplings come in opposite-sign pairs)
+  const weights = symScale ? Array.from(symScale, (d) => 1 / (d * d)) : selfAdjointWeights(A);
+  const sym = weights ? weightedInverse(weights, W, cols) : null;
   const lu = sym ? null : luFactor(W);
   if (lu && luSingular(lu)) throw new Error('the eigenvectors of the state matrix do not form a basis (singular modal matrix)');
   const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
@@ -172,20 +175,68 @@ function symmetricScale(A: Mat): Float64Array | null {
 }
 
 /**
- * When D⁻¹·A·D is symmetric (RC networks), eigenvectors of different blocks are orthogonal in the
- * inner product ⟨x, y⟩ = xᵀ·D⁻²·y, so W⁻¹ = G⁻¹·Wᵀ·D⁻² with G = Wᵀ·D⁻²·W block diagonal:
- * O(n²) instead of an LU of W. Verified on a random vector (W⁻¹·W·r = r); null when A has no such
- * form or the check fails (then the caller factors W).
+ * A diagonal M (entries of either sign) with M·A symmetric, or null: Mⱼⱼ/Mᵢᵢ = Aᵢⱼ/Aⱼᵢ along a
+ * spanning forest of A's pattern, then verified on every nonzero pair (a cycle could contradict
+ * it). A tridiagonal matrix with nonzero couplings in both directions always has one.
  */
-function symmetricInverse(scale: Float64Array, W: Mat, cols: number[][]): Mat | null {
+function selfAdjointWeights(A: Mat): number[] | null {
+  const n = A.length;
+  const adj: number[][] = Array.from({ length: n }, () => []);
+  for (let i = 0; i < n; i++) {
+    const row = A[i];
+    for (let j = i + 1; j < n; j++) {
+      const a = row[j];
+      const b = A[j][i];
+      if (a === 0 && b === 0) continue;
+      if (a === 0 || b === 0) return null;
+      adj[i].push(j);
+      adj[j].push(i);
+    }
+  }
+  const m = new Array<number>(n).fill(0);
+  for (let root = 0; root < n; root++) {
+    if (m[root] !== 0) continue;
+    m[root] = 1;
+    const queue = [root];
+    for (let q = 0; q < queue.length; q++) {
+      const i = queue[q];
+      for (const j of adj[i]) {
+        if (m[j] !== 0) continue;
+        m[j] = (m[i] * A[i][j]) / A[j][i];
+        if (!(Math.abs(m[j]) > 1e-250 && Math.abs(m[j]) < 1e250)) return null;
+        queue.push(j);
+      }
+    }
+  }
+  for (let i = 0; i < n; i++) {
+    for (const j of adj[i]) {
+      const x = m[i] * A[i][j];
+      if (Math.abs(x - m[j] * A[j][i]) > 1e-12 * Math.abs(x)) return null;
+    }
+  }
+  return m;
+}
+
+/**
+ * When M·A is symmetric for a diagonal M (RC networks: M = D⁻² positive; LC ladders: M of mixed
+ * sign), eigenvectors of different blocks are orthogonal in the bilinear form xᵀ·M·y (no complex
+ * conjugation: the real and imaginary parts of a pair's vector are orthogonal to every other
+ * block's too), so W⁻¹ = G⁻¹·Wᵀ·M with G = Wᵀ·M·W block diagonal: O(n²) instead of an LU of W.
+ * Verified on a random vector (W⁻¹·W·r = r); null when the check fails (then the caller factors W).
+ */
+function weightedInverse(w2: number[], W: Mat, cols: number[][]): Mat | null {
   const n = W.length;
-  const w2 = Array.from(scale, (d) => 1 / (d * d));
   const Winv = zeros(n, n);
   for (const index of cols) {
-    // G_b = W_bᵀ·D⁻²·W_b and the rows W_bᵀ·D⁻²
+    // G_b = W_bᵀ·M·W_b and the rows W_bᵀ·M
     const rows = index.map((j) => W.map((row, k) => row[j] * w2[k]));
     const G = index.map((_, a) => index.map((j) => rows[a].reduce((acc, v, k) => acc + v * W[k][j], 0)));
-    const inv = index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length));
+    let inv: Mat;
+    try {
+      inv = index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length));
+    } catch {
+      return null; // a block neutral in the indefinite form: no inverse this way
+    }
     index.forEach((i, a) => {
       const out = Winv[i];
       inv[a].forEach((g, b) => {

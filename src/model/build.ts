@@ -57,19 +57,21 @@ export function buildModel(circuit: Circuit): Model {
   let best: { red: ReturnType<typeof reduceDescriptor>; s: number[]; Es: Mat; As: Mat; residual: number } | null = null;
   for (const { scales, tol } of attempts) {
     const sc = scales;
-    const EsC = d.E.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
-    const AsC = d.A.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
-    const BsC = d.B.map((row, i) => row.map((v) => v * sc[i]));
     if (direct) {
+      // on the circuit's own variables: no scaling (the scaled E and A serve only the general
+      // path's consistent initialization)
       best = {
-        red: { ...direct, Zp: direct.Zp.map((row, i) => row.map((v) => v / sc[i])), Zu: direct.Zu.map((Z) => Z.map((row, i) => row.map((v) => v / sc[i]))) },
-        s: sc,
-        Es: EsC,
-        As: AsC,
+        red: direct,
+        s: d.E.map(() => 1),
+        Es: [],
+        As: [],
         residual: 0,
       };
       break;
     }
+    const EsC = d.E.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
+    const AsC = d.A.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
+    const BsC = d.B.map((row, i) => row.map((v) => v * sc[i]));
     try {
       const r = reduceDescriptor(EsC, AsC, BsC, d.nz, m, tol);
       const residual = reductionResidual(EsC, AsC, BsC, r);
@@ -90,8 +92,9 @@ export function buildModel(circuit: Circuit): Model {
   const reductionError = best.residual;
   const np = cols(red.Zp, 0);
   // z = S·Zp·p + Σ S·Zu[j]·u^(j)
-  const SZp = red.Zp.map((row, i) => row.map((v) => v * s[i]));
-  const SZu = red.Zu.map((Z) => Z.map((row, i) => row.map((v) => v * s[i])));
+  const unit = s.every((v) => v === 1);
+  const SZp = unit ? red.Zp : red.Zp.map((row, i) => row.map((v) => v * s[i]));
+  const SZu = unit ? red.Zu : red.Zu.map((Z) => Z.map((row, i) => row.map((v) => v * s[i])));
 
   const physical = physicalQuantities(circuit, d);
   const Xall = physical.map((q) => rowTimes(q.probe.cz, SZp, np));
