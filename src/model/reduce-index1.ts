@@ -18,7 +18,18 @@ import type { Reduction } from './reduce.js';
 export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): Reduction | null {
   const d: number[] = [];
   const a: number[] = [];
-  for (let i = 0; i < nz; i++) (E[i].some((v) => v !== 0) || E.some((row) => row[i] !== 0) ? d : a).push(i);
+  // a variable is differential when its row or its column of E has a nonzero (one pass over E)
+  const touched = new Uint8Array(nz);
+  for (let i = 0; i < nz; i++) {
+    const row = E[i];
+    for (let j = 0; j < nz; j++) {
+      if (row[j] !== 0) {
+        touched[i] = 1;
+        touched[j] = 1;
+      }
+    }
+  }
+  for (let i = 0; i < nz; i++) (touched[i] ? d : a).push(i);
   const sub = (M: Mat, rows: number[], cols: number[]) => rows.map((i) => cols.map((j) => M[i][j]));
   const Edd = sub(E, d, d);
   const Aaa = sub(A, a, a);
@@ -79,6 +90,16 @@ export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): R
 /** Nonsingular with a pivot ratio that leaves room for the digits we need (a cheap condition test). */
 function wellConditioned(M: Mat): boolean {
   if (M.length === 0) return true;
+  // a diagonal matrix (grounded capacitors, inductors): its own pivots
+  if (M.every((row, i) => row.every((v, j) => v === 0 || i === j))) {
+    let lo = Infinity;
+    let hi = 0;
+    M.forEach((row, i) => {
+      lo = Math.min(lo, Math.abs(row[i]));
+      hi = Math.max(hi, Math.abs(row[i]));
+    });
+    return lo > 0 && Number.isFinite(hi) && lo > 1e-12 * hi;
+  }
   const f = luFactor(M);
   return !luSingular(f) && f.minPivot > 1e-12 * f.maxPivot;
 }
