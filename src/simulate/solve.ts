@@ -1,5 +1,5 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
-import { type Mat, type Vec, dot, matvec, transpose } from '../linalg/dense.js';
+import { type Mat, type Vec, dot, matvec } from '../linalg/dense.js';
 import { type C, c, cmul } from '../lti/complex.js';
 import { type ScalarMode, scalarModes } from '../lti/scalar-modes.js';
 import type { Block, Modal } from '../lti/modal.js';
@@ -27,9 +27,8 @@ export interface ExactSolution {
 export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], schedule: InputSchedule, xi0: Vec, span: number, recordAt: number[] = []): ExactSolution {
   const statesAt = new Map<number, Vec>();
   const wanted = new Set(recordAt);
-  const beta = ss.n ? modal.toModal(ss.B) : [];
-  const Wt = ss.n ? transpose(modal.W, modal.n) : [];
-  const gammas = readouts.map((r) => (ss.n ? matvec(Wt, r.C) : []));
+  const beta = ss.n ? modalInputs(ss, modal) : [];
+  const gammas = readouts.map((r) => (ss.n ? rowCombination(r.C, modal.W, modal.n) : []));
   let xm = ss.n ? modal.toModal(xi0.map((v) => [v])).map((r) => r[0]) : [];
   let spare = xm.slice();
   const pieces: Piece[][] = readouts.map(() => []);
@@ -267,8 +266,8 @@ function forcingsFor(b: Block, beta: Mat, comps: Component[]): Forcing[] {
 
 /** Impulse and step response of each source-to-read-out path, as closed forms in t. */
 export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: number): PathResponse[] {
-  const beta = ss.n ? modal.toModal(ss.B) : [];
-  const gamma = ss.n ? matvec(transpose(modal.W, modal.n), r.C) : [];
+  const beta = ss.n ? modalInputs(ss, modal) : [];
+  const gamma = ss.n ? rowCombination(r.C, modal.W, modal.n) : [];
   return ss.inputs.map((source, j) => {
     const bj = beta.map((row) => row[j]);
     const zero = (b: Block) => b.index.map(() => 0);
@@ -311,3 +310,25 @@ function pick(v: Vec, b: Block): Vec {
   return b.index.map((i) => v[i]);
 }
 
+/** cᵀ·W (the read-out in modal coordinates), skipping the zeros of c: a probe touches a few states. */
+function rowCombination(c: Vec, W: Mat, n: number): Vec {
+  const out = new Array<number>(n).fill(0);
+  for (let i = 0; i < c.length; i++) {
+    const ci = c[i];
+    if (ci === 0) continue;
+    const row = W[i];
+    for (let k = 0; k < n; k++) out[k] += ci * row[k];
+  }
+  return out;
+}
+
+// W⁻¹·B once per modal form (every watched path of a configuration needs it)
+const inputsOf = new WeakMap<Modal, Mat>();
+function modalInputs(ss: StateSpace, modal: Modal): Mat {
+  let b = inputsOf.get(modal);
+  if (!b) {
+    b = modal.toModal(ss.B);
+    inputsOf.set(modal, b);
+  }
+  return b;
+}
