@@ -134,6 +134,13 @@ function powerExpIntegralInto(k: number, kr: number, ki: number, T: number): voi
   }
 }
 
+/** ∫0^T τ^k·e^(κτ) dτ into out[at] (re) and out[at + 1] (im): no allocation (gram.ts fills big tables). */
+export function powerExpIntegralTo(k: number, kr: number, ki: number, T: number, out: Float64Array, at: number): void {
+  powerExpIntegralInto(k, kr, ki, T);
+  out[at] = outRe;
+  out[at + 1] = outIm;
+}
+
 /** ∫0^T τ^k·e^(κτ) dτ */
 export function powerExpIntegral(k: number, kappa: C, T: number): C {
   powerExpIntegralInto(k, kappa.re, kappa.im, T);

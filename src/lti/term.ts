@@ -222,3 +222,82 @@ export function groupsBound(g: Groups, a: number, b: number): number {
   }
   return s;
 }
+
+/**
+ * Several sums of terms regrouped into one shared layout (the union of their exponents, each group
+ * as long as its longest polynomial), so that they can be evaluated together: outs[c] gets the
+ * coefficients of lists[c]; all outs share the layout arrays of outs[0]. A map finds the groups
+ * (a part's voltage and current hold hundreds of modes each).
+ */
+export function groupTermsAlike(lists: readonly (readonly Term[])[], outs: Groups[]): void {
+  const L = outs[0]!;
+  const { kr, ki, off } = L;
+  const byRe = new Map<number, Map<number, number>>();
+  const len: number[] = [];
+  let n = 0;
+  const groupOf = (a: number, w: number): number => {
+    let byIm = byRe.get(a);
+    if (!byIm) byRe.set(a, (byIm = new Map()));
+    let g = byIm.get(w);
+    if (g === undefined) {
+      g = n++;
+      byIm.set(w, g);
+      kr[g] = a;
+      ki[g] = w;
+      len[g] = 1;
+    }
+    return g;
+  };
+  const at: Int32Array[] = lists.map((terms) => {
+    const where = new Int32Array(terms.length);
+    for (let i = 0; i < terms.length; i++) {
+      const t = terms[i]!;
+      const a = t.kind === 'exp' || t.kind === 'poly-exp' ? t.lambda : t.sigma;
+      const w = t.kind === 'exp' || t.kind === 'poly-exp' ? 0 : t.omega;
+      const g = groupOf(a, w);
+      where[i] = g;
+      const l = t.kind === 'poly-exp' ? t.polyCoefs.length : t.kind === 'quasi' ? Math.max(t.cosPoly.length, t.sinPoly.length) : 1;
+      if (l > len[g]!) len[g] = l;
+    }
+    return where;
+  });
+  off[0] = 0;
+  for (let g = 0; g < n; g++) off[g + 1] = off[g]! + len[g]!;
+  L.n = n;
+  for (let c = 0; c < lists.length; c++) {
+    const out = outs[c]!;
+    if (c > 0) {
+      out.n = n;
+      out.kr = kr;
+      out.ki = ki;
+      out.off = off;
+    }
+    const { cr, ci } = out;
+    for (let i = 0; i < off[n]!; i++) {
+      cr[i] = 0;
+      ci[i] = 0;
+    }
+    const terms = lists[c]!;
+    const where = at[c]!;
+    for (let i = 0; i < terms.length; i++) {
+      const t = terms[i]!;
+      const o = off[where[i]!]!;
+      switch (t.kind) {
+        case 'exp':
+          cr[o] += t.coef;
+          break;
+        case 'poly-exp':
+          for (let k = 0; k < t.polyCoefs.length; k++) cr[o + k] += t.polyCoefs[k]!;
+          break;
+        case 'osc':
+          cr[o] += t.cosCoef;
+          if (t.omega !== 0) ci[o] -= t.sinCoef;
+          break;
+        case 'quasi':
+          for (let k = 0; k < t.cosPoly.length; k++) cr[o + k] += t.cosPoly[k]!;
+          if (t.omega !== 0) for (let k = 0; k < t.sinPoly.length; k++) ci[o + k] -= t.sinPoly[k]!;
+          break;
+      }
+    }
+  }
+}

@@ -1,5 +1,5 @@
 import type { Circuit } from '../circuit/circuit.js';
-import { integrateProduct } from '../lti/integrate.js';
+import { ProductIntegrals } from '../lti/gram.js';
 import type { Piece } from '../simulate/result.js';
 
 /**
@@ -24,10 +24,13 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   let delivered = 0;
   let dissipated = 0;
   let storedChange = 0;
+  // all parts share the run's exponents: one table of exponent integrals per piece length
+  const products = new ProductIntegrals();
   const perPart = parts.map((p) => {
     let absorbed = 0;
     p.voltage.forEach((pv, k) => {
-      absorbed += integrateProduct(pv.terms, p.current[k].terms, pv.t1 - pv.t0);
+      products.pair(pv.terms, p.current[k].terms, pv.t1 - pv.t0);
+      absorbed += products.fg;
     });
     const kind = circuit.parts.find((q) => q.name === p.part)?.kind;
     if (kind === 'voltage-source' || kind === 'current-source') delivered -= absorbed;

@@ -1,5 +1,6 @@
 import type { PartKind } from '../circuit/circuit.js';
-import { integrateProduct } from '../lti/integrate.js';
+import { ProductIntegrals } from '../lti/gram.js';
+import { JointPeaks } from './joint-peaks.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
 import { switchVoltagesByKVL, withJumpImpulses } from './kvl.js';
@@ -89,8 +90,13 @@ export class StressGrids {
     }
   }
 
+  /** The fastest oscillation and decay of the signals over this stretch (those of the piece when not included). */
+  scale(piece: Piece, lo: number, hi: number): { omega: number; rate: number } {
+    return this.scales.get(`${piece.t0}|${lo}|${hi}`) ?? { omega: termsOmega(piece.terms), rate: termsRate(piece.terms) };
+  }
+
   grid(piece: Piece, lo: number, hi: number): GridBasis {
-    const s = this.scales.get(`${piece.t0}|${lo}|${hi}`) ?? { omega: termsOmega(piece.terms), rate: termsRate(piece.terms) };
+    const s = this.scale(piece, lo, hi);
     return this.set.get(piece.t0, lo, hi, 2 * s.omega, 2 * s.rate);
   }
 }
@@ -178,17 +184,45 @@ function peakOfProduct(v: readonly Piece[], i: readonly Piece[], start: number, 
   return best;
 }
 
-/** ∫ f·g dt over [start, end], piece by piece in closed form. */
-function integralOfProduct(f: readonly Piece[], g: readonly Piece[], start: number, end: number): number {
-  let sum = 0;
-  for (const { piece: pf, index, lo, hi } of clipPieces(f, start, end)) {
-    const pg = g[index];
-    if (!pg || !(hi > lo)) continue;
-    let part = integrateProduct(pf.terms, pg.terms, hi - pf.t0);
-    if (lo > pf.t0) part -= integrateProduct(pf.terms, pg.terms, lo - pf.t0);
-    sum += part;
+/** ∫ v·i dt and ∫ i² dt over [start, end], piece by piece in closed form (the lists share their boundaries). */
+function integralsOf(v: readonly Piece[], i: readonly Piece[], start: number, end: number, products: ProductIntegrals): { vi: number; ii: number } {
+  let vi = 0;
+  let ii = 0;
+  for (const { piece: pv, index, lo, hi } of clipPieces(v, start, end)) {
+    const pi = i[index];
+    if (!pi || !(hi > lo)) continue;
+    products.pair(pv.terms, pi.terms, hi - pv.t0);
+    vi += products.fg;
+    ii += products.gg;
+    if (lo > pv.t0) {
+      products.pair(pv.terms, pi.terms, lo - pv.t0);
+      vi -= products.fg;
+      ii -= products.gg;
+    }
   }
-  return sum;
+  return { vi, ii };
+}
+
+/**
+ * Peak |v|, |i| and |v·i|: when the two lists share their pieces (as the run's per-part forms
+ * do), all three per piece on one grid (joint-peaks.ts); otherwise each list on its own.
+ */
+function peaks(forms: PartForms, start: number, end: number, g: StressGrids, joint: JointPeaks): { v: MagnitudePeak; i: MagnitudePeak; power: MagnitudePeak } {
+  const vc = clipPieces(forms.voltage, start, end);
+  const ic = clipPieces(forms.current, start, end);
+  const aligned = vc.length === ic.length && vc.every((x, k) => x.index === ic[k]!.index && x.lo === ic[k]!.lo && x.hi === ic[k]!.hi && x.piece.t0 === ic[k]!.piece.t0);
+  if (!aligned) {
+    const on = new OnGrid(g);
+    return { v: peakOn(forms.voltage, start, end, on), i: peakOn(forms.current, start, end, on), power: peakOfProduct(forms.voltage, forms.current, start, end, on) };
+  }
+  const v: MagnitudePeak = { value: 0, time: start };
+  const i: MagnitudePeak = { value: 0, time: start };
+  const power: MagnitudePeak = { value: 0, time: start };
+  vc.forEach(({ piece, lo, hi }, k) => {
+    const s = g.scale(piece, lo, hi);
+    joint.search(piece, ic[k]!.piece, lo, hi, s.omega, s.rate, v, i, power);
+  });
+  return { v, i, power };
 }
 
 /** Whether the other signal is (within noise) zero on both sides of t. */
@@ -208,6 +242,8 @@ export function partStress(
   end: number,
   times?: ArrayLike<number>,
   grids?: StressGrids,
+  products: ProductIntegrals = new ProductIntegrals(),
+  joint?: JointPeaks,
 ): PartStress {
   let g = grids;
   if (!g) {
@@ -215,13 +251,11 @@ export function partStress(
     g.include(forms.voltage, start, end);
     g.include(forms.current, start, end);
   }
-  const on = new OnGrid(g);
-  const v = peakOn(forms.voltage, start, end, on);
-  const i = peakOn(forms.current, start, end, on);
-  const power = peakOfProduct(forms.voltage, forms.current, start, end, on);
+  const { v, i, power } = peaks(forms, start, end, g, joint ?? new JointPeaks(times));
   const dissipative = kind === 'resistor' || kind === 'switch';
-  let energy: number | null = dissipative ? integralOfProduct(forms.voltage, forms.current, start, end) : null;
-  let i2t = integralOfProduct(forms.current, forms.current, start, end);
+  const integrals = integralsOf(forms.voltage, forms.current, start, end, products);
+  let energy: number | null = dissipative ? integrals.vi : null;
+  let i2t = integrals.ii;
   const unbounded: StressQuantity[] = [];
 
   const vImp = impulsesIn(forms.voltage, start, end, v.value);
@@ -281,10 +315,13 @@ export function runStress(result: RunResult): PartStress[] {
       grids.include(forms.current, start, end);
     }
     const byName = new Map(all.map((p) => [p.part, p]));
+    // every part's terms share the run's exponents: one table of exponent integrals for all
+    const products = new ProductIntegrals();
+    const joint = new JointPeaks(result.times);
     for (const part of result.circuit.parts) {
       const forms = byName.get(part.name);
       if (!forms) continue;
-      const s = partStress(forms, part.kind, part.value, start, end, result.times, grids);
+      const s = partStress(forms, part.kind, part.value, start, end, result.times, grids, products, joint);
       out.push(snapTimes(s, start, end));
     }
   }

@@ -117,9 +117,9 @@ function aliveGroups(chs: readonly Groups[], prep: Prep, ta: number, tb: number,
   return count;
 }
 
-/** Grows a scratch array to at least n entries (contents not kept). */
-function room(a: Float64Array<ArrayBuffer>, n: number): Float64Array<ArrayBuffer> {
-  return a.length >= n ? a : new Float64Array(Math.max(n, 2 * a.length));
+/** Grows a scratch array to at least n entries (contents not kept); makes it when missing (a new channel). */
+function room(a: Float64Array<ArrayBuffer> | undefined, n: number): Float64Array<ArrayBuffer> {
+  return a && a.length >= n ? a : new Float64Array(Math.max(n, 2 * (a?.length ?? 0)));
 }
 
 /**
@@ -154,6 +154,29 @@ export class Sweeper {
     return (tau) => groupsAtSome(g, idx, na, tau);
   }
 
+  /**
+   * The groups of the channels `chs` (one layout) that matter on [ta, tb] (τ) in any of them, into
+   * `nearIdx`; returns their count (see `near`; `atSome` evaluates them).
+   */
+  nearAll(chs: readonly Groups[], owner: object, ta: number, tb: number): number {
+    const g = chs[0]!;
+    const idx = this.nearIdx.length >= g.n ? this.nearIdx : (this.nearIdx = new Int32Array(g.n));
+    if (g.n <= CHUNK) {
+      for (let q = 0; q < g.n; q++) idx[q] = q;
+      return g.n;
+    }
+    if (this.nearOf !== owner) {
+      this.nearOf = owner;
+      this.nearPrep = prepare(chs);
+    }
+    return aliveGroups(chs, this.nearPrep!, ta, tb, idx);
+  }
+
+  /** Every channel at τ, summed over the first `count` groups of `nearIdx` (set by nearAll), into out. */
+  atSome(chs: readonly Groups[], count: number, tau: number, out: Float64Array): void {
+    channelsAtSome(chs, this.nearIdx, count, tau, out);
+  }
+
   private nearOf: object | null = null;
   private nearPrep: Prep | null = null;
 
@@ -165,8 +188,7 @@ export class Sweeper {
   }
 
   /**
-   * Values of the channels (grouped sums of one layout, e.g. a signal and its derivative; at most
-   * two) at τ_i = tau0 + i·h, i = 0 … count−1, written to out[c][at + i].
+   * Values of the channels (grouped sums of one layout, e.g. a signal and its derivative) at τ_i = tau0 + i·h, i = 0 … count−1, written to out[c][at + i].
    */
   uniform(chs: readonly Groups[], tau0: number, h: number, count: number, out: Float64Array[], at: number): void {
     const g = chs[0]!;
@@ -192,7 +214,7 @@ export class Sweeper {
    * the fastest oscillation still of any size, and at least `minIntervals` intervals over the
    * whole width. Leaves the times in uT and the channels in uV; returns the count.
    */
-  private searchGrid(chs: readonly Groups[], t0: number, lo: number, hi: number, m: number, minIntervals: number): number {
+  private searchGrid(chs: readonly Groups[], t0: number, lo: number, hi: number, m: number, minIntervals: number, harmonics: number): number {
     const g = chs[0]!;
     const width = hi - lo;
     const hb = width / m;
@@ -214,7 +236,7 @@ export class Sweeper {
         na = aliveGroups(chs, prep, ta, ta + (CHUNK - 1) * sMax * hb, alive);
         let w = 0;
         for (let j = 0; j < na; j++) w = Math.max(w, Math.abs(g.ki[alive[j]!]!));
-        const fit = w > 0 ? Math.PI / 4 / (w * hb) : Infinity;
+        const fit = w > 0 ? Math.PI / 4 / (harmonics * w * hb) : Infinity;
         while (s < sMax && 2 * s <= fit) s *= 2;
         // stay on multiples of the stride: the grid is a subset of the one of stride 1
         while (s > 1 && k % s !== 0) s /= 2;
@@ -244,7 +266,7 @@ export class Sweeper {
    */
   grid(chs: readonly Groups[], spec: GridSpec): number {
     const { t0, lo, hi } = spec;
-    const nU = this.searchGrid(chs, t0, lo, hi, spec.m, spec.minIntervals);
+    const nU = this.searchGrid(chs, t0, lo, hi, spec.m, spec.minIntervals, spec.harmonics ?? 1);
     // extra times strictly inside (lo, hi)
     let a = 0;
     let nS = 0;
@@ -391,6 +413,11 @@ export interface GridSpec {
   extraStep: number;
   /** further times (unsorted), evaluated one by one */
   points?: number[];
+  /**
+   * the thinned grid keeps π/4 per step of `harmonics` times the fastest oscillation still alive
+   * (2 for the product of two channels, whose frequencies add); default 1
+   */
+  harmonics?: number;
 }
 
 /** Σ of the groups idx[0 … count−1] of g at τ (as lti/term.ts groupsValue). */
@@ -413,4 +440,31 @@ function groupsAtSome(g: Groups, idx: Int32Array, count: number, tau: number): n
     }
   }
   return s;
+}
+
+/** Each channel (one layout) at τ over the groups idx[0 … count−1], sharing the exponentials, into out[c]. */
+function channelsAtSome(chs: readonly Groups[], idx: Int32Array, count: number, tau: number, out: Float64Array): void {
+  const g = chs[0]!;
+  const nc = chs.length;
+  out.fill(0, 0, nc);
+  for (let j = 0; j < count; j++) {
+    const q = idx[j]!;
+    const a = g.kr[q]!;
+    const w = g.ki[q]!;
+    const m = a === 0 ? 1 : Math.exp(a * tau);
+    const cw = w === 0 ? 1 : Math.cos(w * tau);
+    const sw = w === 0 ? 0 : Math.sin(w * tau);
+    const o0 = g.off[q]!;
+    const o1 = g.off[q + 1]!;
+    for (let c = 0; c < nc; c++) {
+      const ch = chs[c]!;
+      let pr = 0;
+      let pi = 0;
+      for (let i = o1 - 1; i >= o0; i--) {
+        pr = pr * tau + ch.cr[i]!;
+        pi = pi * tau + ch.ci[i]!;
+      }
+      out[c] += w === 0 ? m * pr : m * (pr * cw - pi * sw);
+    }
+  }
 }
