@@ -26,15 +26,33 @@ export class ProductIntegrals {
   /** exponent re → im → per power: index of the Re function (the Im one follows it) */
   private readonly index = new Map<number, Map<number, number[]>>();
   private readonly coords = new WeakMap<Term[], Coords>();
+  private readonly results = new WeakMap<Term[], WeakMap<Term[], Map<number, [number, number]>>>();
   private readonly tables = new Map<number, Table>();
   private stored = 0;
   private w = new Float64Array(64);
   private mark = new Int32Array(64);
   private stamp = 0;
   private readonly scratch = new Float64Array(4);
+  private dense = new Float64Array(64);
 
   /** ∫0^T f·g dτ into `fg` and ∫0^T g² dτ into `gg`. */
   pair(f: Term[], g: Term[], T: number): void {
+    // the same pair over the same length again (stress, then the energy balance): the same results
+    let byG = this.results.get(f);
+    if (!byG) this.results.set(f, (byG = new WeakMap()));
+    let byT = byG.get(g);
+    if (!byT) byG.set(g, (byT = new Map()));
+    const hit = byT.get(T);
+    if (hit) {
+      this.fg = hit[0];
+      this.gg = hit[1];
+      return;
+    }
+    this.compute(f, g, T);
+    if (byT.size < 16) byT.set(T, [this.fg, this.gg]);
+  }
+
+  private compute(f: Term[], g: Term[], T: number): void {
     const A = this.coordsOf(f);
     const B = f === g ? A : this.coordsOf(g);
     const n = Math.max(A.top, B.top);
@@ -54,13 +72,35 @@ export class ProductIntegrals {
     const w = this.w;
     const mark = this.mark;
     const s = ++this.stamp;
+    // g as a dense vector over the functions 0 … top−1 when it holds most of them (a contiguous
+    // dot product per row, no gather)
+    const top = B.top;
+    // (only where every entry is finite: 0·∞ would make a NaN the sum by pairs never forms)
+    const dense = tab.finite && 4 * B.idx.length >= top;
+    if (dense) {
+      if (this.dense.length < top) this.dense = new Float64Array(2 * top);
+      this.dense.fill(0, 0, top);
+      for (let j = 0; j < B.idx.length; j++) this.dense[B.idx[j]!] = B.c[j]!;
+    }
+    const bd = this.dense;
     // w = H·b on the functions of f and g (one row per function, shared by both sums)
     const row = (x: number) => {
       if (mark[x] === s) return;
       mark[x] = s;
       const at = x * cap;
       let acc = 0;
-      for (let j = 0; j < B.idx.length; j++) acc += H[at + B.idx[j]!]! * B.c[j]!;
+      if (dense) {
+        let a1 = 0;
+        let y = 0;
+        for (; y + 1 < top; y += 2) {
+          acc += H[at + y]! * bd[y]!;
+          a1 += H[at + y + 1]! * bd[y + 1]!;
+        }
+        if (y < top) acc += H[at + y]! * bd[y]!;
+        acc += a1;
+      } else {
+        for (let j = 0; j < B.idx.length; j++) acc += H[at + B.idx[j]!]! * B.c[j]!;
+      }
       w[x] = acc;
     };
     let gg = 0;
@@ -147,7 +187,7 @@ export class ProductIntegrals {
   private table(T: number, n: number): Table | undefined {
     let tab = this.tables.get(T);
     if (!tab) {
-      tab = { cap: 0, n: 0, H: new Float64Array(0) };
+      tab = { cap: 0, n: 0, H: new Float64Array(0), finite: true };
       this.tables.set(T, tab);
     }
     if (n <= tab.n) return tab;
@@ -160,6 +200,7 @@ export class ProductIntegrals {
         tab.n = 0;
         tab.cap = 0;
         tab.H = new Float64Array(0);
+        tab.finite = true;
         this.tables.set(T, tab);
         if (cap * cap > MAX_STORED) return undefined;
       }
@@ -175,6 +216,7 @@ export class ProductIntegrals {
         const h = this.entry(x, y, T);
         H[x * cap + y] = h;
         H[y * cap + x] = h;
+        if (!Number.isFinite(h)) tab.finite = false;
       }
     }
     tab.n = n;
@@ -215,8 +257,22 @@ interface Table {
   cap: number;
   n: number;
   H: Float64Array;
+  /** whether every entry filled in is finite */
+  finite: boolean;
 }
 
 /** Most basis functions tabulated (beyond: pair by pair), and most table entries held at once (128 MB). */
 const MAX_BASIS = 4096;
 const MAX_STORED = 16_000_000;
+
+const shared = new WeakMap<object, ProductIntegrals>();
+
+/**
+ * The ProductIntegrals of one owner (a run's circuit): the part stress, the energy balance and the
+ * cautions integrate products of the same closed forms, and share tables and results through it.
+ */
+export function productsFor(owner: object): ProductIntegrals {
+  let p = shared.get(owner);
+  if (!p) shared.set(owner, (p = new ProductIntegrals()));
+  return p;
+}

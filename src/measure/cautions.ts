@@ -1,9 +1,10 @@
 import { formatSI } from '../units/si.js';
-import { integrateProduct } from '../lti/integrate.js';
+import { ProductIntegrals, productsFor } from '../lti/gram.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
 import { derivativeTerms, extremaOnGrid, type Located } from './grid.js';
 import { clipPieces } from './peak.js';
+import { emptyGroups, groupsBound, groupsDerivative, groupTermsAlike } from '../lti/term.js';
 import { StressGrids } from './stress.js';
 
 /**
@@ -73,13 +74,20 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   const dcOver: { part: string; peak: number; time: number }[] = [];
   const acOver: { part: string; rms: number }[] = [];
   const window = periodicWindow(result);
+  // the parts share the run's exponents: one table of exponent integrals for all (lti/gram.ts)
+  const products = productsFor(result.circuit);
+  const [start, end] = spanOf(result);
   for (const p of parts) {
     if (p.voltage.length === 0) continue;
-    const { peak, valley } = track(p.voltage);
-    const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
-    if (Math.abs(big.value) > LIMITS.elvDC.value) dcOver.push({ part: p.part, peak: big.value, time: big.time });
+    // the extremes matter only where they could exceed 120 V: a bound of |v| at or below it
+    // settles that without locating them
+    if (boundOf(p.voltage, start, end, false) * (1 + BOUND_SLACK) > LIMITS.elvDC.value) {
+      const { peak, valley } = track(p.voltage);
+      const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
+      if (Math.abs(big.value) > LIMITS.elvDC.value) dcOver.push({ part: p.part, peak: big.value, time: big.time });
+    }
     if (window) {
-      const rms = rmsOver(p.voltage, window.a, window.b);
+      const rms = rmsOver(p.voltage, window.a, window.b, products);
       if (rms > LIMITS.elvAC.value) acOver.push({ part: p.part, rms });
     }
   }
@@ -116,11 +124,11 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   for (const p of parts) {
     const part = partOf(p.part);
     if (!part || part.kind !== 'capacitor' || p.voltage.length === 0) continue;
-    const tr = track(p.voltage);
-    const { peak, valley } = tr;
-    const big = Math.abs(peak.value) >= Math.abs(valley.value) ? peak : valley;
+    const vmax = boundOf(p.voltage, start, end, false) * (1 + BOUND_SLACK);
+    const tr = 0.5 * part.value * vmax * vmax > LIMITS.storedEnergy.value ? track(p.voltage) : undefined;
+    const big = tr ? (Math.abs(tr.peak.value) >= Math.abs(tr.valley.value) ? tr.peak : tr.valley) : { value: 0, time: start };
     const energy = 0.5 * part.value * big.value * big.value;
-    if (energy > LIMITS.storedEnergy.value) {
+    if (tr && energy > LIMITS.storedEnergy.value) {
       // above the touch-safe DC level the charge can shock; below it a short (a dropped tool) still sparks and burns
       const shock = Math.abs(big.value) > LIMITS.safeDC.value;
       out.push({
@@ -137,7 +145,7 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
         parts: [p.part],
       });
     }
-    const vEnd = tr.end;
+    const vEnd = tr ? tr.end : endOf(p.voltage, start, end);
     if (Math.abs(vEnd) > LIMITS.safeDC.value) {
       out.push({
         id: 'charged-at-end',
@@ -207,6 +215,8 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
   // (e) very fast edges
   const edges: { what: string; part?: string; rate: number; time: number }[] = [];
   const consider = (what: string, pieces: Piece[], part?: string) => {
+    // a bound of |dv/dt| at or below the limit settles it without locating the steepest point
+    if (!(boundOf(pieces, start, end, true) * (1 + BOUND_SLACK) > LIMITS.fastEdge.value)) return;
     const e = maxSlope(result, pieces, grids);
     if (e && Math.abs(e.rate) > LIMITS.fastEdge.value) edges.push({ what, part, rate: e.rate, time: e.time });
   };
@@ -230,6 +240,37 @@ export function cautions(result: RunResult, extra: { discharge?: DischargeInfo[]
     });
   }
   return out;
+}
+
+/** Relative slack on the bounds below: covers their own rounding. */
+const BOUND_SLACK = 1e-9;
+
+/**
+ * An upper bound of |y| (or of |dy/dt|) over the span, impulses left out: per piece
+ * Σ|c_k|·τᵏ·e^(Re κ·τ) at its worse end (lti/term.ts groupsBound). Infinity when a piece starts
+ * after its stretch (no bound from τ ≥ 0 then). Cheap: one exponential per group and piece.
+ */
+function boundOf(pieces: readonly Piece[], start: number, end: number, slope: boolean): number {
+  let b = 0;
+  const G = emptyGroups();
+  const D = emptyGroups();
+  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
+    const a = lo - piece.t0;
+    if (a < 0) return Infinity;
+    groupTermsAlike([piece.terms], [G]);
+    const x = groupsBound(slope ? groupsDerivative(G, D) : G, a, hi - piece.t0);
+    // NaN (a NaN coefficient): no bound
+    if (Number.isNaN(x)) return Infinity;
+    if (x > b) b = x;
+  }
+  return b;
+}
+
+/** The value at the end of the span (the last piece at its end; NaN without pieces), as `extremes` gives it. */
+function endOf(pieces: readonly Piece[], start: number, end: number): number {
+  const c = clipPieces(pieces, start, end);
+  const last = c[c.length - 1];
+  return last ? pieceValue(last.piece, last.hi) : NaN;
 }
 
 /** "a, b and 3 more" */
@@ -261,7 +302,7 @@ export function periodicWindow(result: RunResult): { a: number; b: number; what:
 }
 
 /** RMS over [a, b] from the exact ∫v² dt of the closed form (impulses left out). */
-export function rmsOver(pieces: Piece[], a: number, b: number): number {
+export function rmsOver(pieces: Piece[], a: number, b: number, products: ProductIntegrals = new ProductIntegrals()): number {
   if (!(b > a)) return Math.abs(evaluatePiecesBefore(pieces, b));
   let sum = 0;
   pieces.forEach((p, i) => {
@@ -269,7 +310,10 @@ export function rmsOver(pieces: Piece[], a: number, b: number): number {
     const end = i + 1 < pieces.length ? pieces[i + 1]!.t0 : Math.max(p.t1, b);
     const hi = Math.min(b, end);
     if (!(hi > lo)) return;
-    sum += integrateProduct(p.terms, p.terms, hi - p.t0) - integrateProduct(p.terms, p.terms, lo - p.t0);
+    products.pair(p.terms, p.terms, hi - p.t0);
+    sum += products.gg;
+    products.pair(p.terms, p.terms, lo - p.t0);
+    sum -= products.gg;
   });
   return Math.sqrt(Math.max(0, sum) / (b - a));
 }

@@ -1,5 +1,5 @@
 import type { Circuit } from '../circuit/circuit.js';
-import { ProductIntegrals } from '../lti/gram.js';
+import { productsFor } from '../lti/gram.js';
 import type { Piece } from '../simulate/result.js';
 
 /**
@@ -24,8 +24,9 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   let delivered = 0;
   let dissipated = 0;
   let storedChange = 0;
-  // all parts share the run's exponents: one table of exponent integrals per piece length
-  const products = new ProductIntegrals();
+  // all parts share the run's exponents: one table of exponent integrals per piece length,
+  // shared with the part stress (the same products, mostly)
+  const products = productsFor(circuit);
   const perPart = parts.map((p) => {
     let absorbed = 0;
     p.voltage.forEach((pv, k) => {

@@ -1,5 +1,5 @@
 import type { Piece } from '../simulate/result.js';
-import { emptyGroups, groupsDerivative, groupTermsAlike, type Groups } from '../lti/term.js';
+import { emptyGroups, groupsBound, groupsDerivative, groupTermsAlike, type Groups } from '../lti/term.js';
 import { pieceValue } from './evaluate.js';
 import { gridFloor, geometricSteps, uniformIntervals, TIE, type MagnitudePeak } from './peak.js';
 import { findRoot } from './root.js';
@@ -22,6 +22,8 @@ export class JointPeaks {
   private readonly I = emptyGroups();
   private readonly DV = emptyGroups();
   private readonly DI = emptyGroups();
+  private readonly D2V = emptyGroups();
+  private readonly D2I = emptyGroups();
   private readonly at = new Float64Array(4);
   private dp = new Float64Array(64);
 
@@ -60,6 +62,18 @@ export class JointPeaks {
       for (let k = 0; k < n; k++) dp[k] = gdv[k]! * gi[k]! + gv[k]! * gdi[k]!;
       const owner = {};
       const out = this.at;
+      // |v| and |i| over a bracket: Taylor from either end with max|y''| there (groupsBound)
+      groupsDerivative(this.DV, this.D2V);
+      groupsDerivative(this.DI, this.D2I);
+      const taylor = (y: Float64Array, dy: Float64Array, d2: Groups, k: number) => {
+        const h = ts[k]! - ts[k - 1]!;
+        const r = 0.5 * groupsBound(d2, ts[k - 1]! - t0, ts[k]! - t0) * h * h;
+        const x = Math.min(Math.abs(y[k - 1]!) + Math.abs(dy[k - 1]!) * h, Math.abs(y[k]!) + Math.abs(dy[k]!) * h) + r;
+        return Number.isNaN(x) ? Infinity : x;
+      };
+      const boundV = (k: number) => taylor(gv, gdv, this.D2V, k);
+      const boundI = (k: number) => taylor(gi, gdi, this.D2I, k);
+      const fHi = (f: (t: number) => number) => Math.abs(f(hi));
       // the derivative restricted to the groups that matter on the bracket [a, b]
       const near = (a: number, b: number, which: (o: Float64Array) => number) => {
         const count = sw.nearAll(chs, owner, a - t0, b - t0);
@@ -68,9 +82,9 @@ export class JointPeaks {
           return which(out);
         };
       };
-      walk(ts, gdv, n, fv, (a, b) => near(a, b, (o) => o[1]!), bv);
-      walk(ts, gdi, n, fi, (a, b) => near(a, b, (o) => o[3]!), bi);
-      walk(ts, dp, n, fp, (a, b) => near(a, b, (o) => o[1]! * o[2]! + o[0]! * o[3]!), bp);
+      walk(ts, gdv, n, fv, (a, b) => near(a, b, (o) => o[1]!), bv, boundV, Math.max(v.value, fHi(fv)));
+      walk(ts, gdi, n, fi, (a, b) => near(a, b, (o) => o[3]!), bi, boundI, Math.max(i.value, fHi(fi)));
+      walk(ts, dp, n, fp, (a, b) => near(a, b, (o) => o[1]! * o[2]! + o[0]! * o[3]!), bp, (k) => boundV(k) * boundI(k), Math.max(p.value, fHi(fp)));
     }
     keep(v, bv);
     keep(i, bi);
@@ -89,12 +103,27 @@ function keep(best: MagnitudePeak, p: MagnitudePeak): void {
   }
 }
 
+/** Relative margin by which a bracket's bound must fall short of a found value to be skipped. */
+const SKIP_MARGIN = 1e-6;
+
 /**
  * peakOnGrid (grid.ts) over ts[0 … n−1] with the derivative `dfs` there: the last point and every
  * root of the derivative bracketed by a sign change (refined by Brent's method on `df` of the
  * bracket), each evaluated with the exact f; the earliest time wins a tie. Updates `best`.
+ * A bracket whose bound of |f| (`bound(k)` over [ts[k−1], ts[k]]) stays below a value already
+ * found (`best`, or `floor`: the peak so far of the earlier pieces, or |f| at the last point) by
+ * more than SKIP_MARGIN is not refined: its root cannot give the peak, nor tie with it.
  */
-function walk(ts: Float64Array, dfs: Float64Array, n: number, f: (t: number) => number, df: (a: number, b: number) => (t: number) => number, best: MagnitudePeak): void {
+function walk(
+  ts: Float64Array,
+  dfs: Float64Array,
+  n: number,
+  f: (t: number) => number,
+  df: (a: number, b: number) => (t: number) => number,
+  best: MagnitudePeak,
+  bound: (k: number) => number,
+  floor: number,
+): void {
   const consider = (t: number) => {
     const y = Math.abs(f(t));
     if (y > best.value * (1 + TIE) || (Number.isNaN(best.value) && !Number.isNaN(y))) {
@@ -109,8 +138,10 @@ function walk(ts: Float64Array, dfs: Float64Array, n: number, f: (t: number) => 
     if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
       const a = ts[k - 1]!;
       const b = ts[k]!;
-      const r = findRoot(df(a, b), a, b, 1e-14, prevD, d);
-      if (r > a && r < b) consider(r);
+      if (!(bound(k) * (1 + SKIP_MARGIN) < Math.max(best.value, floor))) {
+        const r = findRoot(df(a, b), a, b, 1e-14, prevD, d);
+        if (r > a && r < b) consider(r);
+      }
     } else if (d === 0 && k < n - 1) {
       consider(ts[k]!);
     }

@@ -1,5 +1,5 @@
 import type { PartKind } from '../circuit/circuit.js';
-import { ProductIntegrals } from '../lti/gram.js';
+import { ProductIntegrals, productsFor } from '../lti/gram.js';
 import { JointPeaks } from './joint-peaks.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
@@ -316,7 +316,7 @@ export function runStress(result: RunResult): PartStress[] {
     }
     const byName = new Map(all.map((p) => [p.part, p]));
     // every part's terms share the run's exponents: one table of exponent integrals for all
-    const products = new ProductIntegrals();
+    const products = productsFor(result.circuit);
     const joint = new JointPeaks(result.times);
     for (const part of result.circuit.parts) {
       const forms = byName.get(part.name);

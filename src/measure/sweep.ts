@@ -178,6 +178,22 @@ export class Sweeper {
   }
 
   private nearOf: object | null = null;
+  private all = new Int32Array(0);
+  private at = new Float64Array(4);
+
+  /** 0 … n−1 */
+  private allRoom(n: number): Int32Array {
+    if (this.all.length < n) {
+      this.all = new Int32Array(Math.max(n, 2 * this.all.length));
+      for (let q = 0; q < this.all.length; q++) this.all[q] = q;
+    }
+    return this.all;
+  }
+
+  private atRoom(n: number): Float64Array {
+    if (this.at.length < n) this.at = new Float64Array(n);
+    return this.at;
+  }
   private nearPrep: Prep | null = null;
 
   private nearIdx = new Int32Array(16);
@@ -296,7 +312,16 @@ export class Sweeper {
     const Sv = this.sV;
     if (nS >= 8 && spec.extraStep > 0) this.uniform(chs, e![a]! - t0, spec.extraStep, nS, Sv, 0);
     else for (let i = 0; i < nS; i++) for (let c = 0; c < chs.length; c++) Sv[c]![i] = groupsAt(chs[c]!, e![a + i]! - t0);
-    for (let i = 0; i < nP; i++) for (let c = 0; c < chs.length; c++) Sv[c]![nS + i] = groupsAt(chs[c]!, pts[i]! - t0);
+    // the further points one by one, all channels sharing each group's exponential
+    if (nP > 0) {
+      const g = chs[0]!;
+      const all = this.allRoom(g.n);
+      const at = this.atRoom(chs.length);
+      for (let i = 0; i < nP; i++) {
+        channelsAtSome(chs, all, g.n, pts[i]! - t0, at);
+        for (let c = 0; c < chs.length; c++) Sv[c]![nS + i] = at[c]!;
+      }
+    }
     // three-way merge by time
     const ts = this.ts;
     const vals = this.vals;
