@@ -178,6 +178,15 @@ export class Sweeper {
   }
 
   private nearOf: object | null = null;
+
+  // the power tables of the current layout by step and group (cleared per call: the layout changes)
+  private readonly byStep = new Map<number, Float64Array[]>();
+  private readonly tab = (q: number, kr: number, ki: number, h: number): Float64Array => {
+    let list = this.byStep.get(h);
+    if (!list) this.byStep.set(h, (list = []));
+    return (list[q] ??= this.tables.get(kr, ki, h));
+  };
+
   private all = new Int32Array(0);
   private at = new Float64Array(4);
 
@@ -208,6 +217,7 @@ export class Sweeper {
    */
   uniform(chs: readonly Groups[], tau0: number, h: number, count: number, out: Float64Array[], at: number): void {
     const g = chs[0]!;
+    this.byStep.clear();
     const prep = count > CHUNK ? prepare(chs) : null;
     const alive = this.aliveRoom(g.n);
     for (let c = 0; c < chs.length; c++) out[c]!.fill(0, at, at + count);
@@ -220,7 +230,7 @@ export class Sweeper {
         for (let q = 0; q < g.n; q++) alive[q] = q;
         na = g.n;
       }
-      for (let j = 0; j < na; j++) accumulate(chs, alive[j]!, ta, h, len, out, at + i0, this.tables);
+      for (let j = 0; j < na; j++) accumulate(chs, alive[j]!, ta, h, len, out, at + i0, this.tab);
     }
   }
 
@@ -266,7 +276,7 @@ export class Sweeper {
         ts[count + i] = kk === m ? hi : lo + (width * kk) / m;
       }
       for (let c = 0; c < chs.length; c++) vals[c]!.fill(0, count, count + len);
-      for (let j = 0; j < na; j++) accumulate(chs, alive[j]!, ta, s * hb, len, vals, count, this.tables);
+      for (let j = 0; j < na; j++) accumulate(chs, alive[j]!, ta, s * hb, len, vals, count, this.tab);
       count += len;
       k += len * s;
       // the last point is always hi
@@ -282,6 +292,7 @@ export class Sweeper {
    */
   grid(chs: readonly Groups[], spec: GridSpec): number {
     const { t0, lo, hi } = spec;
+    this.byStep.clear();
     const nU = this.searchGrid(chs, t0, lo, hi, spec.m, spec.minIntervals, spec.harmonics ?? 1);
     // extra times strictly inside (lo, hi)
     let a = 0;
@@ -353,7 +364,7 @@ export class Sweeper {
 }
 
 /** Adds group q of every channel at τ = ta + i·h, i < len, to out[c][at + i]. */
-function accumulate(chs: readonly Groups[], q: number, ta: number, h: number, len: number, out: Float64Array[], at: number, tables: PowerTables): void {
+function accumulate(chs: readonly Groups[], q: number, ta: number, h: number, len: number, out: Float64Array[], at: number, tables: (q: number, kr: number, ki: number, h: number) => Float64Array): void {
   const g = chs[0]!;
   const kr = g.kr[q]!;
   const ki = g.ki[q]!;
@@ -369,7 +380,45 @@ function accumulate(chs: readonly Groups[], q: number, ta: number, h: number, le
   }
   const real = ki === 0;
   const constant = real && kr === 0;
-  const tab = constant ? null : tables.get(kr, ki, h);
+  const tab = constant ? null : tables(q, kr, ki, h);
+  if (tab && o1 - o0 === 1 && chs.length === 4 && chs.every((ch) => ch.cr[o0] !== 0 || ch.ci[o0] !== 0)) {
+    // v, v', i, i' of the joint peak search: one pass over the table for the four (each as the
+    // loop below does it; a zero coefficient takes that loop, which skips it)
+    const [c0, c1, c2, c3] = chs as [Groups, Groups, Groups, Groups];
+    const [d0, d1, d2, d3] = out as [Float64Array, Float64Array, Float64Array, Float64Array];
+    if (real) {
+      // as below: (c·e^(κ·ta))·T_i, with c real
+      const a0 = c0.cr[o0]! * er;
+      const a1 = c1.cr[o0]! * er;
+      const a2 = c2.cr[o0]! * er;
+      const a3 = c3.cr[o0]! * er;
+      for (let i = 0; i < len; i++) {
+        const t = tab[2 * i]!;
+        d0[at + i] += a0 * t;
+        d1[at + i] += a1 * t;
+        d2[at + i] += a2 * t;
+        d3[at + i] += a3 * t;
+      }
+      return;
+    }
+    const r0 = c0.cr[o0]! * er - c0.ci[o0]! * ei;
+    const r1 = c1.cr[o0]! * er - c1.ci[o0]! * ei;
+    const r2 = c2.cr[o0]! * er - c2.ci[o0]! * ei;
+    const r3 = c3.cr[o0]! * er - c3.ci[o0]! * ei;
+    const i0 = c0.cr[o0]! * ei + c0.ci[o0]! * er;
+    const i1 = c1.cr[o0]! * ei + c1.ci[o0]! * er;
+    const i2 = c2.cr[o0]! * ei + c2.ci[o0]! * er;
+    const i3 = c3.cr[o0]! * ei + c3.ci[o0]! * er;
+    for (let i = 0; i < len; i++) {
+      const tr = tab[2 * i]!;
+      const ti = tab[2 * i + 1]!;
+      d0[at + i] += r0 * tr - i0 * ti;
+      d1[at + i] += r1 * tr - i1 * ti;
+      d2[at + i] += r2 * tr - i2 * ti;
+      d3[at + i] += r3 * tr - i3 * ti;
+    }
+    return;
+  }
   for (let c = 0; c < chs.length; c++) {
     const ch = chs[c]!;
     const dst = out[c]!;
