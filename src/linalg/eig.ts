@@ -56,7 +56,7 @@ export interface EigFlatResult {
 
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
-import { pathOrder, symmetrize } from './symmetrize.js';
+import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 import { tridiagonalVectors } from './tridiagonal-vectors.js';
 
@@ -174,7 +174,7 @@ export function eigFlat(
 function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
   const sym = symmetrize(a, n, SYMMETRIC_TOL);
   if (!sym) return null;
-  const { S, scale } = sym;
+  const { scale } = sym;
   const re = new Float64Array(n);
   const im = new Float64Array(n);
   const V = new Float64Array(n * n);
@@ -182,14 +182,15 @@ function eigSymmetrizable(a: Float64Array, n: number): EigFlatResult | null {
   if (order) {
     const d = new Float64Array(n);
     const e = new Float64Array(Math.max(n - 1, 0));
-    for (let k = 0; k < n; k++) d[k] = S[order[k] * n + order[k]];
-    for (let k = 0; k + 1 < n; k++) e[k] = S[order[k] * n + order[k + 1]];
+    for (let k = 0; k < n; k++) d[k] = a[order[k] * n + order[k]];
+    for (let k = 0; k + 1 < n; k++) e[k] = symmetricEntry(a, n, order[k], order[k + 1]);
     const { values, z } = eigTridiagonal(d, e);
     re.set(values);
     // V[order[i]][k] = dᵢ·z[k][i]: a transposition, in blocks so that both sides stay in cache
     transposeInto(V, z, n, order, (i) => scale[order[i]]);
   } else {
     // S is symmetric, so its row-major array is also the column-major one eigSymmetricFlat reads
+    const S = sym.S;
     eigSymmetricFlat(S, n, re);
     for (let i = 0; i < n; i++) {
       const s = scale[i];

@@ -11,7 +11,10 @@
 export interface Symmetrized {
   /** the scaling D (diagonal) */
   scale: Float64Array;
-  /** S = D⁻¹·A·D made exactly symmetric: Sᵢⱼ = sign(Aᵢⱼ)·√(Aᵢⱼ·Aⱼᵢ); row-major */
+  /**
+   * S = D⁻¹·A·D made exactly symmetric: Sᵢⱼ = sign(Aᵢⱼ)·√(Aᵢⱼ·Aⱼᵢ); row-major. Built from `a` on
+   * first use, so `a` must not change before.
+   */
   S: Float64Array;
   /** neighbours of each index in the zero pattern (off-diagonal) */
   adjacency: number[][];
@@ -64,15 +67,29 @@ export function symmetrize(a: Float64Array, n: number, relTol: number): Symmetri
   }
   const scale = new Float64Array(n);
   for (let i = 0; i < n; i++) scale[i] = Math.sqrt(d2[i]);
-  const S = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    S[i * n + i] = a[i * n + i];
-    for (const j of adjacency[i]) {
-      const aij = a[i * n + j];
-      S[i * n + j] = (aij < 0 ? -1 : 1) * Math.sqrt(aij * a[j * n + i]);
-    }
-  }
-  return { scale, S, adjacency };
+  // S is built on first use: a ladder's solver reads only its tridiagonal (symmetricEntry), and the
+  // modal stage only the scale
+  let S: Float64Array | null = null;
+  return {
+    scale,
+    get S(): Float64Array {
+      if (!S) {
+        S = new Float64Array(n * n);
+        for (let i = 0; i < n; i++) {
+          S[i * n + i] = a[i * n + i];
+          for (const j of adjacency[i]) S[i * n + j] = symmetricEntry(a, n, i, j);
+        }
+      }
+      return S;
+    },
+    adjacency,
+  };
+}
+
+/** Sᵢⱼ = sign(Aᵢⱼ)·√(Aᵢⱼ·Aⱼᵢ) for a symmetrizable A (Sᵢᵢ = Aᵢᵢ). */
+export function symmetricEntry(a: Float64Array, n: number, i: number, j: number): number {
+  const aij = a[i * n + j];
+  return i === j ? aij : (aij < 0 ? -1 : 1) * Math.sqrt(aij * a[j * n + i]);
 }
 
 /**
