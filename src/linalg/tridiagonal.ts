@@ -1,5 +1,7 @@
 /**
- * Symmetric tridiagonal eigenproblem in O(n²): eigenvalues by implicit QL without vectors
+ * Symmetric tridiagonal eigenproblem in O(n²). A definite block (an RC ladder) goes to
+ * definite-tridiagonal.ts (twisted factorizations, relative accuracy). Otherwise: eigenvalues by
+ * implicit QL without vectors
  * (EISPACK tql1 structure), eigenvectors by inverse iteration on the tridiagonal with
  * reorthogonalisation inside clusters of close eigenvalues (LAPACK dstein structure). Both from
  * memory of the textbook algorithms (Wilkinson & Reinsch, Handbook for Automatic Computation II).
