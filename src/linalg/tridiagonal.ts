@@ -1,10 +1,10 @@
 /**
  * Symmetric tridiagonal eigenproblem in O(n²). A definite block (an RC ladder) goes to
  * definite-tridiagonal.ts (twisted factorizations, relative accuracy). Otherwise: eigenvalues by
- * implicit QL without vectors
- * (EISPACK tql1 structure), eigenvectors by inverse iteration on the tridiagonal with
- * reorthogonalisation inside clusters of close eigenvalues (LAPACK dstein structure). Both from
- * memory of the textbook algorithms (Wilkinson & Reinsch, Handbook for Automatic Computation II).
+ * implicit QL without vectors (EISPACK tql1 structure), eigenvectors by inverse iteration on the
+ * tridiagonal with reorthogonalisation inside clusters of close eigenvalues (LAPACK dstein
+ * structure). Both from memory of the textbook algorithms (Wilkinson & Reinsch, Handbook for
+ * Automatic Computation II).
  *
  * T has diagonal d[0..n−1] and off-diagonal e[0..n−2] (e[i] = T[i][i+1] = T[i+1][i]).
  */
