@@ -123,6 +123,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const psWanted = periodic !== null && psFrom < span;
   const ps: { state: Vec | null; epoch: Epoch | null } = { state: null, epoch: null };
   let knownMap: PeriodMap | null = null;
+  let tailFrom = NaN;
 
   // state before t = 0
   const pre = initialConfiguration(circuit);
@@ -179,6 +180,7 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     if (tail) {
       schedule = tail.schedule;
       knownMap = tail.map;
+      tailFrom = tail.cut;
     } else if (firstEnd < ep.t1) {
       schedule = scheduleOrInputError(circuit, ss.inputs, () => buildSchedule(waves(ep.circuit), ep.t1, ep.t0, psWanted ? [psFrom] : []));
     }
@@ -285,6 +287,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     checked.length ? 'matrix exponential of the state matrix augmented with the source generators (Padé 13, scaling and squaring), interval by interval' : '',
     transformed.length ? 'Laplace transforms of the closed forms against LU solutions of (sI − A)·X̂ = ξ(start) − e^(−sL)·ξ(end) + B·Û (weighted averages of the error, weights e^(−sτ))' : '',
   ].filter(Boolean);
+  if (Number.isFinite(tailFrom)) {
+    methods.push(
+      `from t = ${fmt(tailFrom)} s the periodic drive repeats the steady period to round-off: checked up to one period beyond, later periods are copies of it`,
+    );
+  }
   const crossCheck: CrossCheck = {
     method: methods.join('; and '),
     times: checked,
