@@ -13,7 +13,8 @@ export function crossCheckLines(c: CrossCheck, color: boolean): string[] {
   ].filter(Boolean);
   const what = `${c.method}, ${points.join(' and ')}`;
   const numbers = `max relative error ${sci(c.maxRelError)}, limit ${sci(c.tolerance)}`;
-  if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, ...wrapWords(`  against ${what}`, 80, '    ')];
+  const scope = c.scope ? wrapWords(`  ${c.scope}`, 80, '    ') : [];
+  if (c.passed) return [`Cross-check: ${paint('PASS', GREEN, color)}, ${numbers}`, ...wrapWords(`  against ${what}`, 80, '    '), ...scope];
   const bar = '!'.repeat(72);
   return [
     paint(bar, RED + BOLD, color),

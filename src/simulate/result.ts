@@ -68,6 +68,8 @@ export interface Trace {
 export interface CrossCheck {
   method: string;        // e.g. "matrix exponential (Padé 13, scaling and squaring)"
   times: number[];
+  /** what part of the run the check covers, when not all of it directly */
+  scope?: string;
   /** the s values (1/s) of the Laplace-domain check, when it was used */
   transformWeights?: number[];
   maxRelError: number;

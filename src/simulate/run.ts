@@ -287,13 +287,11 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     checked.length ? 'matrix exponential of the state matrix augmented with the source generators (Padé 13, scaling and squaring), interval by interval' : '',
     transformed.length ? 'Laplace transforms of the closed forms against LU solutions of (sI − A)·X̂ = ξ(start) − e^(−sL)·ξ(end) + B·Û (weighted averages of the error, weights e^(−sτ))' : '',
   ].filter(Boolean);
-  if (Number.isFinite(tailFrom)) {
-    methods.push(
-      `from t = ${fmt(tailFrom)} s the periodic drive repeats the steady period to round-off: checked up to one period beyond, later periods are copies of it`,
-    );
-  }
   const crossCheck: CrossCheck = {
     method: methods.join('; and '),
+    ...(Number.isFinite(tailFrom)
+      ? { scope: `from t = ${fmt(tailFrom)} s the periodic drive repeats its steady period to round-off: checked up to one period beyond; later periods are copies of it` }
+      : {}),
     times: checked,
     ...(transformed.length ? { transformWeights: transformed } : {}),
     maxRelError: maxRel,
