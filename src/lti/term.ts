@@ -139,23 +139,7 @@ export function groupTerms(terms: readonly Term[], out: Groups = emptyGroups()):
     const w = t.kind === 'exp' || t.kind === 'poly-exp' ? 0 : t.omega;
     let g = 0;
     while (!(kr[g] === a && ki[g] === w)) g++;
-    const o = off[g]!;
-    switch (t.kind) {
-      case 'exp':
-        cr[o] += t.coef;
-        break;
-      case 'poly-exp':
-        for (let k = 0; k < t.polyCoefs.length; k++) cr[o + k] += t.polyCoefs[k]!;
-        break;
-      case 'osc':
-        cr[o] += t.cosCoef;
-        if (t.omega !== 0) ci[o] -= t.sinCoef;
-        break;
-      case 'quasi':
-        for (let k = 0; k < t.cosPoly.length; k++) cr[o + k] += t.cosPoly[k]!;
-        if (t.omega !== 0) for (let k = 0; k < t.sinPoly.length; k++) ci[o + k] -= t.sinPoly[k]!;
-        break;
-    }
+    addCoefficients(t, off[g]!, cr, ci);
   }
   out.n = n;
   return out;
@@ -185,24 +169,45 @@ export function groupsDerivative(g: Groups, out: Groups = emptyGroups()): Groups
   return out;
 }
 
+/** Adds a term's polynomial coefficients (real and imaginary parts) into its group starting at o. */
+function addCoefficients(t: Term, o: number, cr: number[], ci: number[]): void {
+  switch (t.kind) {
+    case 'exp':
+      cr[o] += t.coef;
+      break;
+    case 'poly-exp':
+      for (let k = 0; k < t.polyCoefs.length; k++) cr[o + k] += t.polyCoefs[k]!;
+      break;
+    case 'osc':
+      cr[o] += t.cosCoef;
+      if (t.omega !== 0) ci[o] -= t.sinCoef;
+      break;
+    case 'quasi':
+      for (let k = 0; k < t.cosPoly.length; k++) cr[o + k] += t.cosPoly[k]!;
+      if (t.omega !== 0) for (let k = 0; k < t.sinPoly.length; k++) ci[o + k] -= t.sinPoly[k]!;
+      break;
+  }
+}
+
+/** Value of group q of a grouped sum at τ. */
+export function groupValue(g: Groups, q: number, tau: number): number {
+  const a = g.kr[q]!;
+  const w = g.ki[q]!;
+  let pr = 0;
+  let pi = 0;
+  for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) {
+    pr = pr * tau + g.cr[i]!;
+    pi = pi * tau + g.ci[i]!;
+  }
+  if (w === 0) return a === 0 ? pr : pr * Math.exp(a * tau);
+  const m = a === 0 ? 1 : Math.exp(a * tau);
+  return m * (pr * Math.cos(w * tau) - pi * Math.sin(w * tau));
+}
+
 /** Value of a grouped sum at τ. */
 export function groupsValue(g: Groups, tau: number): number {
   let s = 0;
-  for (let q = 0; q < g.n; q++) {
-    const a = g.kr[q]!;
-    const w = g.ki[q]!;
-    let pr = 0;
-    let pi = 0;
-    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) {
-      pr = pr * tau + g.cr[i]!;
-      pi = pi * tau + g.ci[i]!;
-    }
-    if (w === 0) s += a === 0 ? pr : pr * Math.exp(a * tau);
-    else {
-      const m = a === 0 ? 1 : Math.exp(a * tau);
-      s += m * (pr * Math.cos(w * tau) - pi * Math.sin(w * tau));
-    }
-  }
+  for (let q = 0; q < g.n; q++) s += groupValue(g, q, tau);
   return s;
 }
 
@@ -281,23 +286,7 @@ export function groupTermsAlike(lists: readonly (readonly Term[])[], outs: Group
     const where = at[c]!;
     for (let i = 0; i < terms.length; i++) {
       const t = terms[i]!;
-      const o = off[where[i]!]!;
-      switch (t.kind) {
-        case 'exp':
-          cr[o] += t.coef;
-          break;
-        case 'poly-exp':
-          for (let k = 0; k < t.polyCoefs.length; k++) cr[o + k] += t.polyCoefs[k]!;
-          break;
-        case 'osc':
-          cr[o] += t.cosCoef;
-          if (t.omega !== 0) ci[o] -= t.sinCoef;
-          break;
-        case 'quasi':
-          for (let k = 0; k < t.cosPoly.length; k++) cr[o + k] += t.cosPoly[k]!;
-          if (t.omega !== 0) for (let k = 0; k < t.sinPoly.length; k++) ci[o + k] -= t.sinPoly[k]!;
-          break;
-      }
+      addCoefficients(t, off[where[i]!]!, cr, ci);
     }
   }
 }

@@ -1,4 +1,4 @@
-import { type Groups, groupsValue as groupsAt } from '../lti/term.js';
+import { type Groups, groupValue, groupsValue as groupsAt } from '../lti/term.js';
 
 /**
  * Grouped sums (lti/term.ts) evaluated on equally spaced points without an exponential per term and
@@ -497,22 +497,7 @@ export interface GridSpec {
 /** Σ of the groups idx[0 … count−1] of g at τ (as lti/term.ts groupsValue). */
 function groupsAtSome(g: Groups, idx: Int32Array, count: number, tau: number): number {
   let s = 0;
-  for (let j = 0; j < count; j++) {
-    const q = idx[j]!;
-    const a = g.kr[q]!;
-    const w = g.ki[q]!;
-    let pr = 0;
-    let pi = 0;
-    for (let i = g.off[q + 1]! - 1; i >= g.off[q]!; i--) {
-      pr = pr * tau + g.cr[i]!;
-      pi = pi * tau + g.ci[i]!;
-    }
-    if (w === 0) s += a === 0 ? pr : pr * Math.exp(a * tau);
-    else {
-      const m = a === 0 ? 1 : Math.exp(a * tau);
-      s += m * (pr * Math.cos(w * tau) - pi * Math.sin(w * tau));
-    }
-  }
+  for (let j = 0; j < count; j++) s += groupValue(g, idx[j]!, tau);
   return s;
 }
 
