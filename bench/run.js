@@ -241,13 +241,13 @@ if (JSON_OUT) {
   const e = (v) => (v === null || v === undefined ? '—' : v.toExponential(1));
   console.log('\nWhole pipeline (analyzeText with { partSignals: false }: parse, model, modal form, exact solution,');
   console.log('cross-check, metrics; no per-part closed forms) vs scipy.signal.lsim on the model ringdown exported');
-  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each after a first call. "max rel diff" is`);
+  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each after a first call and 3 warm-up calls. "max rel diff" is`);
   console.log('|ours − lsim| relative to each signal\'s peak; "vs exact" (pwm-long only) is |ours − exact reference|:\n');
   console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13), 'vs exact'.padStart(9), '1st call s'.padStart(11)].join('  '));
   for (const r of rows) {
     console.log([r.case.padEnd(10), String(r.states).padStart(6), String(r.samples).padStart(8), f(r.oursSeconds).padStart(9), f(r.referenceSeconds).padStart(9), f(r.ratio, 2).padStart(8), e(r.maxRelError).padStart(13), e(r.fineMaxRelError).padStart(9), f(r.firstCallSeconds).padStart(11)].join('  '));
   }
-  console.log('("ours s": median of the calls after the first; "1st call s": the first call in a fresh process,');
+  console.log('("ours s": median of the calls after the first and 3 warm-up calls; "1st call s": the first call in a fresh process,');
   console.log(' JIT warm-up included, which is what one command-line run pays on top of starting Node)');
   if (pwm) {
     const ref = pwm.ref;
