@@ -1,3 +1,5 @@
+import { bidiagonalForward } from './tridiagonal-vectors.js';
+
 /**
  * Eigenvectors of an upper Hessenberg matrix for known eigenvalues, by inverse iteration (the
  * LAPACK dlaein structure, from memory): Gaussian elimination of H − λI with row interchanges
@@ -342,23 +344,7 @@ function complexVector(
   xr.fill(eps3);
   xi.fill(0);
   for (let its = 0; its < MAX_SOLVES; its++) {
-    if (its > 0) {
-      for (let k = 0; k < n - 1; k++) {
-        const fr = Lr[k];
-        const fi = Li[k];
-        if (swap[k]) {
-          const tr = xr[k];
-          const ti = xi[k];
-          xr[k] = xr[k + 1];
-          xi[k] = xi[k + 1];
-          xr[k + 1] = tr - (fr * xr[k] - fi * xi[k]);
-          xi[k + 1] = ti - (fr * xi[k] + fi * xr[k]);
-        } else {
-          xr[k + 1] -= fr * xr[k] - fi * xi[k];
-          xi[k + 1] -= fr * xi[k] + fi * xr[k];
-        }
-      }
-    }
+    if (its > 0) bidiagonalForward(n, Lr, Li, swap, xr, xi);
     for (let i = n - 1; i >= 0; i--) {
       const ui = i * n;
       let tr = xr[i];

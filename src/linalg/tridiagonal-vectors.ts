@@ -213,9 +213,12 @@ function backSolve(n: number, ws: Work): void {
   }
 }
 
-/** x := L⁻¹·P·x (the row interchanges and multipliers of factor). */
-function forwardSolve(n: number, ws: Work): void {
-  const { mr, mi, swap, xr, xi } = ws;
+/**
+ * x := L⁻¹·P·x for a complex LU with partial pivoting whose L has one multiplier per column
+ * (m_k, below the diagonal) and whose rows k, k+1 were exchanged where swap[k]: the factor of a
+ * tridiagonal or Hessenberg matrix.
+ */
+export function bidiagonalForward(n: number, mr: Float64Array, mi: Float64Array, swap: Uint8Array, xr: Float64Array, xi: Float64Array): void {
   for (let k = 0; k + 1 < n; k++) {
     const fr = mr[k];
     const fi = mi[k];
@@ -324,7 +327,7 @@ function vector(d: Float64Array, b: Float64Array, c: Float64Array, w: Float64Arr
   if (!rescale(n, ws)) return false;
   let res = Infinity;
   for (let its = 0; its < MAX_SOLVES; its++) {
-    forwardSolve(n, ws);
+    bidiagonalForward(n, ws.mr, ws.mi, ws.swap, ws.xr, ws.xi);
     backSolve(n, ws);
     if (!rescale(n, ws)) return false;
     if (!rayleigh(d, b, c, w, real, ws)) return false;
