@@ -26,6 +26,20 @@ const timed = (name, f) => {
   return v;
 };
 
+/**
+ * Writes the model ringdown built, for the reference: A, B, and per watched node C and D, with our
+ * samples. The references assume ξ = x and no impulse in the read-outs (Bx1 = 0, D1 = 0).
+ */
+function exportModel(out, circuit, model, result, voltageProbe, extra) {
+  const { ss } = model;
+  const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
+  const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
+  const d1 = readouts.some((r) => r.D1.some((v) => Math.abs(v) > 1e-9));
+  if (bx1 || d1) throw new Error('bench circuits must have Bx1 = 0 and D1 = 0 (a resistor between source and storage)');
+  const data = { A: ss.A, B: ss.B, C: readouts.map((r) => r.C), D: readouts.map((r) => r.D), ...extra };
+  writeFileSync(out, JSON.stringify({ ...data, times: Array.from(result.times), ours: result.traces.map((t) => Array.from(t.values)) }));
+}
+
 const [kind, ...args] = process.argv.slice(2);
 /** untimed calls after the first one, while V8's optimizing compiler catches up */
 const WARMUP = 3;
@@ -77,21 +91,7 @@ if (kind === 'circuit') {
   }
   stage('eigOfStateMatrix', median(eigTimes));
   // export the same model for the reference: ξ' = Aξ + Bu, y = Cξ + Du, ξ(0) = 0, u = 1 for t > 0
-  const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
-  const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
-  const d1 = readouts.some((r) => r.D1.some((v) => Math.abs(v) > 1e-9));
-  if (bx1 || d1) throw new Error('bench circuits must have Bx1 = 0 and D1 = 0 (a resistor between source and storage)');
-  writeFileSync(
-    out,
-    JSON.stringify({
-      A: ss.A,
-      B: ss.B,
-      C: readouts.map((r) => r.C),
-      D: readouts.map((r) => r.D),
-      times: Array.from(result.times),
-      ours: result.traces.map((t) => Array.from(t.values)),
-    }),
-  );
+  exportModel(out, circuit, model, result, voltageProbe, {});
   console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), firstCallSeconds: firstCall, eigSeconds: median(eigTimes), crossCheck: result.crossCheck?.maxRelError })}`);
 } else if (kind === 'pwm') {
   // one pulse-train source into a small filter; the reference needs the pulse itself, not only the model
@@ -125,22 +125,7 @@ if (kind === 'circuit') {
     const { low, high, period, width, rise, fall, start, cycles } = terms[0];
     return { low, high, period, width, rise, fall, start, cycles: Number.isFinite(cycles) ? cycles : null };
   });
-  const readouts = circuit.watches.map((w) => model.readout(voltageProbe(model.descriptor, w.target.node, 'gnd')));
-  const bx1 = ss.Bx1.flat().some((v) => Math.abs(v) > 1e-9);
-  const d1 = readouts.some((r) => r.D1.some((v) => Math.abs(v) > 1e-9));
-  if (bx1 || d1) throw new Error('bench pwm: the circuit must have Bx1 = 0 and D1 = 0');
-  writeFileSync(
-    out,
-    JSON.stringify({
-      A: ss.A,
-      B: ss.B,
-      C: readouts.map((r) => r.C),
-      D: readouts.map((r) => r.D),
-      pulses,
-      times: Array.from(result.times),
-      ours: result.traces.map((t) => Array.from(t.values)),
-    }),
-  );
+  exportModel(out, circuit, model, result, voltageProbe, { pulses });
   console.log(`RESULT ${JSON.stringify({ states: ss.n, samples: result.times.length, oursSeconds: median(totals), firstCallSeconds: firstCall, crossCheck: result.crossCheck?.maxRelError })}`);
 } else if (kind === 'eig') {
   const [nS, runsS, out, withMl] = args;
