@@ -1,3 +1,5 @@
+import { toArray } from './dense.js';
+
 /**
  * LU factorization with partial pivoting on a flat Float64Array (row-major), and solves with it.
  * The dense workhorse of the model and LTI stages; typed arrays keep it several times faster than
@@ -86,5 +88,5 @@ export function luSolve(f: LU, b: number[][]): number[][] {
     const d = lu[ri + i];
     for (let j = 0; j < m; j++) x[i * m + j] /= d;
   }
-  return Array.from({ length: n }, (_, i) => Array.from(x.subarray(i * m, i * m + m)));
+  return Array.from({ length: n }, (_, i) => toArray(x, i * m, m));
 }
