@@ -2,8 +2,9 @@ import type { Circuit, Part } from '../circuit/circuit.js';
 import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, transpose, zeros } from '../linalg/dense.js';
 import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 import { type Descriptor, type Probe, buildDescriptor, currentProbe, voltageProbe } from './descriptor.js';
-import { ReductionError, independentRows, reduceDescriptor } from './reduce.js';
+import { type Reduction, ReductionError, independentRows, reduceDescriptor } from './reduce.js';
 import { reduceIndexOne } from './reduce-index1.js';
+import { type TreeReduction, reduceTree } from './reduce-tree.js';
 import type { Readout, StateSpace, StateVariable } from './state-space.js';
 
 /**
@@ -45,16 +46,22 @@ export function buildModel(circuit: Circuit): Model {
   // decisions depend on the scaling; a few are tried in turn (capacitance-based, conductance-based,
   // none) before the circuit is declared to have no unique solution.
   const direct = reduceIndexOne(d.E, d.A, d.B, d.nz, m);
+  // next the normal-tree state equations (no rank decisions: exact where capacitor loops and
+  // inductor cut-sets meet parts of very different size), checked by substitution like the rest
+  const tree = direct ? null : reduceTree(circuit, d);
+  const treeResidual = tree ? reductionResidual(d.E, d.A, d.B, tree) : Infinity;
   let s: number[] = [];
   let Es: Mat = [];
   let As: Mat = [];
-  let red: ReturnType<typeof reduceDescriptor> | null = null;
+  let red: Reduction | null = null;
   let lastError: unknown = null;
-  const attempts = direct
+  const attempts = direct || treeResidual <= 1e-12
     ? [{ scales: variableScales(d), tol: 1e-10 }]
     : [variableScales(d), conductanceScales(d), d.E.map(() => 1)].flatMap((sc) => [1e-10, 1e-7, 1e-13].map((tol) => ({ scales: sc, tol })));
   // the attempt whose substitution best satisfies the circuit equations wins
-  let best: { red: ReturnType<typeof reduceDescriptor>; s: number[]; Es: Mat; As: Mat; residual: number } | null = null;
+  let best: { red: Reduction; s: number[]; Es: Mat; As: Mat; residual: number } | null = tree
+    ? { red: tree, s: d.E.map(() => 1), Es: d.E, As: d.A, residual: treeResidual }
+    : null;
   for (const { scales, tol } of attempts) {
     const sc = scales;
     if (direct) {
@@ -69,6 +76,7 @@ export function buildModel(circuit: Circuit): Model {
       };
       break;
     }
+    if (treeResidual <= 1e-12) break;
     const EsC = d.E.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
     const AsC = d.A.map((row, i) => row.map((v, j) => v * sc[i] * sc[j]));
     const BsC = d.B.map((row, i) => row.map((v) => v * sc[i]));
@@ -97,11 +105,13 @@ export function buildModel(circuit: Circuit): Model {
   const SZu = unit ? red.Zu : red.Zu.map((Z) => Z.map((row, i) => row.map((v) => v * s[i])));
 
   const physical = physicalQuantities(circuit, d);
-  const Xall = physical.map((q) => rowTimes(q.probe.cz, SZp, np));
-  const chosen = independentRows(Xall, np);
-  if (chosen.length !== np) throw new ReductionError('could not choose independent capacitor voltages and inductor currents as states');
-  const X = pickRows(Xall, chosen);
-  const Xu = SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
+  // the tree's states are capacitor voltages and inductor currents themselves: X = I exactly
+  const treeStates = isTree(red) ? red.stateParts.map((name) => physical.findIndex((q) => q.part.name === name)) : null;
+  const Xall = treeStates ? [] : physical.map((q) => rowTimes(q.probe.cz, SZp, np));
+  const chosen = treeStates ?? independentRows(Xall, np);
+  if (chosen.length !== np || chosen.some((i) => i < 0)) throw new ReductionError('could not choose independent capacitor voltages and inductor currents as states');
+  const X = treeStates ? identityOf(np) : pickRows(Xall, chosen);
+  const Xu = treeStates ? SZu.map(() => zeros(np, m)) : SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
   const Xinv = np ? solveSquare(X, identityOf(np)) : [];
   const F = red.F;
   const Ax = np ? matmul(matmul(X, F, np), Xinv, np) : [];
@@ -154,7 +164,11 @@ export function buildModel(circuit: Circuit): Model {
 
   const init: InitContext = { circuit, d, s, Zp: red.Zp, Zu: red.Zu, np, X, Xu, chosen, physical };
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
-    red.index1 ? index1Initial(init, red.index1, before, u0) : consistentInitial(init, Es, As, before, u0, du0);
+    isTree(red)
+      ? treeInitial(init, red, before, u0)
+      : red.index1
+        ? index1Initial(init, red.index1, before, u0)
+        : consistentInitial(init, Es, As, before, u0, du0);
   // a chosen state reads out as itself: x_i = ξ_i + Bx1[i]·u (the general formula gives the same,
   // up to round-off, at O(n²) per quantity)
   const position = new Map(chosen.map((i, k) => [i, k]));
@@ -334,6 +348,21 @@ function storedCharge(circuit: Circuit, d: Descriptor, beforeValues: Map<string,
     }
   }
   return q;
+}
+
+function isTree(r: Reduction): r is TreeReduction {
+  return 'stateParts' in r;
+}
+
+/** Tree case: cut-set charges and loop fluxes conserved (reduce-tree.ts). */
+function treeInitial(ctx: InitContext, red: TreeReduction, beforeValues: Map<string, number>, u0: Vec): InitialState {
+  const { d, s, Zp, Zu, chosen, physical } = ctx;
+  const p = red.initialP(beforeValues, u0);
+  const zu = new Array<number>(d.nz).fill(0);
+  if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
+  const x = p.slice();
+  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  return { x, jumps, residual: 0 };
 }
 
 /** Index-one case: E_dd·p = q_d (charge and flux conserved; nothing else can change them). */

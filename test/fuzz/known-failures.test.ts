@@ -85,11 +85,12 @@ span 2.1e-5
     });
   }
 
-  // Still open: a loop of a 1.1 pF and a 0.41 nF capacitor with a voltage source, next to 26 nH and
-  // 96 mH inductors. The general (index-two) reduction reaches only a relative residual of about
-  // 2e-7, which the run states in a notice, but the energy balance is off by about 1e-4. This test
-  // passes while that is so and turns red when it is fixed (then drop `.fails`).
-  it.fails('a pF/nF capacitor loop with a source beside nH and 100 mH inductors: energy balances to 1e-6', () => {
+  // Once broken: a loop of a 1.1 pF and a 0.41 nF capacitor with a voltage source, next to 26 nH and
+  // 96 mH inductors. The general (rank-revealing) reduction reached only a relative residual of about
+  // 2e-7 and eigenvalues off by 1e-3 (against the generalized eigenvalues of the circuit's own E and
+  // A, scipy.linalg.eigvals, checked by hand); the energy balance was off by about 1e-4. Fixed by the
+  // normal-tree state equations (src/model/reduce-tree.ts).
+  it('a pF/nF capacitor loop with a source beside nH and 100 mH inductors: energy balances to 1e-6', () => {
     const text = `resistor R1 gnd -> n1 7.5e5ohm
 inductor L2 n1 -> n2 2.6e-8H
 resistor R3 n1 -> n3 4.6e0ohm
@@ -121,10 +122,12 @@ span 1e-4
     expect(energyBalance(r.circuit, r.parts!).residual).toBeLessThan(1e-6);
   });
 
-  // Still open: inductors whose only path runs through a 17 MΩ open switch next to a 1.3 pF
-  // capacitor: the general reduction loses two inductor states. The in-run cross-check catches it
-  // (the run reports the failure, exit code 3), so the answer is not silently wrong.
-  it.fails('inductors behind a 17 MΩ open switch beside 1.3 pF: the cross-check passes', () => {
+  // Once broken: inductors whose only path runs through a 17 MΩ open switch next to a 1.3 pF
+  // capacitor. The general reduction had the right number of states but chose i(L1) — zero by KCL
+  // (L1, C2 and L8 in series to a dead end), nonzero only by round-off — as one of them, which
+  // scaled the state matrix to 1e25; the eigenvalue snap then zeroed every mode and the closed form
+  // became NaN (cross-check: Infinity, exit 3). The normal tree takes v(C2), v(C3), i(L5).
+  it('inductors behind a 17 MΩ open switch beside 1.3 pF: the cross-check passes', () => {
     const text = `inductor L1 gnd -> n1 5.7e-1H
 capacitor C2 n1 -> n2 5.9e-7F
 capacitor C3 gnd -> n3 1.3e-12F
