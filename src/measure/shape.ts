@@ -2,8 +2,9 @@ import type { Piece, Term } from '../simulate/result.js';
 import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
-import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
+import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue, termsValue } from '../lti/term.js';
 import { forEachClipped, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
+import { sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
 import type { Track } from './track.js';
@@ -153,15 +154,15 @@ export function maxSlope(
   const extraStep = extra ? uniformStep(extra) : NaN;
   const cut = reached / (1 + TIE) ** 2;
   let best: { value: number; time: number } | null = null;
-  // a piece with the same term array over the same τ range as one searched before has the same
-  // largest slope (to rounding), which cannot beat the best by 1e-12 then: not searched again
+  // a piece with the same term array over the same τ range (repeat.ts) as one searched before has
+  // the same largest slope (to rounding), which cannot beat the best by 1e-12 then: not searched again
   const searched = new Map<Piece['terms'], { a: number; b: number }>();
   forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
     // the bound is NaN when the terms are: search such a piece
     if (upper[i]! < cut) return;
     const before = searched.get(piece.terms);
-    if (before && before.a === lo - piece.t0 && before.b === hi - piece.t0) return;
-    if (searched.size < 4096) searched.set(piece.terms, { a: lo - piece.t0, b: hi - piece.t0 });
+    if (before && before.a === lo - piece.t0 && sameEnd(hi - piece.t0, before.b, hi)) return;
+    if (!before && searched.size < 4096) searched.set(piece.terms, { a: lo - piece.t0, b: hi - piece.t0 });
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
     if (best === null || p.value > best.value * (1 + 1e-12)) best = { value: p.value, time: p.time };
   });
@@ -229,19 +230,27 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
   let sum = 0;
   let sq = 0;
   let impulse = false;
-  // the cycles of a pulse train share their integrals (see RepeatedIntegrals)
+  // the cycles of a pulse train share their integrals (see RepeatedIntegrals); the periods of a
+  // steady tail share their term arrays, and a range longer by d adds f(b)·d and f(b)²·d (repeat.ts)
   const cycles = new RepeatedIntegrals();
+  const seen = new Map<Term[], { b: number; sum: number; square: number; y: number }>();
   forEachClipped(pieces, start, end, (piece, _, __, lo, hi) => {
     const a = lo - piece.t0;
     const b = hi - piece.t0;
     const terms = piece.terms;
+    const s = seen.get(terms);
     if (a > 0) {
       sum += integrateTerms(terms, b) - integrateTerms(terms, a);
       sq += integrateProduct(terms, terms, b) - integrateProduct(terms, terms, a);
+    } else if (s !== undefined && sameEnd(b, s.b, hi)) {
+      const d = b - s.b;
+      sum += s.sum + s.y * d;
+      sq += s.square + s.y * s.y * d;
     } else {
       cycles.integrate(terms, b);
       sum += cycles.sum;
       sq += cycles.square;
+      if (s === undefined && seen.size < 4096) seen.set(terms, { b, sum: cycles.sum, square: cycles.square, y: termsValue(terms, b) });
     }
     if (piece.impulseArea !== 0 && piece.t0 >= start && piece.t0 < end) {
       sum += piece.impulseArea;

@@ -2,6 +2,7 @@ import type { Piece } from '../simulate/result.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
 import { maxOmega, pieceValue } from './evaluate.js';
 import { uniformIntervals } from './peak.js';
+import { sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
 
@@ -11,15 +12,15 @@ import { Sweeper, uniformStep } from './sweep.js';
  * between neighbouring knots. Knots include every local extremum, located by root-finding the
  * exact derivative, so peaks between sample points are not missed.
  *
- * The knots of all stretches are kept in two flat lists (a long pulse train has tens of thousands
- * of stretches: no arrays per stretch); `stretchesOf` gives them one object per stretch.
+ * The knots of all stretches are kept in flat typed arrays (a long pulse train has tens of
+ * thousands of stretches: no arrays per stretch); `stretchesOf` gives them one object per stretch.
  */
 export interface Track {
   /** knot times (increasing within a stretch; a stretch's first and last are its ends) and values, all stretches in order */
-  ts: number[];
-  ys: number[];
+  ts: Float64Array;
+  ys: Float64Array;
   /** stretch k holds knots first[k] … first[k + 1] − 1 (one entry more than there are stretches) */
-  first: number[];
+  first: Int32Array;
   /** the signal inside stretch k (continuous there) */
   value(k: number, t: number): number;
   start: number;
@@ -52,7 +53,7 @@ export function stretchesOf(track: Track): Stretch[] {
   for (let k = 0; k < stretchCount(track); k++) {
     const a = track.first[k]!;
     const b = track.first[k + 1]!;
-    out.push({ f: (t) => track.value(k, t), ts: track.ts.slice(a, b), ys: track.ys.slice(a, b) });
+    out.push({ f: (t) => track.value(k, t), ts: Array.from(track.ts.subarray(a, b)), ys: Array.from(track.ys.subarray(a, b)) });
   }
   return out;
 }
@@ -60,24 +61,79 @@ export function stretchesOf(track: Track): Stretch[] {
 /** Fewest grid intervals per piece when looking for extrema. */
 const MIN_INTERVALS = 64;
 
-/** The track of closed-form pieces: stretch k is the closed form of piece of[k]. */
+/**
+ * Knots and per-stretch data in growable typed arrays (no number[] growth, no boxed numbers: the
+ * hot loops write the arrays directly and call methods with integer arguments only).
+ */
+class Buffers {
+  ts: Float64Array;
+  ys: Float64Array;
+  /** knots so far */
+  n = 0;
+  first: Int32Array;
+  upper: Float64Array;
+  /** stretches so far */
+  k = 0;
+  constructor(stretches: number) {
+    this.ts = new Float64Array(3 * stretches + 16);
+    this.ys = new Float64Array(3 * stretches + 16);
+    this.first = new Int32Array(stretches + 2);
+    this.upper = new Float64Array(stretches + 1);
+  }
+
+  /** room for `more` knots */
+  ensure(more: number): void {
+    if (this.n + more <= this.ts.length) return;
+    const size = 2 * (this.n + more);
+    this.ts = grown(this.ts, size);
+    this.ys = grown(this.ys, size);
+  }
+
+  push(t: number, y: number): void {
+    this.ensure(1);
+    this.ts[this.n] = t;
+    this.ys[this.n++] = y;
+  }
+
+  /** ends the current stretch, with its bound on |y'| */
+  close(upper: number): void {
+    this.upper[this.k++] = upper;
+    this.first[this.k] = this.n;
+  }
+}
+
+function grown(a: Float64Array, size: number): Float64Array {
+  const b = new Float64Array(size);
+  b.set(a);
+  return b;
+}
+
+/** The track of closed-form pieces: stretch k is the closed form of pieces[of[k]]. */
 class PieceTrack implements Track {
-  ts: number[] = [];
-  ys: number[] = [];
-  first: number[] = [0];
-  of: Piece[] = [];
+  ts: Float64Array = new Float64Array(0);
+  ys: Float64Array = new Float64Array(0);
+  first: Int32Array = Int32Array.of(0);
   slopeBounds?: { upper: Float64Array; reached: number };
   constructor(
     readonly start: number,
     readonly end: number,
+    private readonly pieces: readonly Piece[] = [],
+    private readonly of: Int32Array = new Int32Array(0),
   ) {}
 
   value(k: number, t: number): number {
-    return pieceValue(this.of[k]!, t);
+    return pieceValue(this.pieces[this.of[k]!]!, t);
   }
 }
 
-/** Builds the measurement track from the exact pieces, or from the samples when there are none. */
+/**
+ * Builds the measurement track from the exact pieces, or from the samples when there are none.
+ *
+ * A piece with the same term array as one laid out before, over the same τ range (see repeat.ts),
+ * is the same function of τ: its knots are the same τ (shifted to its own start) with the same
+ * values, and the same bounds; only the end value moves, by y'(b)·d, and the bound on |y'| by at
+ * most |y''(b)|·|d| (added twice).
+ */
 export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[]): Track {
   const n = times.length;
   if (n === 0) return new PieceTrack(0, 0);
@@ -85,40 +141,91 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
-  const track = new PieceTrack(start, end);
-  const ctx: Ctx = { track, times, step: uniformStep(times), sweeper: new Sweeper(), G: emptyGroups(), D: emptyGroups(), D2: emptyGroups(), D3: emptyGroups(), upper: [], reached: 0, laid: new Map(), lastStart: 0 };
+  const of = new Int32Array(Math.max(1, pieces.length));
+  const track = new PieceTrack(start, end, pieces, of);
+  const buf = new Buffers(pieces.length);
+  const ctx: Ctx = {
+    buf,
+    times,
+    step: uniformStep(times),
+    sweeper: new Sweeper(),
+    G: emptyGroups(),
+    D: emptyGroups(),
+    D2: emptyGroups(),
+    D3: emptyGroups(),
+    reached: 0,
+    laid: new Map(),
+    lastStart: 0,
+  };
+  const laid = ctx.laid;
+  let count = 0;
   for (let i = 0; i < pieces.length; i++) {
     const piece = pieces[i]!;
     const next = pieces[i + 1];
     const lo = Math.max(piece.t0, start);
     const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
-    if (hi < lo || (hi === lo && track.of.length > 0)) continue;
+    if (hi < lo || (hi === lo && count > 0)) continue;
+    of[count++] = i;
+    const t0 = piece.t0;
+    const seen = hi > lo ? laid.get(piece.terms) : undefined;
+    if (seen !== undefined && seen.a === lo - t0 && sameEnd(hi - t0, seen.b, hi)) {
+      // a repeat (written out here: this runs once per period of a long pulse train)
+      const d = hi - t0 - seen.b;
+      if (seen.start > ctx.reached) ctx.reached = seen.start;
+      const taus = seen.taus;
+      const vs = seen.ys;
+      const m = taus.length;
+      buf.ensure(m);
+      const ts = buf.ts;
+      const ys = buf.ys;
+      let w = buf.n;
+      ts[w] = lo;
+      ys[w++] = vs[0]!;
+      let last = lo;
+      for (let j = 1; j < m - 1; j++) {
+        const t = t0 + taus[j]!;
+        if (t > last && t < hi) {
+          ts[w] = t;
+          ys[w++] = vs[j]!;
+          last = t;
+        }
+      }
+      ts[w] = hi;
+      ys[w++] = d === 0 ? vs[m - 1]! : vs[m - 1]! + seen.endSlope * d;
+      buf.n = w;
+      buf.upper[buf.k++] = d === 0 ? seen.upper : seen.upper + 2 * seen.endCurve * Math.abs(d);
+      buf.first[buf.k] = w;
+      continue;
+    }
     // a piece covering a small part of the span needs proportionally fewer grid intervals
     // (a long pulse train has tens of thousands of short pieces); never fewer than 8
     const share = end > start ? (hi - lo) / (end - start) : 1;
-    pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)));
+    pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)), seen === undefined);
   }
-  if (track.of.length === 0) {
+  if (count === 0) {
     // Every piece lies outside the span: measure the last piece over the span.
-    pieceStretch(pieces[pieces.length - 1]!, start, end, ctx);
+    of[count++] = pieces.length - 1;
+    pieceStretch(pieces[pieces.length - 1]!, start, end, ctx, MIN_INTERVALS, false);
   }
-  track.slopeBounds = { upper: Float64Array.from(ctx.upper), reached: ctx.reached };
+  track.ts = buf.ts.subarray(0, buf.n);
+  track.ys = buf.ys.subarray(0, buf.n);
+  track.first = buf.first.subarray(0, buf.k + 1);
+  track.slopeBounds = { upper: buf.upper.subarray(0, buf.k), reached: ctx.reached };
   return track;
 }
 
 interface Ctx {
-  track: PieceTrack;
+  buf: Buffers;
   times: Float64Array;
   /** the sample step when the times are equally spaced, else NaN */
   step: number;
   sweeper: Sweeper;
-  /** scratch: the piece's terms grouped by exponent, and their derivative */
+  /** scratch: the piece's terms grouped by exponent, and their derivatives */
   G: Groups;
   D: Groups;
   D2: Groups;
   D3: Groups;
-  /** per stretch so far: an upper bound of |y'| over it; the largest |y'| at a stretch start */
-  upper: number[];
+  /** the largest |y'| at a stretch start so far */
   reached: number;
   /** stretches already laid out, by their pieces' term arrays (the periods of a steady tail share them) */
   laid: Map<Piece['terms'], Laid>;
@@ -126,60 +233,42 @@ interface Ctx {
   lastStart: number;
 }
 
-/** A stretch in τ = t − t0: its ends, knots and values, bound on |y'| and |y'| at its start. */
+/** A stretch in τ = t − t0: its ends, knots and values, bound on |y'|, |y'| at its start, y' and |y''| at its end. */
 interface Laid {
   a: number;
   b: number;
-  taus: number[];
-  ys: number[];
+  taus: Float64Array;
+  ys: Float64Array;
   upper: number;
   start: number;
+  endSlope: number;
+  endCurve: number;
 }
 
 /**
- * Appends the stretch of one piece over [lo, hi] to the track. A piece with the same term array
- * as one laid out before, over the same τ range, is the same function of τ: its knots are the
- * same τ (shifted to its own start) with the same values, and the same bounds.
+ * Appends the stretch of one piece over [lo, hi] to the track, laid out on its own; kept for the
+ * repeats when `keep` (the first range laid out for an array stays: the last period, cut short by
+ * the span, does not evict it).
  */
-function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals = MIN_INTERVALS): void {
+function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number, keep: boolean): void {
   const t0 = piece.t0;
-  const { ts, ys, first, of } = ctx.track;
-  of.push(piece);
+  const buf = ctx.buf;
   if (hi === lo) {
-    ctx.upper.push(Infinity);
-    ts.push(lo);
-    ys.push(pieceValue(piece, lo));
-    first.push(ts.length);
+    buf.push(lo, pieceValue(piece, lo));
+    buf.close(Infinity);
     return;
   }
-  const seen = ctx.laid.get(piece.terms);
-  if (seen && seen.a === lo - t0 && seen.b === hi - t0) {
-    ctx.upper.push(seen.upper);
-    if (seen.start > ctx.reached) ctx.reached = seen.start;
-    const n = seen.taus.length;
-    ts.push(lo);
-    ys.push(seen.ys[0]!);
-    for (let j = 1; j < n - 1; j++) {
-      const t = t0 + seen.taus[j]!;
-      if (t > ts[ts.length - 1]! && t < hi) {
-        ts.push(t);
-        ys.push(seen.ys[j]!);
-      }
-    }
-    ts.push(hi);
-    ys.push(seen.ys[n - 1]!);
-    first.push(ts.length);
-    return;
-  }
-  const from = ts.length;
+  const a = lo - t0;
+  const b = hi - t0;
+  const from = buf.n;
   layOut(piece, lo, hi, ctx, minIntervals);
-  if (ctx.laid.size < 4096 && lo - t0 >= 0) {
-    // kept for the repeats: the ends and the knots where the knot values turn or stay level (the
-    // signal is monotone from knot to knot, so it stays monotone across a knot it goes straight
-    // through in the same direction)
+  if (keep && ctx.laid.size < 4096 && a === 0) {
+    // the ends and the knots where the knot values turn or stay level (the signal is monotone from
+    // knot to knot, so it stays monotone across a knot it goes straight through in the same direction)
+    const { ts, ys } = buf;
     const taus: number[] = [ts[from]! - t0];
     const vals: number[] = [ys[from]!];
-    const last = ts.length - 1;
+    const last = buf.n - 1;
     for (let i = from + 1; i < last; i++) {
       const up = ys[i]! - ys[i - 1]!;
       const next = ys[i + 1]! - ys[i]!;
@@ -190,13 +279,24 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     }
     taus.push(ts[last]! - t0);
     vals.push(ys[last]!);
-    ctx.laid.set(piece.terms, { a: lo - t0, b: hi - t0, taus, ys: vals, upper: ctx.upper[ctx.upper.length - 1]!, start: ctx.lastStart });
+    // (layOut left this piece's grouped terms and their derivative in ctx.G and ctx.D)
+    const D2 = groupsDerivative(ctx.D, ctx.D2);
+    ctx.laid.set(piece.terms, {
+      a,
+      b,
+      taus: Float64Array.from(taus),
+      ys: Float64Array.from(vals),
+      upper: buf.upper[buf.k - 1]!,
+      start: ctx.lastStart,
+      endSlope: groupsValue(ctx.D, b),
+      endCurve: Math.abs(groupsValue(D2, b)),
+    });
   }
 }
 
 function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number): void {
   const t0 = piece.t0;
-  const { ts, ys, first } = ctx.track;
+  const buf = ctx.buf;
   const G = groupTerms(piece.terms, ctx.G);
   const D = groupsDerivative(G, ctx.D);
   ctx.lastStart = 0;
@@ -205,8 +305,8 @@ function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: nu
   // max|y'''|·s²/2 of the line y'(a) + y''(a)·s, so no root when that line keeps its sign by more;
   // its ends are then its only knots
   const a = lo - t0;
-  if (a < 0) ctx.upper.push(Infinity);
-  else {
+  let upper = Infinity;
+  if (a >= 0) {
     const w = hi - lo;
     const D2 = groupsDerivative(D, ctx.D2);
     const D3 = groupsDerivative(D2, ctx.D3);
@@ -215,13 +315,13 @@ function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: nu
     const d1 = d0 + s0 * w;
     const r = (groupsBound(D3, a, a + w) * w * w) / 2;
     // for the slope search: |y'| ≤ its size, and ≤ |y'(a)| + |y''(a)|·w + max|y'''|·w²/2 (Taylor)
-    ctx.upper.push(Math.min(groupsBound(D, a, a + w), Math.abs(d0) + Math.abs(s0) * w + r));
+    upper = Math.min(groupsBound(D, a, a + w), Math.abs(d0) + Math.abs(s0) * w + r);
     ctx.lastStart = Math.abs(d0);
     if (Math.abs(d0) > ctx.reached) ctx.reached = Math.abs(d0);
     if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
-      ts.push(lo, hi);
-      ys.push(groupsValue(G, a), groupsValue(G, hi - t0));
-      first.push(ts.length);
+      buf.push(lo, groupsValue(G, a));
+      buf.push(hi, groupsValue(G, hi - t0));
+      buf.close(upper);
       return;
     }
   }
@@ -239,8 +339,7 @@ function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: nu
   // knots: every grid time (repeats skipped) and every root of the derivative between two of them
   let prevT = gts[0]!;
   let prevD = gd[0]!;
-  ts.push(prevT);
-  ys.push(gy[0]!);
+  buf.push(prevT, gy[0]!);
   for (let k = 1; k < count; k++) {
     const t = gts[k]!;
     if (t === prevT) continue;
@@ -248,22 +347,18 @@ function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: nu
     if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
       const near = sw.near(D, piece, prevT - t0, t - t0);
       const r = findRoot((u) => near(u - t0), prevT, t, 1e-14, prevD, d);
-      if (r > prevT && r < t) {
-        ts.push(r);
-        ys.push(groupsValue(G, r - t0));
-      }
+      if (r > prevT && r < t) buf.push(r, groupsValue(G, r - t0));
     }
-    ts.push(t);
-    ys.push(gy[k]!);
+    buf.push(t, gy[k]!);
     prevT = t;
     prevD = d;
   }
-  first.push(ts.length);
+  buf.close(upper);
 }
 
 function sampledTrack(times: Float64Array, values: Float64Array): Track {
-  const ts = Array.from(times);
-  const ys = Array.from(values);
+  const ts = Float64Array.from(times);
+  const ys = Float64Array.from(values);
   const f = (t: number): number => {
     let lo = 0;
     let hi = ts.length - 1;
@@ -277,7 +372,7 @@ function sampledTrack(times: Float64Array, values: Float64Array): Track {
     const u = (t - ts[lo]!) / (ts[hi]! - ts[lo]!);
     return ys[lo]! + u * (ys[hi]! - ys[lo]!);
   };
-  return { ts, ys, first: [0, ts.length], value: (_k, t) => f(t), start: ts[0]!, end: ts[ts.length - 1]! };
+  return { ts, ys, first: Int32Array.of(0, ts.length), value: (_k, t) => f(t), start: ts[0]!, end: ts[ts.length - 1]! };
 }
 
 /** Value at the very end of the track (the left-hand limit at the end of the span). */

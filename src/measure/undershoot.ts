@@ -90,7 +90,7 @@ export function eventShoots(track: Track, swing: number, eventTimes?: readonly n
   // With the sources' own event times, the stretches between two events form one event (a pulse
   // edge with a finite rise is one event, not a ramp and a level); without them, every stretch.
   // event times sorted, walked alongside the stretch starts (which increase): no hashing per stretch
-  const starts = eventTimes ? Float64Array.from(eventTimes).sort() : null;
+  const starts = eventTimes ? ascending(eventTimes) : null;
   let p = 0;
   const isStart = (t: number) => {
     if (p > 0 && starts![p - 1]! > t) p = 0;
@@ -125,5 +125,12 @@ export function eventShoots(track: Track, swing: number, eventTimes?: readonly n
     lastNonEmpty = k;
   }
   close(lastNonEmpty + 1);
+  return out;
+}
+
+/** The times in increasing order (as given when they already are: a long train has 10⁴ of them). */
+function ascending(times: readonly number[]): Float64Array {
+  const out = Float64Array.from(times);
+  for (let i = 1; i < out.length; i++) if (!(out[i - 1]! <= out[i]!)) return out.sort();
   return out;
 }
