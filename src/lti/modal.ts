@@ -1,6 +1,6 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { eig } from '../linalg/eig.js';
-import { type Mat, identity, matmul, matvec, zeros } from '../linalg/dense.js';
+import { type Mat, identity, matmul, matvec, toArray } from '../linalg/dense.js';
 import { symmetrize } from '../linalg/symmetrize.js';
 import { solveSquare } from '../linalg/factor.js';
 import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
@@ -59,9 +59,8 @@ export function modalDecomposition(A: Mat): Modal {
   const snapped = new Set<number>();
   for (let i = 0; i < n; i++) {
     // a real eigenvalue below ‖A‖'s round-off may still be a genuine slow mode (a 10 s time
-    // constant beside a 1 ps one): zero only if within round-off of the entries it comes from
-    const small = Math.hypot(re[i], im[i]) <= tiny;
-    if (small && (im[i] !== 0 || re[i] === 0 || Math.abs(re[i]) <= 1e-12 * componentwiseScale(A, re[i], V.map((row) => row[i])))) {
+    // constant beside a 1 ps one): kept when its eigenpair is verified to its own size
+    if (Math.hypot(re[i], im[i]) <= tiny && !(im[i] === 0 && re[i] !== 0 && verifiedSlow(A, re[i], V.map((row) => row[i])))) {
       if (im[i] !== 0) snapped.add(i);
       re[i] = 0;
       im[i] = 0;
@@ -85,18 +84,19 @@ export function modalDecomposition(A: Mat): Modal {
   // (critical damping and its neighbourhood). Sorted by real part, only neighbours within the
   // closeness window are compared.
   const order = groups.map((_, g) => g).sort((a, b) => re[groups[a][0]] - re[groups[b][0]]);
-  for (let x = 0; x < order.length; x++) {
+  // per group its largest |λ| (the pair scan below is O(n²) in the worst case: no allocations in it)
+  const groupScale = groups.map((G) => (G.length === 1 ? scaleOf(G[0]) : Math.max(scaleOf(G[0]), scaleOf(G[1]))));
+  for (let x = 0; x < order.length && !symScale; x++) {
     const g = order[x];
     const G = groups[g];
     for (let y = x + 1; y < order.length; y++) {
       const h = order[y];
       const H = groups[h];
-      const big = Math.max(...G.map(scaleOf), ...H.map(scaleOf));
+      const big = Math.max(groupScale[g], groupScale[h]);
       if (re[H[0]] - re[G[0]] > CLOSE * big + tiny) break;
       let dist = Infinity;
       for (const i of G) for (const j of H) dist = Math.min(dist, Math.hypot(re[i] - re[j], im[i] - im[j]));
       const equal = dist <= 1e-9 * big + tiny;
-      if (symScale) break;
       if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
@@ -107,7 +107,8 @@ export function modalDecomposition(A: Mat): Modal {
   });
   const cols: number[][] = []; // columns of W, per block
   const specs: { kind: Block['kind']; eig: { re: number; im: number }[] }[] = [];
-  const Wcols: number[][] = [];
+  // W's columns: a column of V (its index) or a cluster's basis vector
+  const Wcols: (number | number[])[] = [];
   for (const gs of members.values()) {
     const idx = gs.flatMap((g) => groups[g]);
     const eig = idx.map((i) => ({ re: re[i], im: im[i] }));
@@ -116,21 +117,34 @@ export function modalDecomposition(A: Mat): Modal {
     const nearRealPair = gs.length === 1 && idx.length === 2 && (Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]) || snapped.has(idx[0]));
     const isCluster = gs.length > 1 || nearRealPair;
     const kind: Block['kind'] = isCluster ? 'cluster' : idx.length === 2 ? 'pair' : 'real';
-    const basis = isCluster ? invariantSubspace(A, eig) : idx.map((i) => V.map((row) => row[i]));
+    const basis: (number | number[])[] = isCluster ? invariantSubspace(A, eig) : idx;
     const start = Wcols.length;
     for (const c of basis) Wcols.push(c);
     cols.push(basis.map((_, k) => start + k));
     specs.push({ kind, eig });
   }
-  const W = zeros(n, n);
-  Wcols.forEach((c, j) => c.forEach((v, i) => (W[i][j] = v)));
+  // filled by rows (V is row-major)
+  const W: Mat = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const Vi = V[i];
+    const row = new Array<number>(n);
+    for (let j = 0; j < n; j++) {
+      const c = Wcols[j];
+      row[j] = typeof c === 'number' ? Vi[c] : c[i];
+    }
+    W[i] = row;
+  }
   // W⁻¹ from a weighted orthogonality when A is self-adjoint for some diagonal weight: positive
   // (RC) or of either sign (ladders of L and C, where couplings come in opposite-sign pairs)
   const weights = symScale ? Array.from(symScale, (d) => 1 / (d * d)) : selfAdjointWeights(A);
-  const sym = weights ? weightedInverse(weights, W, cols) : null;
-  const lu = sym ? null : luFactor(W);
+  const inv = weights ? weightedInverse(weights, W, cols) : null;
+  const sym = inv && inv.err <= 1e-12 ? inv.Winv : null;
+  // eigenvectors of a non-normal matrix (RLC meshes) satisfy the orthogonality only to ~1e-11:
+  // then that inverse refines the solves instead of an LU of W
+  const near = !sym && inv && inv.err <= 1e-6 ? inv.Winv : null;
+  const lu = sym || near ? null : luFactor(W);
   if (lu && luSingular(lu)) throw new Error('the eigenvectors of the state matrix do not form a basis (singular modal matrix)');
-  const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
+  const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : near ? refinedSolve(W, near, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
   let full: Mat | null = sym;
   const blocks: Block[] = cols.map((index, b) => ({
     kind: specs[b].kind,
@@ -225,15 +239,34 @@ function selfAdjointWeights(A: Mat): number[] | null {
  * sign), eigenvectors of different blocks are orthogonal in the bilinear form xᵀ·M·y (no complex
  * conjugation: the real and imaginary parts of a pair's vector are orthogonal to every other
  * block's too), so W⁻¹ = G⁻¹·Wᵀ·M with G = Wᵀ·M·W block diagonal: O(n²) instead of an LU of W.
- * Verified on a random vector (W⁻¹·W·r = r); null when the check fails (then the caller factors W).
+ * Returned with its error on a random vector, ‖W⁻¹·W·r − r‖/‖r‖ (the caller decides whether it is
+ * the inverse or a preconditioner); null when a block is neutral in the form.
  */
-function weightedInverse(w2: number[], W: Mat, cols: number[][]): Mat | null {
+function weightedInverse(w2: number[], W: Mat, cols: number[][]): { Winv: Mat; err: number } | null {
   const n = W.length;
-  const Winv = zeros(n, n);
+  // W's columns, each contiguous
+  const Wt = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    const row = W[i];
+    for (let j = 0; j < n; j++) Wt[j * n + i] = row[j];
+  }
+  const Winv: Mat = new Array(n);
+  const out = new Float64Array(n);
   for (const index of cols) {
     // G_b = W_bᵀ·M·W_b and the rows W_bᵀ·M
-    const rows = index.map((j) => W.map((row, k) => row[j] * w2[k]));
-    const G = index.map((_, a) => index.map((j) => rows[a].reduce((acc, v, k) => acc + v * W[k][j], 0)));
+    const rows = index.map((j) => {
+      const r = new Float64Array(n);
+      for (let k = 0; k < n; k++) r[k] = Wt[j * n + k] * w2[k];
+      return r;
+    });
+    const G = index.map((_, a) =>
+      index.map((j) => {
+        const r = rows[a];
+        let acc = 0;
+        for (let k = 0; k < n; k++) acc += r[k] * Wt[j * n + k];
+        return acc;
+      }),
+    );
     let inv: Mat;
     try {
       inv = index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length));
@@ -241,11 +274,12 @@ function weightedInverse(w2: number[], W: Mat, cols: number[][]): Mat | null {
       return null; // a block neutral in the indefinite form: no inverse this way
     }
     index.forEach((i, a) => {
-      const out = Winv[i];
+      out.fill(0);
       inv[a].forEach((g, b) => {
         const r = rows[b];
         for (let k = 0; k < n; k++) out[k] += g * r[k];
       });
+      Winv[i] = toArray(out);
     });
   }
   // W⁻¹·(W·r) must give r back
@@ -258,7 +292,39 @@ function weightedInverse(w2: number[], W: Mat, cols: number[][]): Mat | null {
     err = Math.max(err, Math.abs(back[i] - r[i]));
     size = Math.max(size, Math.abs(r[i]));
   }
-  return err <= 1e-12 * size ? Winv : null;
+  return { Winv, err: err / size };
+}
+
+/**
+ * W⁻¹·M by iterative refinement with an approximate inverse P (‖I − P·W‖ ≪ 1): X ← X + P·(M − W·X)
+ * until each column's correction is round-off of that column. Every step multiplies the error by
+ * ‖I − P·W‖, so two or three reach working precision, and the residual is the given W's own (as
+ * with an LU solve) however inexact P is. O(n²) per column instead of the O(n³) factorization.
+ */
+function refinedSolve(W: Mat, P: Mat, M: Mat): Mat {
+  const c = M.length ? M[0].length : 0;
+  if (c === 0) return M.map(() => []);
+  let X = matmul(P, M, c);
+  for (let step = 0; step < 5; step++) {
+    const WX = matmul(W, X, c);
+    const D = matmul(
+      P,
+      M.map((row, i) => row.map((v, j) => v - WX[i][j])),
+      c,
+    );
+    const dMax = new Array<number>(c).fill(0);
+    const xMax = new Array<number>(c).fill(0);
+    X = X.map((row, i) =>
+      row.map((v, j) => {
+        const x = v + D[i][j];
+        dMax[j] = Math.max(dMax[j], Math.abs(D[i][j]));
+        xMax[j] = Math.max(xMax[j], Math.abs(x));
+        return x;
+      }),
+    );
+    if (dMax.every((d, j) => d <= 4 * Number.EPSILON * xMax[j])) break;
+  }
+  return X;
 }
 
 /** Sine of the largest principal angle between span(V[:,a]) and span(V[:,b]), roughly. */
@@ -283,7 +349,8 @@ function unitColumns(V: Mat): (j: number) => Float64Array {
   return (j) => {
     let c = cache.get(j);
     if (!c) {
-      c = Float64Array.from(V, (row) => row[j]);
+      c = new Float64Array(V.length);
+      for (let k = 0; k < V.length; k++) c[k] = V[k][j];
       let s = 0;
       for (const v of c) s += v * v;
       s = Math.sqrt(s) || 1;
@@ -344,19 +411,30 @@ function invariantSubspace(A: Mat, eig: { re: number; im: number }[]): number[][
 }
 
 /**
- * |w|ᵀ·|A|·|v| / |wᵀ·v| for the real eigenvalue λ with right eigenvector v (w: its left
- * eigenvector, by inverse iteration): the first-order change of λ when every entry of A moves by
- * its own relative round-off. Infinite when w cannot be found (then λ is taken as round-off).
+ * Whether a real eigenvalue λ far below ‖A‖ is resolved to its own size: its eigenpair satisfies
+ * A·v = λ·v to 1e-11 of |λ|·‖v‖ (the eigen-solver's error is of ‖A‖'s size in general, so only a
+ * mode it computed exactly, e.g. one that does not couple to the fast ones, passes), and λ moves by
+ * less than 1e-12 of itself when each entry of A moves by its own relative round-off
+ * (|w|ᵀ·|A|·|v| / |wᵀ·v|, w the left eigenvector by inverse iteration).
  */
-function componentwiseScale(A: Mat, lambda: number, v: number[]): number {
+function verifiedSlow(A: Mat, lambda: number, v: number[]): boolean {
   const n = A.length;
+  let vmax = 0;
+  let res = 0;
+  for (let i = 0; i < n; i++) {
+    vmax = Math.max(vmax, Math.abs(v[i]));
+    let acc = -lambda * v[i];
+    for (let j = 0; j < n; j++) acc += A[i][j] * v[j];
+    res = Math.max(res, Math.abs(acc));
+  }
+  if (!(res <= 1e-11 * Math.abs(lambda) * vmax)) return false;
   const f = luFactor(A.map((_, i) => A.map((row, j) => row[i] - (i === j ? lambda : 0))));
-  if (luSingular(f)) return Infinity;
+  if (luSingular(f)) return false;
   let w = Array.from({ length: n }, (_, i) => [1 + (i % 7) / 10]);
   for (let it = 0; it < 3; it++) {
     w = luSolve(f, w);
     const s = Math.max(...w.map((r) => Math.abs(r[0])));
-    if (!(s > 0 && Number.isFinite(s))) return Infinity;
+    if (!(s > 0 && Number.isFinite(s))) return false;
     w = w.map((r) => [r[0] / s]);
   }
   let top = 0;
@@ -367,5 +445,5 @@ function componentwiseScale(A: Mat, lambda: number, v: number[]): number {
     for (let j = 0; j < n; j++) row += Math.abs(A[i][j] * v[j]);
     top += Math.abs(w[i][0]) * row;
   }
-  return Math.abs(wv) > 0 ? top / Math.abs(wv) : Infinity;
+  return Math.abs(lambda) * Math.abs(wv) > 1e-12 * top;
 }
