@@ -91,15 +91,26 @@ export function periodicSteadyState(
   if (!map) return null;
   const { Phi, xiStar, sched } = map;
   const steady = solveExact(ss, modal, readouts, sched, xiStar, period);
-  // deviation rows C·e^(Aτ) at 64 points of a period
+  // deviation rows C·e^(Aτ) at 64 points of a period: column i is the free response of the
+  // read-outs from the unit state eᵢ, one closed form per state
   const taus = Array.from({ length: 64 }, (_, j) => (period * j) / 64);
-  const props = taus.map((tau) => freePropagator(ss, modal, tau));
+  const n = ss.n;
+  const free = freeSchedule(period);
+  const rowsOf = readouts.map(() => taus.map(() => new Array<number>(n).fill(0)));
+  for (let i = 0; i < n; i++) {
+    const e = new Array<number>(n).fill(0);
+    e[i] = 1;
+    solveExact(ss, modal, readouts, free, e, period).pieces.forEach((ps, idx) => {
+      const terms = ps[0].terms;
+      taus.forEach((tau, j) => (rowsOf[idx][j][i] = termsValue(terms, tau)));
+    });
+  }
   const watches = circuit.watches.map((w, idx) => {
     const pieces = steady.pieces[idx];
     const { min, max } = extremes(pieces, from, period);
     const mean = pieces.reduce((s, p) => s + integrateTerms(p.terms, p.t1 - p.t0), 0) / period;
     const ms = pieces.reduce((s, p) => s + integrateProduct(p.terms, p.terms, p.t1 - p.t0), 0) / period;
-    const rows = props.map((E) => rowTimes(readouts[idx].C, E));
+    const rows = rowsOf[idx];
     const y0 = termsValue(pieces[0].terms, 0);
     const band = bandOf(circuit.analysis.settle, mean, y0, Math.max(Math.abs(min), Math.abs(max)), xiFrom, xiStar, readouts[idx]);
     return { label: w.label, min, max, mean, rms: Math.sqrt(Math.max(ms, 0)), pieces, settledAfterPeriods: periodsToSettle(Phi, rows, xiFrom.map((v, i) => v - xiStar[i]), band) };
@@ -145,10 +156,15 @@ export function periodsToRoundOff(Phi: Mat, d0: Vec, scale: number, limit: numbe
   return null;
 }
 
+/** No sources over [0, τ]. */
+function freeSchedule(tau: number): InputSchedule {
+  return { intervals: [{ t0: 0, t1: tau, components: [], slopes: [] }], diracs: [], jumps: [], outside: [], approximation: [] };
+}
+
 /** e^(A·τ) in the canonical state coordinates, from the modal blocks (exact). */
 function freePropagator(ss: StateSpace, modal: Modal, tau: number): Mat {
   const n = ss.n;
-  const zero: InputSchedule = { intervals: [{ t0: 0, t1: tau, components: [], slopes: [] }], diracs: [], jumps: [], outside: [], approximation: [] };
+  const zero = freeSchedule(tau);
   const cols = Array.from({ length: n }, (_, j) => {
     const e = new Array<number>(n).fill(0);
     e[j] = 1;
@@ -207,11 +223,4 @@ function extremes(pieces: Piece[], from: number, period: number): { min: number;
     return Math.max(sign * g((a + b) / 2), sign * vals[i]) * sign === vals[i] * sign ? Math.max(g((a + b) / 2), sign * vals[i]) * sign : sign * Math.max(g((a + b) / 2), sign * vals[i]);
   };
   return { max: refine(iMax, 1), min: refine(iMin, -1) };
-}
-
-function rowTimes(row: Vec, M: Mat): Vec {
-  const n = M.length ? M[0].length : 0;
-  const out = new Array<number>(n).fill(0);
-  for (let i = 0; i < row.length; i++) for (let j = 0; j < n; j++) out[j] += row[i] * M[i][j];
-  return out;
 }

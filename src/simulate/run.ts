@@ -195,12 +195,15 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
     }
     const nw = P.readouts.length;
     const exact = { pieces: all.pieces.slice(0, nw), final: all.final };
-    // (a loop, not push(...): a long pulse train has more pieces than a call can take arguments)
+    // (the solution's own arrays for the first epoch; then a loop, not push(...): a long pulse
+    // train has more pieces than a call can take arguments)
     exact.pieces.forEach((ps, w) => {
-      for (const p of ps) pieces[w].push(p);
+      if (pieces[w].length === 0) pieces[w] = ps;
+      else for (const p of ps) pieces[w].push(p);
     });
     all.pieces.slice(nw).forEach((ps, q) => {
-      for (const p of ps) partPieces[q].push(p);
+      if (partPieces[q].length === 0) partPieces[q] = ps;
+      else for (const p of ps) partPieces[q].push(p);
     });
 
     // independent check of this epoch: in the time domain while the matrix exponential is cheap,

@@ -89,10 +89,12 @@ export function steadyTail(q: TailRequest): SteadyTail | null {
     if (Math.abs(len - want) > 1e-9 * T && !(k + 2 === times.length && len < want)) return null;
   }
   const pieces = exact.pieces.map((own, r) => {
-    const out = own.slice();
-    for (let k = 0; k + 1 < times.length; k++) {
-      const p = steady[r][k % P];
+    const out = own;
+    const phases = steady[r];
+    for (let k = 0, j = 0; k + 1 < times.length; k++) {
+      const p = phases[j];
       out.push({ t0: times[k], t1: times[k + 1], terms: p.terms, impulseArea: p.impulseArea });
+      if (++j === P) j = 0;
     }
     return out;
   });

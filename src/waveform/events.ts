@@ -15,7 +15,10 @@ export function eventTimes(circuit: Circuit, span: number): number[] {
     if (p.waveform) waveformEvents(p.waveform, span, add);
     for (const e of p.switching?.events ?? []) add(e.t);
   }
-  const sorted = Float64Array.from(all).sort();
+  // (a single pulse train adds its edges in order, after the leading 0)
+  let inOrder = true;
+  for (let i = 1; i < all.length && inOrder; i++) inOrder = all[i - 1] <= all[i];
+  const sorted = inOrder ? all : Float64Array.from(all).sort();
   const out: number[] = [];
   // (−0 reads as 0, as in a set)
   for (const t of sorted) if (out.length === 0 || t !== out[out.length - 1]) out.push(t === 0 ? 0 : t);

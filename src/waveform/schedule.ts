@@ -76,13 +76,23 @@ function modelsOf(waves: Waveform[], span: number): Models {
  * times, so that a caller can lay other pieces on them).
  */
 export function breakpointTimes(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = [], models: Models = modelsOf(waves, span)): number[] {
-  // (sorted then deduplicated: a set of 10⁴ float keys costs more)
-  const raw: number[] = [from, span, ...extraBreaks.filter((t) => t > from && t < span)];
+  // sorted then deduplicated (a set of 10⁴ float keys costs more); a single pulse train gives its
+  // corners in order, and then nothing needs sorting
+  const raw: number[] = [from];
   for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.push(t);
+  raw.push(span);
+  for (const t of extraBreaks) if (t > from && t < span) raw.push(t);
   for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.push(t.at);
-  const sorted = Float64Array.from(raw).sort();
+  let inOrder = true;
+  for (let i = 1; i < raw.length && inOrder; i++) inOrder = raw[i - 1] <= raw[i];
+  const sorted = inOrder ? raw : Float64Array.from(raw).sort();
   const times: number[] = [];
-  for (const t of sorted) if (times.length === 0 || t !== times[times.length - 1]) times.push(t);
+  let last = NaN;
+  for (let i = 0; i < sorted.length; i++) {
+    const t = sorted[i];
+    if (t !== last) times.push(t);
+    last = t;
+  }
   return times;
 }
 
