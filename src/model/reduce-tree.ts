@@ -65,9 +65,12 @@ export function reduceTree(circuit: Circuit, d: Descriptor): TreeReduction | nul
     if (p.a === p.b) return null;
   }
   const byKind = (k: Kind) => parts.filter((p) => kindOf(p) === k);
-  // inductors in reverse order, so that the first declared stay links (states), as capacitors
-  // declared first become tree branches (states): the same preference as the general path
-  const order = [...byKind('V'), ...byKind('C'), ...byKind('R'), ...byKind('L').reverse()];
+  // Within a kind: the largest capacitors and the smallest inductors in the tree. In a loop the
+  // smallest capacitor takes most of the voltage and in a cut-set the smallest inductor most of the
+  // current, so a branch computed as a sum over its loop (cut-set) is the large one, and the small
+  // quantities are states of their own (1 fF beside 1 kF keeps its digits). Ties: declaration order.
+  const bySize = (k: Kind, sign: number) => byKind(k).map((p, i) => ({ p, i })).sort((x, y) => sign * (y.p.value - x.p.value) || x.i - y.i).map((x) => x.p);
+  const order = [...byKind('V'), ...bySize('C', 1), ...byKind('R'), ...bySize('L', -1)];
   const uf = new UnionFind();
   const inTree = new Set<Part>();
   for (const p of order) {
