@@ -63,13 +63,29 @@ export function luSingular(f: LU): boolean {
 
 /** Solve A·X = B for a matrix B (n × m), returning nested arrays. */
 export function luSolve(f: LU, b: number[][]): number[][] {
-  const { n, lu, piv } = f;
+  const { n, piv } = f;
   const m = n ? b[0].length : 0;
   const x = new Float64Array(n * m);
   for (let i = 0; i < n; i++) {
     const src = b[piv[i]];
     for (let j = 0; j < m; j++) x[i * m + j] = src[j];
   }
+  substitute(f, x, m);
+  return Array.from({ length: n }, (_, i) => toArray(x, i * m, m));
+}
+
+/** Solve A·X = B with B and X row-major in flat arrays of m columns. */
+export function luSolveFlat(f: LU, b: Float64Array, m: number): Float64Array {
+  const { n, piv } = f;
+  const x = new Float64Array(n * m);
+  for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) x[i * m + j] = b[piv[i] * m + j];
+  substitute(f, x, m);
+  return x;
+}
+
+/** Forward and back substitution on the permuted right-hand sides x (n × m, row-major). */
+function substitute(f: LU, x: Float64Array, m: number): void {
+  const { n, lu } = f;
   for (let i = 0; i < n; i++) {
     const ri = i * n;
     for (let k = 0; k < i; k++) {
@@ -88,5 +104,4 @@ export function luSolve(f: LU, b: number[][]): number[][] {
     const d = lu[ri + i];
     for (let j = 0; j < m; j++) x[i * m + j] /= d;
   }
-  return Array.from({ length: n }, (_, i) => toArray(x, i * m, m));
 }

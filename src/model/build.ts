@@ -1,9 +1,10 @@
 import type { Circuit, Part } from '../circuit/circuit.js';
+import { GROUND } from '../circuit/circuit.js';
 import { type Mat, type Vec, add, cols, matmul, matvec, pickRows, transpose, zeros } from '../linalg/dense.js';
 import { pinvSolve, rankSplit, solveSquare } from '../linalg/factor.js';
 import { type Descriptor, type Probe, buildDescriptor, currentProbe, voltageProbe } from './descriptor.js';
 import { type Reduction, ReductionError, independentRows, reduceDescriptor } from './reduce.js';
-import { reduceIndexOne } from './reduce-index1.js';
+import { type SparseRow, reduceIndexOne } from './reduce-index1.js';
 import { type TreeReduction, reduceTree } from './reduce-tree.js';
 import type { Readout, StateSpace, StateVariable } from './state-space.js';
 
@@ -45,7 +46,7 @@ export function buildModel(circuit: Circuit): Model {
   // stay zeros), otherwise the general rank-revealing reduction on an equilibrated system. Rank
   // decisions depend on the scaling; a few are tried in turn (capacitance-based, conductance-based,
   // none) before the circuit is declared to have no unique solution.
-  const direct = reduceIndexOne(d.E, d.A, d.B, d.nz, m);
+  const direct = reduceIndexOne(d, m);
   // next the normal-tree state equations (no rank decisions: exact where capacitor loops and
   // inductor cut-sets meet parts of very different size), checked by substitution like the rest
   const tree = direct ? null : reduceTree(circuit, d);
@@ -57,10 +58,10 @@ export function buildModel(circuit: Circuit): Model {
   let lastError: unknown = null;
   const attempts = direct || treeResidual <= 1e-12
     ? [{ scales: variableScales(d), tol: 1e-10 }]
-    : [variableScales(d), conductanceScales(d), d.E.map(() => 1)].flatMap((sc) => [1e-10, 1e-7, 1e-13].map((tol) => ({ scales: sc, tol })));
+    : [variableScales(d), conductanceScales(d), ones(d.nz)].flatMap((sc) => [1e-10, 1e-7, 1e-13].map((tol) => ({ scales: sc, tol })));
   // the attempt whose substitution best satisfies the circuit equations wins
   let best: { red: Reduction; s: number[]; Es: Mat; As: Mat; residual: number } | null = tree
-    ? { red: tree, s: d.E.map(() => 1), Es: d.E, As: d.A, residual: treeResidual }
+    ? { red: tree, s: ones(d.nz), Es: d.E, As: d.A, residual: treeResidual }
     : null;
   for (const { scales, tol } of attempts) {
     const sc = scales;
@@ -69,7 +70,7 @@ export function buildModel(circuit: Circuit): Model {
       // path's consistent initialization)
       best = {
         red: direct,
-        s: d.E.map(() => 1),
+        s: ones(d.nz),
         Es: [],
         As: [],
         residual: 0,
@@ -98,28 +99,39 @@ export function buildModel(circuit: Circuit): Model {
   Es = best.Es;
   As = best.As;
   const reductionError = best.residual;
-  const np = cols(red.Zp, 0);
-  // z = S·Zp·p + Σ S·Zu[j]·u^(j)
+  const r = red;
+  const np = direct ? direct.index1.d.length : cols(r.Zp, 0);
+  // z = S·Zp·p + Σ S·Zu[j]·u^(j); the index-one path hands out Zp's rows one at a time
   const unit = s.every((v) => v === 1);
-  const SZp = unit ? red.Zp : red.Zp.map((row, i) => row.map((v) => v * s[i]));
+  let SZpDense: Mat | null = null;
+  const SZp = (): Mat => (SZpDense ??= unit ? r.Zp : r.Zp.map((row, i) => row.map((v) => v * s[i])));
+  const zpRow = direct ? direct.zpRow : (i: number) => SZp()[i];
   const SZu = unit ? red.Zu : red.Zu.map((Z) => Z.map((row, i) => row.map((v) => v * s[i])));
 
   const physical = physicalQuantities(circuit, d);
   // the tree's states are capacitor voltages and inductor currents themselves: X = I exactly
   const treeStates = isTree(red) ? red.stateParts.map((name) => physical.findIndex((q) => q.part.name === name)) : null;
-  const Xall = treeStates ? [] : physical.map((q) => rowTimes(q.probe.cz, SZp, np));
-  const chosen = treeStates ?? independentRows(Xall, np);
+  // X a signed permutation (the tree; the index-one path when every capacitor has a node of its
+  // own to ground): X⁻¹ = Xᵀ and A = X·F·Xᵀ are exact copies, no O(n³) solve or product
+  const perm = treeStates ? { col: treeStates.map((_, i) => i), sign: treeStates.map(() => 1) } : direct ? signedPermutation(physical, direct.index1.d, np) : null;
+  const Xall = treeStates || perm ? [] : physical.map((q) => rowTimesSparse(q.cz, zpRow, np));
+  const chosen = treeStates ?? (perm ? physical.map((_, i) => i) : independentRows(Xall, np));
   if (chosen.length !== np || chosen.some((i) => i < 0)) throw new ReductionError('could not choose independent capacitor voltages and inductor currents as states');
-  const X = treeStates ? identityOf(np) : pickRows(Xall, chosen);
-  const Xu = treeStates ? SZu.map(() => zeros(np, m)) : SZu.map((Z) => chosen.map((i) => rowTimes(physical[i].probe.cz, Z, m)));
-  const Xinv = np ? solveSquare(X, identityOf(np)) : [];
-  const F = red.F;
-  const Ax = np ? matmul(matmul(X, F, np), Xinv, np) : [];
+  const X = perm ? [] : pickRows(Xall, chosen);
+  const Xu = treeStates ? SZu.map(() => zeros(np, m)) : SZu.map((Z) => chosen.map((i) => rowTimesSparse(physical[i].cz, Z, m)));
+  const Xinv = np && !perm ? solveSquare(X, identityOf(np)) : [];
+  const applyX = (v: Vec): Vec => (perm ? perm.col.map((c, i) => 0 + perm.sign[i] * v[c]) : matvec(X, v));
+  const rows = (M: Mat, c: number): Mat => (perm ? perm.col.map((k, i) => M[k].map((v) => 0 + perm.sign[i] * v)) : matmul(X, M, c));
+  // F·(row): by F's sparse rows on the index-one path
+  const rowTimesF = (row: Vec): Vec => (direct ? rowTimesSparseRows(row, direct.Frows, np) : matmul([row], r.F, np)[0]);
+  const Ax = !np ? [] : perm ? permutedCopy(perm, direct ? direct.Frows : r.F, np) : matmul(matmul(X, r.F, np), Xinv, np);
+  // x → p: the states' own coordinates
+  const toStates = (cp: Vec): Vec => (perm ? perm.col.map((c, i) => 0 + cp[c] * perm.sign[i]) : vecMat(cp, Xinv, np));
   // Bx[j] = X·G[j] − Ax·Xu[j] + Xu[j−1]
   const order = Math.max(red.G.length, Xu.length + 1);
   const Bx: Mat[] = [];
   for (let j = 0; j < order; j++) {
-    let b = j < red.G.length ? matmul(X, red.G[j], m) : zeros(np, m);
+    let b = j < red.G.length ? rows(red.G[j], m) : zeros(np, m);
     if (j < Xu.length) b = add(b, matmul(Ax, Xu[j], m), -1);
     if (j > 0 && j - 1 < Xu.length) b = add(b, Xu[j - 1]);
     Bx.push(b);
@@ -141,17 +153,17 @@ export function buildModel(circuit: Circuit): Model {
 
   const readout = (probe: Probe): Readout => {
     // y = cz·z + cd·z' + du·u in p and u^(j), then p = Xinv·(x − Σ Xu[j]·u^(j)), x = ξ + Bx1·u.
-    const cp = add([rowTimes(probe.cz, SZp, np)], matmul([rowTimes(probe.cd, SZp, np)], F, np))[0] ?? [];
+    const cp = np ? addVec(rowTimesRows(probe.cz, zpRow, np), rowTimesF(rowTimesRows(probe.cd, zpRow, np))) : [];
     const dp: Vec[] = [];
     for (let j = 0; j < order + 1; j++) {
       const v = new Array<number>(m).fill(0);
       if (j < SZu.length) addInto(v, rowTimes(probe.cz, SZu[j], m));
-      if (j < red.G.length) addInto(v, vecMat(rowTimes(probe.cd, SZp, np), red.G[j], m));
+      if (j < red.G.length) addInto(v, vecMat(rowTimesRows(probe.cd, zpRow, np), red.G[j], m));
       if (j > 0 && j - 1 < SZu.length) addInto(v, rowTimes(probe.cd, SZu[j - 1], m));
       if (j === 0) addInto(v, probe.du);
       dp.push(v);
     }
-    const C = np ? vecMat(cp, Xinv, np) : [];
+    const C = np ? toStates(cp) : [];
     const dx = dp.map((v, j) => (j < Xu.length ? addVec(v, vecMat(C, Xu[j], m), -1) : v));
     for (let j = 2; j < dx.length; j++) {
       if (dx[j].some((v) => Math.abs(v) > 1e-12 * (1 + Math.max(0, ...dx[0].map(Math.abs), ...C.map(Math.abs))))) {
@@ -162,7 +174,7 @@ export function buildModel(circuit: Circuit): Model {
     return { C, D, D1: dx[1] ?? new Array(m).fill(0) };
   };
 
-  const init: InitContext = { circuit, d, s, Zp: red.Zp, Zu: red.Zu, np, X, Xu, chosen, physical };
+  const init: InitContext = { circuit, d, s, zpRow: direct ? direct.zpRow : (i) => r.Zp[i], Zp: () => r.Zp, Zu: red.Zu, np, applyX, Xu, chosen, physical };
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
     isTree(red)
       ? treeInitial(init, red, before, u0)
@@ -186,16 +198,88 @@ export function buildModel(circuit: Circuit): Model {
 interface PhysicalQuantity {
   part: Part;
   kind: StateVariable['kind'];
-  probe: Probe;
+  /** the probe's nonzeros in z, ascending (a node pair or a branch current) */
+  cz: SparseEntry[];
+  /** the full probe, formed on first use */
+  readonly probe: Probe;
+}
+
+interface SparseEntry {
+  i: number;
+  c: number;
 }
 
 function physicalQuantities(circuit: Circuit, d: Descriptor): PhysicalQuantity[] {
   const out: PhysicalQuantity[] = [];
+  const nodeIndex = new Map(d.nodes.map((n, i) => [n, i]));
+  const lazy = (part: Part, kind: StateVariable['kind'], cz: SparseEntry[], make: () => Probe): PhysicalQuantity => {
+    let probe: Probe | null = null;
+    return {
+      part,
+      kind,
+      cz,
+      get probe() {
+        return (probe ??= make());
+      },
+    };
+  };
   for (const p of circuit.parts) {
-    if (p.kind === 'capacitor') out.push({ part: p, kind: 'capacitor-voltage', probe: voltageProbe(d, p.a, p.b) });
-    if (p.kind === 'inductor') out.push({ part: p, kind: 'inductor-current', probe: currentProbe(d, p) });
+    if (p.kind === 'capacitor') {
+      // v(a) − v(b), as voltageProbe writes it
+      const at = new Map<number, number>();
+      const ia = p.a === GROUND ? -1 : (nodeIndex.get(p.a) ?? -1);
+      const ib = p.b === GROUND ? -1 : (nodeIndex.get(p.b) ?? -1);
+      if (ia >= 0) at.set(ia, (at.get(ia) ?? 0) + 1);
+      if (ib >= 0) at.set(ib, (at.get(ib) ?? 0) - 1);
+      const cz = [...at].filter(([, c]) => c !== 0).map(([i, c]) => ({ i, c })).sort((x, y) => x.i - y.i);
+      out.push(lazy(p, 'capacitor-voltage', cz, () => voltageProbe(d, p.a, p.b)));
+    }
+    if (p.kind === 'inductor') out.push(lazy(p, 'inductor-current', [{ i: d.branchIndex.get(p.name)!, c: 1 }], () => currentProbe(d, p)));
   }
   return out;
+}
+
+/**
+ * States = physical quantities in order when each is ± one differential unknown of its own (a
+ * grounded capacitor's node, an inductor's current): X is then a signed permutation.
+ */
+function signedPermutation(physical: PhysicalQuantity[], diff: number[], np: number): { col: number[]; sign: number[] } | null {
+  if (physical.length !== np) return null;
+  const pos = new Map(diff.map((i, k) => [i, k]));
+  const seen = new Uint8Array(np);
+  const col: number[] = [];
+  const sign: number[] = [];
+  for (const q of physical) {
+    if (q.cz.length !== 1 || Math.abs(q.cz[0].c) !== 1) return null;
+    const k = pos.get(q.cz[0].i);
+    if (k === undefined || seen[k]) return null;
+    seen[k] = 1;
+    col.push(k);
+    sign.push(q.cz[0].c);
+  }
+  return { col, sign };
+}
+
+/** A = X·F·Xᵀ for a signed permutation X, from F's dense or sparse rows. */
+function permutedCopy(perm: { col: number[]; sign: number[] }, F: Mat | SparseRow[], np: number): Mat {
+  const inv = new Int32Array(np);
+  perm.col.forEach((c, i) => (inv[c] = i));
+  return perm.col.map((c, i) => {
+    const out = new Array<number>(np).fill(0);
+    const row = F[c];
+    const si = perm.sign[i];
+    if (Array.isArray(row)) {
+      for (let j = 0; j < np; j++) if (row[j] !== 0) out[inv[j]] = 0 + si * row[j] * perm.sign[inv[j]];
+    } else {
+      const { idx, val } = row as SparseRow;
+      for (let q = 0; q < idx.length; q++) out[inv[idx[q]]] = 0 + si * val[q] * perm.sign[inv[idx[q]]];
+    }
+    return out;
+  });
+}
+
+function ones(n: number): number[] {
+  return new Array<number>(n).fill(1);
 }
 
 /**
@@ -255,18 +339,18 @@ function reductionResidual(E: Mat, A: Mat, B: Mat, r: ReturnType<typeof reduceDe
 /** Scaling by the conductance at each unknown first, the capacitance (or inductance) second. */
 function conductanceScales(d: Descriptor): number[] {
   return Array.from({ length: d.nz }, (_, i) => {
-    const a = Math.abs(d.A[i][i]);
+    const a = Math.abs(d.Arows[i].get(i) ?? 0);
     if (a > 0) return 1 / Math.sqrt(a);
-    const e = Math.abs(d.E[i][i]);
+    const e = Math.abs(d.Erows[i].get(i) ?? 0);
     return e > 0 ? 1 / Math.sqrt(e) : 1;
   });
 }
 
 function variableScales(d: Descriptor): number[] {
   return Array.from({ length: d.nz }, (_, i) => {
-    const e = Math.abs(d.E[i][i]);
+    const e = Math.abs(d.Erows[i].get(i) ?? 0);
     if (e > 0) return 1 / Math.sqrt(e);
-    const a = Math.abs(d.A[i][i]);
+    const a = Math.abs(d.Arows[i].get(i) ?? 0);
     return a > 0 ? 1 / Math.sqrt(a) : 1;
   });
 }
@@ -282,17 +366,20 @@ interface InitContext {
   circuit: Circuit;
   d: Descriptor;
   s: number[];
-  Zp: Mat;
+  /** row i of Zp, and all of it (formed on first use on the index-one path) */
+  zpRow(i: number): Vec;
+  Zp(): Mat;
   Zu: Mat[];
   np: number;
-  X: Mat;
+  applyX(p: Vec): Vec;
   Xu: Mat[];
   chosen: number[];
   physical: PhysicalQuantity[];
 }
 
 function consistentInitial(ctx: InitContext, Es: Mat, As: Mat, beforeValues: Map<string, number>, u0: Vec, du0: Vec): InitialState {
-  const { circuit, d, s, Zp, Zu, np, X, Xu, chosen, physical } = ctx;
+  const { circuit, d, s, Zu, np, applyX, Xu, chosen, physical } = ctx;
+  const Zp = ctx.Zp();
   const nz = d.nz;
   const q = storedCharge(circuit, d, beforeValues);
   const qs = q.map((v, i) => v * s[i]);
@@ -323,11 +410,11 @@ function consistentInitial(ctx: InitContext, Es: Mat, As: Mat, beforeValues: Map
   const p = sol.slice(0, np).map((r) => r[0]);
   const fitted = matvec(lhs, sol.map((r) => r[0]));
   const residual = Math.max(0, ...fitted.map((v, i) => Math.abs(v - rhs[i]))) / Math.max(1e-300, ...rhs.map(Math.abs), 1e-300);
-  const x = np ? matvec(X, p) : [];
+  const x = np ? applyX(p) : [];
   Xu.forEach((Z, j) => {
     if (j < derivs.length) addInto(x, matvec(Z, derivs[j]));
   });
-  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  const jumps = settleJumps(physical, beforeValues, ctx.zpRow, zu, p, s, u0, chosen, x);
   return { x, jumps, residual: Number.isFinite(residual) ? residual : 0 };
 }
 
@@ -356,26 +443,26 @@ function isTree(r: Reduction): r is TreeReduction {
 
 /** Tree case: cut-set charges and loop fluxes conserved (reduce-tree.ts). */
 function treeInitial(ctx: InitContext, red: TreeReduction, beforeValues: Map<string, number>, u0: Vec): InitialState {
-  const { d, s, Zp, Zu, chosen, physical } = ctx;
+  const { d, s, Zu, chosen, physical } = ctx;
   const p = red.initialP(beforeValues, u0);
   const zu = new Array<number>(d.nz).fill(0);
   if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
   const x = p.slice();
-  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  const jumps = settleJumps(physical, beforeValues, ctx.zpRow, zu, p, s, u0, chosen, x);
   return { x, jumps, residual: 0 };
 }
 
 /** Index-one case: E_dd·p = q_d (charge and flux conserved; nothing else can change them). */
-function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat }, beforeValues: Map<string, number>, u0: Vec): InitialState {
-  const { circuit, d, s, Zp, Zu, np, X, Xu, chosen, physical } = ctx;
+function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat; eddDiagonal?: Float64Array | null }, beforeValues: Map<string, number>, u0: Vec): InitialState {
+  const { circuit, d, s, Zu, np, applyX, Xu, chosen, physical } = ctx;
   const q = storedCharge(circuit, d, beforeValues);
-  const diagonal = idx.Edd.every((row, i) => row.every((v, j) => i === j || v === 0));
-  const p = !np ? [] : diagonal ? idx.d.map((i, k) => q[i] / idx.Edd[k][k]) : solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]);
+  const diag = idx.eddDiagonal !== undefined ? idx.eddDiagonal : idx.Edd.every((row, i) => row.every((v, j) => i === j || v === 0)) ? Float64Array.from(idx.Edd, (row, k) => row[k]) : null;
+  const p = !np ? [] : diag ? idx.d.map((i, k) => q[i] / diag[k]) : solveSquare(idx.Edd, idx.d.map((i) => [q[i]])).map((r) => r[0]);
   const zu = new Array<number>(d.nz).fill(0);
   if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
-  const x = np ? matvec(X, p) : [];
+  const x = np ? applyX(p) : [];
   if (Xu[0]) addInto(x, matvec(Xu[0], u0));
-  const jumps = settleJumps(physical, beforeValues, Zp, zu, p, s, u0, chosen, x);
+  const jumps = settleJumps(physical, beforeValues, ctx.zpRow, zu, p, s, u0, chosen, x);
   return { x, jumps, residual: 0 };
 }
 
@@ -383,13 +470,21 @@ function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat }, beforeV
  * Which capacitors/inductors changed value in the instant; a change below 1e-9 of the circuit's
  * largest stored value or source value is round-off, and then the state keeps its value exactly.
  */
-function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, number>, Zp: Mat, zu: Vec, p: Vec, s: number[], u0: Vec, chosen: number[], x: Vec): InitialState['jumps'] {
-  const zPlus = addVec(Zp.length && p.length ? matvec(Zp, p) : new Array<number>(zu.length).fill(0), zu).map((v, i) => v * s[i]);
-  const values = physical.map((ph) => ({
-    ph,
-    before: beforeValues.get(ph.part.name) ?? 0,
-    after: dotSparse(ph.probe.cz, zPlus),
-  }));
+function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, number>, zpRow: (i: number) => Vec, zu: Vec, p: Vec, s: number[], u0: Vec, chosen: number[], x: Vec): InitialState['jumps'] {
+  // z just after the instant, only where a capacitor or inductor reads it
+  const zPlus = (i: number): number => {
+    let acc = 0;
+    if (p.length) {
+      const row = zpRow(i);
+      for (let j = 0; j < p.length; j++) acc += row[j] * p[j];
+    }
+    return (acc + zu[i]) * s[i];
+  };
+  const values = physical.map((ph) => {
+    let after = 0;
+    for (const { i, c } of ph.cz) after += c * zPlus(i);
+    return { ph, before: beforeValues.get(ph.part.name) ?? 0, after };
+  });
   let scale = 0;
   for (const v of values) scale = Math.max(scale, Math.abs(v.before), Math.abs(v.after));
   for (const u of u0) scale = Math.max(scale, Math.abs(u));
@@ -402,6 +497,40 @@ function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, num
     if (Math.abs(v.after - v.before) <= 1e-9 * scale) x[i] = v.before;
   });
   return jumps;
+}
+
+/** row·M where M is given by its rows */
+function rowTimesRows(row: Vec, M: (i: number) => Vec, c: number): Vec {
+  const out = new Array<number>(c).fill(0);
+  for (let i = 0; i < row.length; i++) {
+    const r = row[i];
+    if (r === 0) continue;
+    const Mi = M(i);
+    for (let j = 0; j < c; j++) out[j] += r * Mi[j];
+  }
+  return out;
+}
+
+/** Σ c·M[i] over a sparse row's entries (ascending i) */
+function rowTimesSparse(row: SparseEntry[], M: Mat | ((i: number) => Vec), c: number): Vec {
+  const out = new Array<number>(c).fill(0);
+  for (const { i, c: r } of row) {
+    const Mi = typeof M === 'function' ? M(i) : M[i];
+    for (let j = 0; j < c; j++) out[j] += r * Mi[j];
+  }
+  return out;
+}
+
+/** row·F with F by sparse rows */
+function rowTimesSparseRows(row: Vec, F: SparseRow[], c: number): Vec {
+  const out = new Array<number>(c).fill(0);
+  for (let i = 0; i < row.length; i++) {
+    const r = row[i];
+    if (r === 0) continue;
+    const { idx, val } = F[i];
+    for (let q = 0; q < idx.length; q++) out[idx[q]] += r * val[q];
+  }
+  return out;
 }
 
 function rowTimes(row: Vec, M: Mat, c: number): Vec {
@@ -422,13 +551,6 @@ function addInto(a: Vec, b: Vec): void {
 
 function addVec(a: Vec, b: Vec, k = 1): Vec {
   return a.map((v, i) => v + k * b[i]);
-}
-
-/** a·b where a is mostly zeros (a probe row) */
-function dotSparse(a: Vec, b: Vec): number {
-  let acc = 0;
-  for (let i = 0; i < a.length; i++) if (a[i] !== 0) acc += a[i] * b[i];
-  return acc;
 }
 
 function identityOf(n: number): Mat {

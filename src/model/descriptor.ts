@@ -12,8 +12,12 @@ import { stampPart } from './stamps/index.js';
 export interface Descriptor {
   nodes: string[];
   nz: number;
-  E: Mat;
-  A: Mat;
+  /** E and A as dense matrices, formed on first use (the index-one path reads only the rows) */
+  readonly E: Mat;
+  readonly A: Mat;
+  /** E's and A's rows as column → value (a circuit touches few entries per row) */
+  Erows: SparseRows;
+  Arows: SparseRows;
   B: Mat;
   inputs: Part[];
   /** column of z holding each inductor's / voltage source's branch current */
@@ -27,6 +31,20 @@ export interface Probe {
   du: Vec;
 }
 
+/** A matrix by rows, each row a map from column to its nonzero value. */
+export type SparseRows = Map<number, number>[];
+
+/** M[i][j] += v on sparse rows. */
+export function addAt(M: SparseRows, i: number, j: number, v: number): void {
+  M[i].set(j, (M[i].get(j) ?? 0) + v);
+}
+
+function dense(M: SparseRows, n: number): Mat {
+  const out = zeros(n, n);
+  M.forEach((row, i) => row.forEach((v, j) => (out[i][j] = v)));
+  return out;
+}
+
 export interface StampContext {
   /** index of a node in z, or −1 for ground */
   node(name: string): number;
@@ -34,8 +52,8 @@ export interface StampContext {
   branch(part: Part): number;
   /** index of the part in u (sources) */
   input(part: Part): number;
-  E: Mat;
-  A: Mat;
+  E: SparseRows;
+  A: SparseRows;
   B: Mat;
 }
 
@@ -49,8 +67,8 @@ export function buildDescriptor(circuit: Circuit): Descriptor {
   }
   const inputs = circuit.parts.filter((p) => p.kind === 'voltage-source' || p.kind === 'current-source');
   const inputIdx = new Map(inputs.map((p, i) => [p.name, i]));
-  const E = zeros(nz, nz);
-  const A = zeros(nz, nz);
+  const E: SparseRows = Array.from({ length: nz }, () => new Map());
+  const A: SparseRows = Array.from({ length: nz }, () => new Map());
   const B = zeros(nz, inputs.length);
   const ctx: StampContext = {
     node: (name) => (name === GROUND ? -1 : (nodeIdx.get(name) ?? fail(`unknown node ${name}`))),
@@ -61,7 +79,23 @@ export function buildDescriptor(circuit: Circuit): Descriptor {
     B,
   };
   for (const p of circuit.parts) stampPart(p, ctx);
-  return { nodes, nz, E, A, B, inputs, branchIndex };
+  let Ed: Mat | null = null;
+  let Ad: Mat | null = null;
+  return {
+    nodes,
+    nz,
+    get E() {
+      return (Ed ??= dense(E, nz));
+    },
+    get A() {
+      return (Ad ??= dense(A, nz));
+    },
+    Erows: E,
+    Arows: A,
+    B,
+    inputs,
+    branchIndex,
+  };
 }
 
 function fail(msg: string): never {

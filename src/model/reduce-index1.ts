@@ -1,7 +1,26 @@
-import { type Mat, zeros } from '../linalg/dense.js';
+import { type Mat, type Vec, zeros } from '../linalg/dense.js';
 import { solveSquare } from '../linalg/factor.js';
-import { luFactor, luSingular } from '../linalg/lu.js';
+import { type LU, luFactor, luSingular, luSolve, luSolveFlat } from '../linalg/lu.js';
+import type { Descriptor, SparseRows } from './descriptor.js';
 import type { Reduction } from './reduce.js';
+
+/** One row's nonzeros: ascending columns and their values. */
+export interface SparseRow {
+  idx: Int32Array;
+  val: Float64Array;
+}
+
+/**
+ * The index-one reduction with what the model builder reads without forming every dense matrix
+ * (Zp, F and E_dd are formed on first use only).
+ */
+export interface IndexOneReduction extends Reduction {
+  index1: { d: number[]; Edd: Mat; eddDiagonal: Float64Array | null };
+  /** F by rows, nonzeros only */
+  Frows: SparseRow[];
+  /** row i of Zp: z_i in terms of p */
+  zpRow(i: number): Vec;
+}
 
 /**
  * The common case, solved on the circuit's own variables: the unknowns split into differential ones
@@ -14,92 +33,223 @@ import type { Reduction } from './reduce.js';
  * No rotated bases are involved, so a zero coupling stays an exact zero (the general reduction in
  * reduce.ts mixes variables of very different scale and leaves round-off where the circuit has
  * none). Returns null when the conditions do not hold; the caller then uses the general reduction.
+ * Works on the descriptor's sparse rows: a thousand-state circuit touches a few entries per row.
  */
-export function reduceIndexOne(E: Mat, A: Mat, B: Mat, nz: number, m: number): Reduction | null {
-  const d: number[] = [];
-  const a: number[] = [];
-  // a variable is differential when its row or its column of E has a nonzero (one pass over E)
+export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction | null {
+  const { nz, Erows: E, Arows: A, B } = desc;
+  // a variable is differential when its row or its column of E has a nonzero
   const touched = new Uint8Array(nz);
   for (let i = 0; i < nz; i++) {
-    const row = E[i];
-    for (let j = 0; j < nz; j++) {
-      if (row[j] !== 0) {
+    for (const [j, v] of E[i]) {
+      if (v !== 0) {
         touched[i] = 1;
         touched[j] = 1;
       }
     }
   }
+  const d: number[] = [];
+  const a: number[] = [];
   for (let i = 0; i < nz; i++) (touched[i] ? d : a).push(i);
-  const sub = (M: Mat, rows: number[], cols: number[]) => rows.map((i) => cols.map((j) => M[i][j]));
-  const Edd = sub(E, d, d);
-  const Aaa = sub(A, a, a);
-  if (!wellConditioned(Edd) || !wellConditioned(Aaa)) return null;
-  let AaaInvAad: Mat;
-  let AaaInvBa: Mat;
-  let F: Mat;
-  let G0: Mat;
-  try {
-    const Aad = sub(A, a, d);
-    const Ba = a.map((i) => B[i].slice());
-    AaaInvAad = a.length ? solveSquare(Aaa, Aad) : [];
-    AaaInvBa = a.length && m ? solveSquare(Aaa, Ba) : a.map(() => new Array<number>(m).fill(0));
-    const Ada = sub(A, d, a);
-    // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
-    // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
-    const chop = (v: number, mag: number) => (Math.abs(v) <= 1e-13 * mag ? 0 : v);
-    // A_da is sparse (a capacitor node touches a few resistors): only its nonzeros contribute,
-    // and a row of it without any leaves that row of A_dd (and B_d) as it is
-    const correct = (rowA: number[], r: number, X: Mat): number[] => {
-      const out = rowA.slice();
-      const touch: number[] = [];
-      Ada[r].forEach((v, k) => v !== 0 && touch.push(k));
-      if (!touch.length) return out;
-      for (let j = 0; j < out.length; j++) {
-        let p = 0;
-        let mag = Math.abs(rowA[j]);
-        for (const k of touch) {
-          const t = Ada[r][k] * X[k][j];
-          p += t;
-          mag += Math.abs(t);
-        }
-        out[j] = chop(rowA[j] - p, mag);
-      }
-      return out;
-    };
-    const Fr = d.map((i, r) => correct(d.map((j) => A[i][j]), r, AaaInvAad));
-    const Gr = d.map((i, r) => (m ? correct(B[i].slice(), r, AaaInvBa) : []));
-    // E_dd is diagonal when every capacitor has a grounded or otherwise private node: a row scaling
-    const diagonal = Edd.every((row, i) => row.every((v, j) => i === j || v === 0));
-    const divide = (M: Mat) => M.map((row, i) => row.map((v) => v / Edd[i][i]));
-    F = d.length ? (diagonal ? divide(Fr) : solveSquare(Edd, Fr)) : [];
-    G0 = d.length && m ? (diagonal ? divide(Gr) : solveSquare(Edd, Gr)) : d.map(() => new Array<number>(m).fill(0));
-  } catch {
-    return null;
-  }
   const np = d.length;
-  const Zp = zeros(nz, np);
+  const na = a.length;
+  const posD = new Int32Array(nz).fill(-1);
+  const posA = new Int32Array(nz).fill(-1);
+  d.forEach((i, k) => (posD[i] = k));
+  a.forEach((i, r) => (posA[i] = r));
+  // E_dd is diagonal when every capacitor has a grounded or otherwise private node: a row scaling
+  let diagonal = true;
+  for (const i of d) for (const [j, v] of E[i]) if (v !== 0 && j !== i) diagonal = false;
+  const eddDiagonal = diagonal ? Float64Array.from(d, (i) => E[i].get(i) ?? 0) : null;
+  const Edd = diagonal ? null : denseSub(E, d, posD, np);
+  const Aaa = denseSub(A, a, posA, na);
+  if (!(eddDiagonal ? diagonalConditioned(eddDiagonal) : wellConditioned(Edd!, null))) return null;
+  const fa = na ? luFactor(Aaa) : null;
+  if (fa && (!wellConditioned(Aaa, fa) || luSingular(fa))) return null;
+
+  // A_aa⁻¹·A_ad on the columns of A_ad that have a nonzero (the others are zero)
+  const colOf = new Int32Array(np).fill(-1);
+  const used: number[] = [];
+  for (const i of a) {
+    for (const [j, v] of A[i]) {
+      const k = posD[j];
+      if (v !== 0 && k >= 0 && colOf[k] < 0) colOf[k] = 1;
+    }
+  }
+  for (let k = 0; k < np; k++) if (colOf[k] >= 0) colOf[k] = used.push(k) - 1;
+  const nc = used.length;
+  let X: Float64Array = new Float64Array(0);
+  if (fa && nc) {
+    const rhs = new Float64Array(na * nc);
+    a.forEach((i, r) => {
+      for (const [j, v] of A[i]) {
+        const k = posD[j];
+        if (k >= 0) rhs[r * nc + colOf[k]] = v;
+      }
+    });
+    X = luSolveFlat(fa, rhs, nc);
+  }
+  const AaaInvBa: Mat = fa && m ? luSolve(fa, a.map((i) => B[i].slice())) : a.map(() => new Array<number>(m).fill(0));
+
+  // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
+  // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
+  const chop = (v: number, mag: number) => (Math.abs(v) <= 1e-13 * mag ? 0 : v);
+  // A_da is sparse (a capacitor node touches a few resistors): per differential row its nonzeros
+  // at algebraic columns, ascending; a row without any leaves that row of A_dd (and B_d) as it is
+  const touches = d.map((i) => {
+    const t: { k: number; v: number }[] = [];
+    for (const [j, v] of A[i]) if (v !== 0 && posA[j] >= 0) t.push({ k: posA[j], v });
+    return t.sort((x, y) => x.k - y.k);
+  });
+  const p = new Float64Array(np);
+  const mag = new Float64Array(np);
+  const Fr: Float64Array[] = [];
+  for (let r = 0; r < np; r++) {
+    const i = d[r];
+    const out = new Float64Array(np);
+    for (const [j, v] of A[i]) if (posD[j] >= 0) out[posD[j]] = v;
+    const touch = touches[r];
+    if (touch.length) {
+      p.fill(0);
+      for (let j = 0; j < np; j++) mag[j] = Math.abs(out[j]);
+      for (const { k, v } of touch) {
+        const o = k * nc;
+        for (let c = 0; c < nc; c++) {
+          const t = v * X[o + c];
+          const j = used[c];
+          p[j] += t;
+          mag[j] += Math.abs(t);
+        }
+      }
+      for (let j = 0; j < np; j++) out[j] = chop(out[j] - p[j], mag[j]);
+    }
+    Fr.push(out);
+  }
+  const Gr = d.map((i, r) => {
+    const out = B[i].slice();
+    const touch = touches[r];
+    if (!touch.length) return out;
+    for (let j = 0; j < m; j++) {
+      let q = 0;
+      let mg = Math.abs(out[j]);
+      for (const { k, v } of touch) {
+        const t = v * AaaInvBa[k][j];
+        q += t;
+        mg += Math.abs(t);
+      }
+      out[j] = chop(out[j] - q, mg);
+    }
+    return out;
+  });
+
+  let Fdense: Mat | null = null;
+  let Frows: SparseRow[];
+  let G0: Mat;
+  if (eddDiagonal) {
+    Frows = Fr.map((row, r) => {
+      const e = eddDiagonal[r];
+      let count = 0;
+      for (let j = 0; j < np; j++) if (row[j] !== 0) count++;
+      const idx = new Int32Array(count);
+      const val = new Float64Array(count);
+      let q = 0;
+      for (let j = 0; j < np; j++) {
+        if (row[j] === 0) continue;
+        idx[q] = j;
+        val[q++] = row[j] / e;
+      }
+      return { idx, val };
+    });
+    G0 = Gr.map((row, r) => row.map((v) => v / eddDiagonal[r]));
+  } else {
+    try {
+      Fdense = np ? solveSquare(Edd!, Fr.map((row) => Array.from(row))) : [];
+      G0 = np && m ? solveSquare(Edd!, Gr) : d.map(() => new Array<number>(m).fill(0));
+    } catch {
+      return null;
+    }
+    Frows = Fdense.map((row) => {
+      const idx: number[] = [];
+      const val: number[] = [];
+      row.forEach((v, j) => {
+        if (v !== 0) {
+          idx.push(j);
+          val.push(v);
+        }
+      });
+      return { idx: Int32Array.from(idx), val: Float64Array.from(val) };
+    });
+  }
+
   const Zu0 = zeros(nz, m);
-  d.forEach((i, k) => (Zp[i][k] = 1));
   a.forEach((i, r) => {
-    for (let k = 0; k < np; k++) Zp[i][k] = -AaaInvAad[r][k];
     for (let j = 0; j < m; j++) Zu0[i][j] = -AaaInvBa[r][j];
   });
-  return { Zp, Zu: [Zu0], F, G: [G0], index1: { d, Edd } };
+  const rows = new Map<number, Vec>();
+  const zpRow = (i: number): Vec => {
+    let row = rows.get(i);
+    if (!row) {
+      row = new Array<number>(np).fill(0);
+      if (posD[i] >= 0) row[posD[i]] = 1;
+      else {
+        const o = posA[i] * nc;
+        for (let c = 0; c < nc; c++) row[used[c]] = -X[o + c];
+      }
+      rows.set(i, row);
+    }
+    return row;
+  };
+  let ZpDense: Mat | null = null;
+  let EddDense: Mat | null = Edd;
+  return {
+    get Zp() {
+      return (ZpDense ??= Array.from({ length: nz }, (_, i) => zpRow(i)));
+    },
+    Zu: [Zu0],
+    get F() {
+      return (Fdense ??= Frows.map(({ idx, val }) => {
+        const row = new Array<number>(np).fill(0);
+        for (let q = 0; q < idx.length; q++) row[idx[q]] = val[q];
+        return row;
+      }));
+    },
+    G: [G0],
+    index1: {
+      d,
+      get Edd() {
+        return (EddDense ??= eddDiagonal ? Array.from(eddDiagonal, (e, k) => Array.from({ length: np }, (_, j) => (j === k ? e : 0))) : []);
+      },
+      eddDiagonal,
+    },
+    Frows,
+    zpRow,
+  };
+}
+
+/** Rows `rows` and the columns with position pos[j] ≥ 0 of a sparse matrix, dense. */
+function denseSub(M: SparseRows, rows: number[], pos: Int32Array, ncols: number): Mat {
+  return rows.map((i) => {
+    const r = new Array<number>(ncols).fill(0);
+    for (const [j, v] of M[i]) if (pos[j] >= 0) r[pos[j]] = v;
+    return r;
+  });
+}
+
+/** Nonzero diagonal with a ratio that leaves room for the digits we need. */
+function diagonalConditioned(diag: Float64Array): boolean {
+  let lo = Infinity;
+  let hi = 0;
+  for (const v of diag) {
+    lo = Math.min(lo, Math.abs(v));
+    hi = Math.max(hi, Math.abs(v));
+  }
+  return diag.length === 0 || (lo > 0 && Number.isFinite(hi) && lo > 1e-12 * hi);
 }
 
 /** Nonsingular with a pivot ratio that leaves room for the digits we need (a cheap condition test). */
-function wellConditioned(M: Mat): boolean {
+function wellConditioned(M: Mat, f: LU | null): boolean {
   if (M.length === 0) return true;
   // a diagonal matrix (grounded capacitors, inductors): its own pivots
-  if (M.every((row, i) => row.every((v, j) => v === 0 || i === j))) {
-    let lo = Infinity;
-    let hi = 0;
-    M.forEach((row, i) => {
-      lo = Math.min(lo, Math.abs(row[i]));
-      hi = Math.max(hi, Math.abs(row[i]));
-    });
-    return lo > 0 && Number.isFinite(hi) && lo > 1e-12 * hi;
-  }
-  const f = luFactor(M);
-  return !luSingular(f) && f.minPivot > 1e-12 * f.maxPivot;
+  if (M.every((row, i) => row.every((v, j) => v === 0 || i === j))) return diagonalConditioned(Float64Array.from(M, (row, i) => row[i]));
+  const lu = f ?? luFactor(M);
+  return !luSingular(lu) && lu.minPivot > 1e-12 * lu.maxPivot;
 }

@@ -1,5 +1,5 @@
 import type { Part } from '../../circuit/circuit.js';
-import type { StampContext } from '../descriptor.js';
+import { type SparseRows, type StampContext, addAt } from '../descriptor.js';
 import { stampCapacitor } from './capacitor.js';
 import { stampCurrentSource } from './current-source.js';
 import { stampInductor } from './inductor.js';
@@ -26,12 +26,12 @@ export function stampPart(part: Part, ctx: StampContext): void {
 }
 
 /** Add `w` times the incidence pattern of a two-terminal element between rows/cols a and b. */
-export function addPair(m: number[][], a: number, b: number, w: number): void {
-  if (a >= 0) m[a][a] += w;
-  if (b >= 0) m[b][b] += w;
+export function addPair(m: SparseRows, a: number, b: number, w: number): void {
+  if (a >= 0) addAt(m, a, a, w);
+  if (b >= 0) addAt(m, b, b, w);
   if (a >= 0 && b >= 0) {
-    m[a][b] -= w;
-    m[b][a] -= w;
+    addAt(m, a, b, -w);
+    addAt(m, b, a, -w);
   }
 }
 
@@ -40,12 +40,12 @@ export function addPair(m: number[][], a: number, b: number, w: number): void {
  * and +1 in row b of A (E·ż = A·z + B·u collects currents into each node).
  */
 export function addBranchCurrent(ctx: StampContext, a: number, b: number, col: number): void {
-  if (a >= 0) ctx.A[a][col] -= 1;
-  if (b >= 0) ctx.A[b][col] += 1;
+  if (a >= 0) addAt(ctx.A, a, col, -1);
+  if (b >= 0) addAt(ctx.A, b, col, 1);
 }
 
 /** Branch row `row` gets +v(a) − v(b) in A. */
 export function addBranchVoltage(ctx: StampContext, row: number, a: number, b: number): void {
-  if (a >= 0) ctx.A[row][a] += 1;
-  if (b >= 0) ctx.A[row][b] -= 1;
+  if (a >= 0) addAt(ctx.A, row, a, 1);
+  if (b >= 0) addAt(ctx.A, row, b, -1);
 }

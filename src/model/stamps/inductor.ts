@@ -8,6 +8,6 @@ export function stampInductor(part: Part, ctx: StampContext): void {
   const b = ctx.node(part.b);
   const k = ctx.branch(part);
   addBranchCurrent(ctx, a, b, k);
-  ctx.E[k][k] = part.value;
+  ctx.E[k].set(k, part.value);
   addBranchVoltage(ctx, k, a, b);
 }
