@@ -7,21 +7,22 @@ export interface Extremum {
 
 /** Largest and smallest value over the span (the earliest time wins a tie). */
 export function findPeakAndValley(track: Track): { peak: Extremum; valley: Extremum } {
-  const peak: Extremum = { value: -Infinity, time: track.start };
-  const valley: Extremum = { value: Infinity, time: track.start };
+  // (in locals: a number stored into an object field on every new extreme would be a new heap number)
+  let pv = -Infinity;
+  let pt = track.start;
+  let vv = Infinity;
+  let vt = track.start;
   const { ts, ys } = track;
   for (let k = 0; k < ts.length; k++) {
     const y = ys[k]!;
-    if (y > peak.value) {
-      peak.value = y;
-      peak.time = ts[k]!;
+    if (y > pv) {
+      pv = y;
+      pt = ts[k]!;
     }
-    if (y < valley.value) {
-      valley.value = y;
-      valley.time = ts[k]!;
+    if (y < vv) {
+      vv = y;
+      vt = ts[k]!;
     }
   }
-  if (peak.value === -Infinity) peak.value = NaN;
-  if (valley.value === Infinity) valley.value = NaN;
-  return { peak, valley };
+  return { peak: { value: pv === -Infinity ? NaN : pv, time: pt }, valley: { value: vv === Infinity ? NaN : vv, time: vt } };
 }

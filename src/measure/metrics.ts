@@ -8,6 +8,7 @@ import { bandHalfWidth, settlingTime } from './settling.js';
 import { buildTrack, endValue, startValue, type Track } from './track.js';
 import { averageAndRms, delay50, maxSlope, ringing, WEIGHT_FLOOR } from './shape.js';
 import { hasTransition } from './transition.js';
+import { clipTable } from './peak.js';
 import { timeAbove } from './above.js';
 import { eventShoots, undershootPercent } from './undershoot.js';
 
@@ -72,11 +73,12 @@ function shapeMetrics(times: Float64Array, pieces: readonly Piece[], a: ReturnTy
   const scale = Math.max(Math.abs(a.peak.value), Math.abs(a.valley.value));
   const floor = Math.max(WEIGHT_FLOOR * (a.peak.value - a.valley.value), 1e-12 * scale);
   const ring = pieces.length > 0 ? ringing(pieces, start, end, floor) : null;
-  const mean = averageAndRms(pieces, start, end);
+  const clip = clipTable(pieces, start, end);
+  const mean = averageAndRms(pieces, start, end, clip);
   return {
     ringingHz: ring ? ring.hz : null,
     logDecrement: ring ? ring.logDecrement : null,
-    maxSlope: pieces.length > 0 ? maxSlope(pieces, start, end, times, a.track.slopeBounds) : null,
+    maxSlope: pieces.length > 0 ? maxSlope(pieces, start, end, times, a.track.slopeBounds, clip) : null,
     average: mean ? mean.average : null,
     rms: mean ? mean.rms : null,
   };

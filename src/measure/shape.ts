@@ -3,7 +3,7 @@ import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue, termsValue } from '../lti/term.js';
-import { forEachClipped, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
+import { type ClipTable, clipTable, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
 import { sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
@@ -123,8 +123,9 @@ export function maxSlope(
   end: number,
   extra?: ArrayLike<number>,
   bounds?: Track['slopeBounds'],
+  clip: ClipTable = clipTable(pieces, start, end),
 ): { value: number; time: number } | null {
-  const count = forEachClipped(pieces, start, end, () => {});
+  const count = clip.count;
   if (count === 0) return null;
   const G = emptyGroups();
   const D1 = emptyGroups();
@@ -137,18 +138,19 @@ export function maxSlope(
   const upper = given ? bounds.upper : new Float64Array(count);
   let reached = given ? bounds.reached : 0;
   if (!given) {
-    forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
+    for (let i = 0; i < count; i++) {
+      const piece = pieces[clip.index[i]!]!;
       groupTerms(piece.terms, G);
       groupsDerivative(G, D1);
       groupsDerivative(D1, D2);
       groupsDerivative(D2, D3);
-      const a = lo - piece.t0;
-      const b = hi - piece.t0;
+      const a = clip.lo[i]! - piece.t0;
+      const b = clip.hi[i]! - piece.t0;
       const v = Math.abs(groupsValue(D1, a));
       if (v > reached) reached = v;
       const w = b - a;
       upper[i] = a >= 0 ? Math.min(groupsBound(D1, a, b), v + Math.abs(groupsValue(D2, a)) * w + (groupsBound(D3, a, b) * w * w) / 2) : Infinity;
-    });
+    }
   }
   const sweeper = new Sweeper();
   const extraStep = extra ? uniformStep(extra) : NaN;
@@ -157,15 +159,18 @@ export function maxSlope(
   // a piece with the same term array over the same τ range (repeat.ts) as one searched before has
   // the same largest slope (to rounding), which cannot beat the best by 1e-12 then: not searched again
   const searched = new Map<Piece['terms'], { a: number; b: number }>();
-  forEachClipped(pieces, start, end, (piece, _, i, lo, hi) => {
+  for (let i = 0; i < count; i++) {
     // the bound is NaN when the terms are: search such a piece
-    if (upper[i]! < cut) return;
+    if (upper[i]! < cut) continue;
+    const piece = pieces[clip.index[i]!]!;
+    const lo = clip.lo[i]!;
+    const hi = clip.hi[i]!;
     const before = searched.get(piece.terms);
-    if (before && before.a === lo - piece.t0 && sameEnd(hi - piece.t0, before.b, hi)) return;
+    if (before && before.a === lo - piece.t0 && sameEnd(hi - piece.t0, before.b, hi)) continue;
     if (!before && searched.size < 4096) searched.set(piece.terms, { a: lo - piece.t0, b: hi - piece.t0 });
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
     if (best === null || p.value > best.value * (1 + 1e-12)) best = { value: p.value, time: p.time };
-  });
+  }
   const found = best as { value: number; time: number } | null;
   if (found && Math.abs(found.time - start) <= 1e-12 * (end - start)) found.time = start;
   return found;
@@ -224,7 +229,12 @@ function pieceSlope(piece: Piece, lo: number, hi: number, sweeper: Sweeper, extr
  * divided by the span. A Dirac impulse inside the span adds its area to the average and makes the
  * RMS unbounded (Infinity). null without pieces or with an empty span.
  */
-export function averageAndRms(pieces: readonly Piece[], start: number, end: number): { average: number; rms: number } | null {
+export function averageAndRms(
+  pieces: readonly Piece[],
+  start: number,
+  end: number,
+  clip: ClipTable = clipTable(pieces, start, end),
+): { average: number; rms: number } | null {
   const T = end - start;
   if (pieces.length === 0 || !(T > 0)) return null;
   let sum = 0;
@@ -234,8 +244,10 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
   // steady tail share their term arrays, and a range longer by d adds f(b)·d and f(b)²·d (repeat.ts)
   const cycles = new RepeatedIntegrals();
   const seen = new Map<Term[], { b: number; sum: number; square: number; y: number }>();
-  forEachClipped(pieces, start, end, (piece, _, __, lo, hi) => {
-    const a = lo - piece.t0;
+  for (let i = 0; i < clip.count; i++) {
+    const piece = pieces[clip.index[i]!]!;
+    const hi = clip.hi[i]!;
+    const a = clip.lo[i]! - piece.t0;
     const b = hi - piece.t0;
     const terms = piece.terms;
     const s = seen.get(terms);
@@ -256,6 +268,6 @@ export function averageAndRms(pieces: readonly Piece[], start: number, end: numb
       sum += piece.impulseArea;
       impulse = true;
     }
-  });
+  }
   return { average: sum / T, rms: impulse ? Infinity : Math.sqrt(Math.max(0, sq) / T) };
 }

@@ -172,7 +172,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
       // a repeat (written out here: this runs once per period of a long pulse train)
       const d = hi - t0 - seen.b;
       if (seen.start > ctx.reached) ctx.reached = seen.start;
-      const taus = seen.taus;
+      const taus = seen.taus ?? prepare(seen, piece.terms, ctx);
       const vs = seen.ys;
       const m = taus.length;
       buf.ensure(m);
@@ -233,14 +233,21 @@ interface Ctx {
   lastStart: number;
 }
 
-/** A stretch in τ = t − t0: its ends, knots and values, bound on |y'|, |y'| at its start, y' and |y''| at its end. */
+/**
+ * A stretch laid out once, in τ = t − t0: its range, bound on |y'| and |y'| at its start, and its
+ * knots in the track (`from` … `to` − 1, starting at `t0`). Made ready (`prepare`) at its first
+ * repeat: knots as τ with their values, y' and |y''| at its end. (Most stretches never repeat.)
+ */
 interface Laid {
   a: number;
   b: number;
-  taus: Float64Array;
-  ys: Float64Array;
+  t0: number;
+  from: number;
+  to: number;
   upper: number;
   start: number;
+  taus: Float64Array | null;
+  ys: Float64Array;
   endSlope: number;
   endCurve: number;
 }
@@ -259,39 +266,39 @@ function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minInterva
     return;
   }
   const a = lo - t0;
-  const b = hi - t0;
   const from = buf.n;
   layOut(piece, lo, hi, ctx, minIntervals);
   if (keep && ctx.laid.size < 4096 && a === 0) {
-    // the ends and the knots where the knot values turn or stay level (the signal is monotone from
-    // knot to knot, so it stays monotone across a knot it goes straight through in the same direction)
-    const { ts, ys } = buf;
-    const taus: number[] = [ts[from]! - t0];
-    const vals: number[] = [ys[from]!];
-    const last = buf.n - 1;
-    for (let i = from + 1; i < last; i++) {
-      const up = ys[i]! - ys[i - 1]!;
-      const next = ys[i + 1]! - ys[i]!;
-      if (!((up > 0 && next > 0) || (up < 0 && next < 0))) {
-        taus.push(ts[i]! - t0);
-        vals.push(ys[i]!);
-      }
-    }
-    taus.push(ts[last]! - t0);
-    vals.push(ys[last]!);
-    // (layOut left this piece's grouped terms and their derivative in ctx.G and ctx.D)
-    const D2 = groupsDerivative(ctx.D, ctx.D2);
-    ctx.laid.set(piece.terms, {
-      a,
-      b,
-      taus: Float64Array.from(taus),
-      ys: Float64Array.from(vals),
-      upper: buf.upper[buf.k - 1]!,
-      start: ctx.lastStart,
-      endSlope: groupsValue(ctx.D, b),
-      endCurve: Math.abs(groupsValue(D2, b)),
-    });
+    const none = new Float64Array(0);
+    ctx.laid.set(piece.terms, { a, b: hi - t0, t0, from, to: buf.n, upper: buf.upper[buf.k - 1]!, start: ctx.lastStart, taus: null, ys: none, endSlope: 0, endCurve: 0 });
   }
+}
+
+/**
+ * Knots of a repeating stretch: its ends and the knots where the knot values turn or stay level
+ * (the signal is monotone from knot to knot, so it stays monotone across a knot it goes straight
+ * through in the same direction); y' and |y''| at its end.
+ */
+function prepare(L: Laid, terms: Piece['terms'], ctx: Ctx): Float64Array {
+  const { ts, ys } = ctx.buf;
+  const taus: number[] = [ts[L.from]! - L.t0];
+  const vals: number[] = [ys[L.from]!];
+  const last = L.to - 1;
+  for (let i = L.from + 1; i < last; i++) {
+    const up = ys[i]! - ys[i - 1]!;
+    const next = ys[i + 1]! - ys[i]!;
+    if (!((up > 0 && next > 0) || (up < 0 && next < 0))) {
+      taus.push(ts[i]! - L.t0);
+      vals.push(ys[i]!);
+    }
+  }
+  taus.push(ts[last]! - L.t0);
+  vals.push(ys[last]!);
+  const D = groupsDerivative(groupTerms(terms, ctx.G), ctx.D);
+  L.endSlope = groupsValue(D, L.b);
+  L.endCurve = Math.abs(groupsValue(groupsDerivative(D, ctx.D2), L.b));
+  L.ys = Float64Array.from(vals);
+  return (L.taus = Float64Array.from(taus));
 }
 
 function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number): void {

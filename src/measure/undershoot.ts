@@ -89,42 +89,51 @@ export function eventShoots(track: Track, swing: number, eventTimes?: readonly n
   const count = first.length - 1;
   // With the sources' own event times, the stretches between two events form one event (a pulse
   // edge with a finite rise is one event, not a ramp and a level); without them, every stretch.
-  // event times sorted, walked alongside the stretch starts (which increase): no hashing per stretch
+  // Event times sorted, walked alongside the stretch starts (which increase): no hashing per
+  // stretch. Groups are index ranges [g0, g1) of stretches, closed in this loop (no closures:
+  // a long train has 10⁴ of them, and numbers a closure writes live boxed).
   const starts = eventTimes ? ascending(eventTimes) : null;
   let p = 0;
-  const isStart = (t: number) => {
-    if (p > 0 && starts![p - 1]! > t) p = 0;
-    while (p < starts!.length && starts![p]! < t) p++;
-    return p < starts!.length && starts![p] === t;
-  };
-  // groups as index ranges [g0, g1) of stretches (no array per group: a long train has 10⁴ of them)
-  let prevEnd: number | null = null;
+  let prevEnd = 0;
+  let started = false;
   let g0 = -1;
-  const close = (g1: number) => {
-    if (g0 < 0) return;
-    const from = prevEnd ?? ys[first[g0]!]!;
-    const to = ys[first[g1]! - 1]!;
-    prevEnd = to;
-    const size = Math.abs(to - from);
-    if (!Number.isFinite(size) || size === 0 || size < EVENT_OF_SWING * swing) return;
-    out.push({
-      t: ts[first[g0]!]!,
-      from,
-      to,
-      overshootPct: clean((postExcursion(track, g0, g1, from, to) / size) * 100),
-      undershootPct: clean((preExcursion(track, g0, g1, from, to) / size) * 100),
-    });
-  };
   let lastNonEmpty = -1;
-  for (let k = 0; k < count; k++) {
-    if (first[k + 1] === first[k]) continue;
-    if (g0 < 0 || !starts || isStart(ts[first[k]!]!)) {
-      close(lastNonEmpty + 1);
-      g0 = k;
+  for (let k = 0; k <= count; k++) {
+    let opens = k === count;
+    if (k < count) {
+      if (first[k + 1] === first[k]) continue;
+      if (g0 < 0 || starts === null) opens = true;
+      else {
+        const t = ts[first[k]!]!;
+        if (p > 0 && starts[p - 1]! > t) p = 0;
+        while (p < starts.length && starts[p]! < t) p++;
+        opens = p < starts.length && starts[p] === t;
+      }
     }
+    if (!opens) {
+      lastNonEmpty = k;
+      continue;
+    }
+    if (g0 >= 0) {
+      const g1 = lastNonEmpty + 1;
+      const from = started ? prevEnd : ys[first[g0]!]!;
+      const to = ys[first[g1]! - 1]!;
+      prevEnd = to;
+      started = true;
+      const size = Math.abs(to - from);
+      if (Number.isFinite(size) && size !== 0 && !(size < EVENT_OF_SWING * swing)) {
+        out.push({
+          t: ts[first[g0]!]!,
+          from,
+          to,
+          overshootPct: clean((postExcursion(track, g0, g1, from, to) / size) * 100),
+          undershootPct: clean((preExcursion(track, g0, g1, from, to) / size) * 100),
+        });
+      }
+    }
+    g0 = k;
     lastNonEmpty = k;
   }
-  close(lastNonEmpty + 1);
   return out;
 }
 

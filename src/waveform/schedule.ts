@@ -77,22 +77,37 @@ function modelsOf(waves: Waveform[], span: number): Models {
  */
 export function breakpointTimes(waves: Waveform[], span: number, from = 0, extraBreaks: number[] = [], models: Models = modelsOf(waves, span)): number[] {
   // sorted then deduplicated (a set of 10⁴ float keys costs more); a single pulse train gives its
-  // corners in order, and then nothing needs sorting
-  const raw: number[] = [from];
-  for (const ms of models) for (const m of ms) for (const t of m.breakpoints(span)) if (t > from && t < span) raw.push(t);
-  raw.push(span);
-  for (const t of extraBreaks) if (t > from && t < span) raw.push(t);
-  for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse' && t.at > from && t.at < span) raw.push(t.at);
+  // corners in order, and then nothing needs sorting; arrays of their final size (no growth)
+  const lists: number[][] = [];
+  for (const ms of models) for (const m of ms) lists.push(m.breakpoints(span));
+  const impulses: number[] = [];
+  for (const w of waves) for (const t of w.terms) if (t.kind === 'impulse') impulses.push(t.at);
+  let size = 2 + extraBreaks.length + impulses.length;
+  for (const l of lists) size += l.length;
+  const raw = new Float64Array(size);
+  let n = 0;
+  raw[n++] = from;
+  for (const l of lists) {
+    for (let i = 0; i < l.length; i++) {
+      const t = l[i];
+      if (t > from && t < span) raw[n++] = t;
+    }
+  }
+  raw[n++] = span;
+  for (const t of extraBreaks) if (t > from && t < span) raw[n++] = t;
+  for (const t of impulses) if (t > from && t < span) raw[n++] = t;
   let inOrder = true;
-  for (let i = 1; i < raw.length && inOrder; i++) inOrder = raw[i - 1] <= raw[i];
-  const sorted = inOrder ? raw : Float64Array.from(raw).sort();
-  const times: number[] = [];
+  for (let i = 1; i < n && inOrder; i++) inOrder = raw[i - 1] <= raw[i];
+  const sorted = inOrder ? raw.subarray(0, n) : raw.subarray(0, n).sort();
+  const times = new Array<number>(n);
+  let count = 0;
   let last = NaN;
-  for (let i = 0; i < sorted.length; i++) {
+  for (let i = 0; i < n; i++) {
     const t = sorted[i];
-    if (t !== last) times.push(t);
+    if (t !== last) times[count++] = t;
     last = t;
   }
+  times.length = count;
   return times;
 }
 

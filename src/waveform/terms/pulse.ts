@@ -32,13 +32,19 @@ export function pulseSlope(p: Pulse, t: number): number {
 
 /** Corners of every cycle that starts within the span. */
 export function pulseBreakpoints(p: Pulse, span: number): number[] {
-  const out: number[] = [];
-  const last = Math.min(p.cycles, Math.ceil((span - p.start) / p.period) + 1);
+  const last = Math.max(0, Math.min(p.cycles, Math.ceil((span - p.start) / p.period) + 1));
+  // (of its final size: a long train has 10⁴ cycles)
+  const out: number[] = Number.isFinite(last) && last < 1e7 ? new Array<number>(4 * last + 1) : [];
+  let n = 0;
   for (let k = 0; k < last; k++) {
     const c = p.start + k * p.period;
     if (c > span) break;
-    out.push(c, c + p.rise, c + p.rise + p.width, c + p.rise + p.width + p.fall);
+    out[n++] = c;
+    out[n++] = c + p.rise;
+    out[n++] = c + p.rise + p.width;
+    out[n++] = c + p.rise + p.width + p.fall;
   }
-  if (Number.isFinite(p.cycles)) out.push(p.start + p.cycles * p.period);
+  if (Number.isFinite(p.cycles)) out[n++] = p.start + p.cycles * p.period;
+  out.length = n;
   return out;
 }
