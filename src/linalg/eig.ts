@@ -56,6 +56,7 @@ export interface EigFlatResult {
 
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
+import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
 import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 import { tridiagonalVectors } from './tridiagonal-vectors.js';
@@ -86,12 +87,12 @@ export function eig(A: number[][]): EigResult {
  * The same on a row-major Float64Array; `a` is overwritten. Throws when an entry is not finite or
  * the QR iteration fails to converge. Options (for tests and comparisons): balance: false skips
  * the balancing; structured: false forces the dense Schur-form path; inverseIteration: false
- * keeps ladders on the Schur-form path.
+ * keeps ladders on the Schur-form path; aed: false turns off aggressive early deflation.
  */
 export function eigFlat(
   a: Float64Array,
   n: number,
-  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean } = {},
+  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean; aed?: boolean } = {},
 ): EigFlatResult {
   if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
   for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
@@ -137,7 +138,7 @@ export function eigFlat(
     // of accumulating Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the
     // same (measured), so it keeps the Schur-form path.
     const h = a.slice();
-    hqr2(h, n, vt, re, im, false);
+    hqr2(h, n, vt, re, im, false, true, opts.aed !== false);
     const X = wellSeparated(re, im, hessenbergNorm(a, n)) ? hessenbergEigenvectors(a, n, re, im) : null;
     if (X) {
       for (let i = 0; i < n; i++) {
@@ -154,7 +155,7 @@ export function eigFlat(
     vt.fill(0);
     for (let i = 0; i < n; i++) vt[i * n + order[i]] = 1;
   } else if (ort) accumulateQ(a, n, ort, vt);
-  hqr2(a, n, vt, re, im);
+  hqr2(a, n, vt, re, im, true, true, opts.aed !== false);
   // undo the balancing (eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂) while transposing back
   for (let i = 0; i < n; i++) {
     const s = scale[i];
@@ -603,6 +604,23 @@ function cdiv(xr: number, xi: number, yr: number, yi: number, out: Float64Array)
 }
 
 const MAX_ITER_PER_EIGENVALUE = 60;
+// active blocks from this size on use aggressive early deflation (schur-aed.ts)
+const AED_MIN = 75;
+// percent of the AED window deflated above which AED runs again before any sweep
+const AED_NIBBLE = 14;
+
+/**
+ * AED window for an active block of `size` rows: its cost beyond the small Schur form (the window's
+ * transformation applied to the rows above it, the columns right of it and the Schur vectors) is
+ * about nn·jw² per AED, that of a sweep about nn·size; √size keeps one AED near one sweep
+ * (measured: larger windows deflate more but cost more than the sweeps they save).
+ */
+function aedWindow(size: number): number {
+  return Math.max(10, Math.round(Math.sqrt(size)));
+}
+
+/** Real Schur form and Schur vectors of a small Hessenberg window (for AED). */
+const schurForm: SchurFn = (T, n, Ut, d, e) => hqr2(T, n, Ut, d, e, true, false);
 
 /**
  * The deferred part of one double-shift sweep with reflectors P_m..P_(n−1) (P_(n−1) acts on two
@@ -928,7 +946,7 @@ function francisSweep(
  * quasi-triangular form and back-transformation V := V·X. With vectors = false only the
  * eigenvalues (d + j·e): the sweeps then keep just the active window up to date.
  */
-function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array, vectors = true): void {
+function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array, vectors = true, finish = true, aed = true): void {
   let n = nn - 1;
   const low = 0;
   const high = nn - 1;
@@ -960,6 +978,12 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
   let iter = 0;
   let totalIter = 0;
   const maxTotal = MAX_ITER_PER_EIGENVALUE * Math.max(nn, 1);
+  // shifts from the last aggressive early deflation, valid while the active block starts at shiftTop
+  const shifts = new Float64Array(3 * nn);
+  let shiftNext = 0;
+  let shiftCount = 0;
+  let shiftTop = -1;
+  let useAed = aed;
   while (n >= low) {
     // look for a single small subdiagonal element
     let l = n;
@@ -1036,6 +1060,30 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         y = H[(n - 1) * nn + n - 1];
         w = H[n * nn + n - 1] * H[(n - 1) * nn + n];
       }
+      if (shiftTop !== l) shiftNext = shiftCount = 0;
+      const size = n - l + 1;
+      if (useAed && size >= AED_MIN && shiftNext >= shiftCount) {
+        const jw = Math.min(aedWindow(size), Math.floor((size - 1) / 3));
+        const r = aggressiveDeflation(H, nn, l, n, jw, Vt, vectors ? 0 : l, vectors, schurForm, shifts, jw >> 1);
+        if (!r) useAed = false;
+        else {
+          shiftNext = 0;
+          shiftCount = r.pairs;
+          shiftTop = l;
+          if (r.deflated > 0) {
+            // deflate first (the loop finds the zero subdiagonal entries); a large haul asks for
+            // another AED rather than sweeps with the remaining shifts
+            if (100 * r.deflated > AED_NIBBLE * jw) shiftCount = 0;
+            continue;
+          }
+        }
+      }
+      if (shiftNext < shiftCount) {
+        x = shifts[3 * shiftNext];
+        y = shifts[3 * shiftNext + 1];
+        w = shifts[3 * shiftNext + 2];
+        shiftNext++;
+      }
       if (iter === 10) {
         // Wilkinson's original ad hoc shift
         exshift += x;
@@ -1091,7 +1139,7 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
     }
   }
 
-  if (!vectors) return;
+  if (!vectors || !finish) return;
   backSubstitute(H, nn, d, e, norm);
   backTransform(H, nn, Vt);
 }
