@@ -64,6 +64,10 @@ export function modalDecomposition(A: Mat): Modal {
       if (im[i] !== 0) snapped.add(i);
       re[i] = 0;
       im[i] = 0;
+    } else if (im[i] !== 0 && Math.abs(re[i]) <= tiny && Math.abs(re[i]) <= 1e-12 * Math.abs(im[i])) {
+      // ringing whose damping is round-off of both ‖A‖ and its own frequency is lossless (an LC
+      // loop no resistor touches): without this a decay of 1e-13/s would stretch the span to 1e14 s
+      re[i] = 0;
     }
   }
   // groups: a real eigenvalue alone, or a conjugate pair (columns i, i+1 = Re v, Im v)
