@@ -61,34 +61,59 @@ export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction |
   for (const i of d) for (const [j, v] of E[i]) if (v !== 0 && j !== i) diagonal = false;
   const eddDiagonal = diagonal ? Float64Array.from(d, (i) => E[i].get(i) ?? 0) : null;
   const Edd = diagonal ? null : denseSub(E, d, posD, np);
-  const Aaa = denseSub(A, a, posA, na);
   if (!(eddDiagonal ? diagonalConditioned(eddDiagonal) : wellConditioned(Edd!, null))) return null;
-  const fa = na ? luFactor(Aaa) : null;
-  if (fa && (!wellConditioned(Aaa, fa) || luSingular(fa))) return null;
-
-  // A_aa⁻¹·A_ad on the columns of A_ad that have a nonzero (the others are zero)
-  const colOf = new Int32Array(np).fill(-1);
-  const used: number[] = [];
-  for (const i of a) {
-    for (const [j, v] of A[i]) {
-      const k = posD[j];
-      if (v !== 0 && k >= 0 && colOf[k] < 0) colOf[k] = 1;
-    }
+  // A_aa is block diagonal after a permutation (its connected components: a node between a
+  // resistor and an inductor is a block of one). Partial pivoting never leaves a block and the
+  // substitutions skip the zeros between blocks, so factoring and solving block by block gives the
+  // very numbers one LU of A_aa would, at the cost of the blocks.
+  const root = a.map((_, r) => r);
+  const find = (r: number): number => (root[r] === r ? r : (root[r] = find(root[r])));
+  a.forEach((i, r) => {
+    for (const [j, v] of A[i]) if (v !== 0 && posA[j] >= 0 && posA[j] !== r) root[find(r)] = find(posA[j]);
+  });
+  const blocks = new Map<number, number[]>();
+  for (let r = 0; r < na; r++) {
+    const b = find(r);
+    const list = blocks.get(b);
+    if (list) list.push(r);
+    else blocks.set(b, [r]);
   }
-  for (let k = 0; k < np; k++) if (colOf[k] >= 0) colOf[k] = used.push(k) - 1;
-  const nc = used.length;
-  let X: Float64Array = new Float64Array(0);
-  if (fa && nc) {
-    const rhs = new Float64Array(na * nc);
-    a.forEach((i, r) => {
-      for (const [j, v] of A[i]) {
-        const k = posD[j];
-        if (k >= 0) rhs[r * nc + colOf[k]] = v;
-      }
+  const Xrows: SparseRow[] = new Array(na);
+  const AaaInvBa: Mat = new Array(na);
+  let minPivot = Infinity;
+  let maxPivot = 0;
+  const local = new Int32Array(na);
+  for (const rows of blocks.values()) {
+    const size = rows.length;
+    rows.forEach((r, q) => (local[r] = q));
+    const M = rows.map((r) => {
+      const row = new Array<number>(size).fill(0);
+      for (const [j, v] of A[a[r]]) if (posA[j] >= 0) row[local[posA[j]]] = v;
+      return row;
     });
-    X = luSolveFlat(fa, rhs, nc);
+    const f = luFactor(M);
+    minPivot = Math.min(minPivot, f.minPivot);
+    maxPivot = Math.max(maxPivot, f.maxPivot);
+    if (luSingular(f)) return null;
+    // the columns of p this block's rows reach, ascending
+    const cols = [...new Set(rows.flatMap((r) => [...A[a[r]]].filter(([j, v]) => v !== 0 && posD[j] >= 0).map(([j]) => posD[j])))].sort((x, y) => x - y);
+    const nc = cols.length;
+    const at = new Map(cols.map((c, q) => [c, q]));
+    const rhs = new Float64Array(size * nc);
+    rows.forEach((r, q) => {
+      for (const [j, v] of A[a[r]]) if (posD[j] >= 0) rhs[q * nc + at.get(posD[j])!] = v;
+    });
+    const X = nc ? luSolveFlat(f, rhs, nc) : rhs;
+    rows.forEach((r, q) => {
+      const keep: number[] = [];
+      for (let c = 0; c < nc; c++) if (X[q * nc + c] !== 0) keep.push(c);
+      Xrows[r] = { idx: Int32Array.from(keep, (c) => cols[c]), val: Float64Array.from(keep, (c) => X[q * nc + c]) };
+    });
+    const Ba = m ? luSolve(f, rows.map((r) => B[a[r]].slice())) : rows.map(() => []);
+    rows.forEach((r, q) => (AaaInvBa[r] = Ba[q]));
   }
-  const AaaInvBa: Mat = fa && m ? luSolve(fa, a.map((i) => B[i].slice())) : a.map(() => new Array<number>(m).fill(0));
+  // the pivot ratio that leaves room for the digits we need (a cheap condition test)
+  if (na && !(minPivot > 1e-12 * maxPivot)) return null;
 
   // A difference that is round-off of the terms it came from (below 1e-13 of their magnitude)
   // is an exact zero: an inductor straight across a source has no decay at all, not 5e-15/s.
@@ -100,29 +125,53 @@ export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction |
     for (const [j, v] of A[i]) if (v !== 0 && posA[j] >= 0) t.push({ k: posA[j], v });
     return t.sort((x, y) => x.k - y.k);
   });
+  // per differential row: A_dd's row, minus A_da·(A_aa⁻¹·A_ad) where A_da has entries, each
+  // difference chopped against its terms; only the columns those rows reach are visited
+  const val = new Float64Array(np);
   const p = new Float64Array(np);
   const mag = new Float64Array(np);
-  const Fr: Float64Array[] = [];
+  const mark = new Int32Array(np).fill(-1);
+  const Fr: { cols: number[]; vals: number[] }[] = [];
   for (let r = 0; r < np; r++) {
     const i = d[r];
-    const out = new Float64Array(np);
-    for (const [j, v] of A[i]) if (posD[j] >= 0) out[posD[j]] = v;
+    const list: number[] = [];
+    for (const [j, v] of A[i]) {
+      const c = posD[j];
+      if (c < 0) continue;
+      val[c] = v;
+      if (mark[c] !== r) {
+        mark[c] = r;
+        list.push(c);
+      }
+    }
     const touch = touches[r];
     if (touch.length) {
-      p.fill(0);
-      for (let j = 0; j < np; j++) mag[j] = Math.abs(out[j]);
+      for (const c of list) {
+        p[c] = 0;
+        mag[c] = Math.abs(val[c]);
+      }
       for (const { k, v } of touch) {
-        const o = k * nc;
-        for (let c = 0; c < nc; c++) {
-          const t = v * X[o + c];
-          const j = used[c];
+        const { idx, val: xv } = Xrows[k];
+        for (let q = 0; q < idx.length; q++) {
+          const j = idx[q];
+          if (mark[j] !== r) {
+            mark[j] = r;
+            list.push(j);
+            val[j] = 0;
+            p[j] = 0;
+            mag[j] = 0;
+          }
+          const t = v * xv[q];
           p[j] += t;
           mag[j] += Math.abs(t);
         }
       }
-      for (let j = 0; j < np; j++) out[j] = chop(out[j] - p[j], mag[j]);
+      for (const c of list) val[c] = chop(val[c] - p[c], mag[c]);
     }
-    Fr.push(out);
+    list.sort((x, y) => x - y);
+    const vals = list.map((c) => val[c]);
+    for (const c of list) val[c] = 0;
+    Fr.push({ cols: list, vals });
   }
   const Gr = d.map((i, r) => {
     const out = B[i].slice();
@@ -145,24 +194,20 @@ export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction |
   let Frows: SparseRow[];
   let G0: Mat;
   if (eddDiagonal) {
-    Frows = Fr.map((row, r) => {
+    Frows = Fr.map(({ cols, vals }, r) => {
       const e = eddDiagonal[r];
-      let count = 0;
-      for (let j = 0; j < np; j++) if (row[j] !== 0) count++;
-      const idx = new Int32Array(count);
-      const val = new Float64Array(count);
-      let q = 0;
-      for (let j = 0; j < np; j++) {
-        if (row[j] === 0) continue;
-        idx[q] = j;
-        val[q++] = row[j] / e;
-      }
-      return { idx, val };
+      const keep = cols.map((_, q) => q).filter((q) => vals[q] !== 0);
+      return { idx: Int32Array.from(keep, (q) => cols[q]), val: Float64Array.from(keep, (q) => vals[q] / e) };
     });
     G0 = Gr.map((row, r) => row.map((v) => v / eddDiagonal[r]));
   } else {
     try {
-      Fdense = np ? solveSquare(Edd!, Fr.map((row) => Array.from(row))) : [];
+      const dense = Fr.map(({ cols, vals }) => {
+        const row = new Array<number>(np).fill(0);
+        cols.forEach((c, q) => (row[c] = vals[q]));
+        return row;
+      });
+      Fdense = np ? solveSquare(Edd!, dense) : [];
       G0 = np && m ? solveSquare(Edd!, Gr) : d.map(() => new Array<number>(m).fill(0));
     } catch {
       return null;
@@ -191,8 +236,8 @@ export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction |
       row = new Array<number>(np).fill(0);
       if (posD[i] >= 0) row[posD[i]] = 1;
       else {
-        const o = posA[i] * nc;
-        for (let c = 0; c < nc; c++) row[used[c]] = -X[o + c];
+        const { idx, val: xv } = Xrows[posA[i]];
+        for (let q = 0; q < idx.length; q++) row[idx[q]] = -xv[q];
       }
       rows.set(i, row);
     }
