@@ -1,7 +1,6 @@
 import type { Circuit } from '../circuit/circuit.js';
 import type { Model } from '../model/build.js';
-import { solveSquare } from '../linalg/factor.js';
-import { luFactor, luSingular } from '../linalg/lu.js';
+import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
 import type { Waveform } from '../circuit/circuit.js';
 import { valueLeftOf } from '../waveform/schedule.js';
 
@@ -24,11 +23,10 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       const Bu = ss.B.map((row) => [row.reduce((s, b, j) => s + b * u[j], 0)]);
       // a pole at zero within round-off (an inductor straight across a source, a capacitor fed
       // by a current with no discharge path) means there is no DC operating point
-      if (ss.n) {
-        const f = luFactor(ss.A);
-        if (luSingular(f) || f.minPivot <= 1e-12 * f.maxPivot) throw new Error('no DC operating point');
-      }
-      const xi = ss.n ? solveSquare(ss.A, Bu).map((r) => -r[0]) : [];
+      const f = ss.n ? luFactor(ss.A) : null;
+      if (f && (luSingular(f) || f.minPivot <= 1e-12 * f.maxPivot)) throw new Error('no DC operating point');
+      // the same factors solve (one O(n³) factorization, not two)
+      const xi = f ? luSolve(f, Bu).map((r) => -r[0]) : [];
       for (const st of model.storage) {
         const r = st.readout;
         const v = r.C.reduce((s, cc, i) => s + cc * xi[i], 0) + r.D.reduce((s, d, j) => s + d * u[j], 0);
