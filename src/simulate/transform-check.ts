@@ -1,7 +1,7 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import type { Vec } from '../linalg/dense.js';
 import { balance } from '../linalg/balance.js';
-import { bandLU, bandSolve } from '../linalg/band.js';
+import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
 import { powerExpIntegral } from '../lti/integrate.js';
 import type { Component } from '../waveform/component.js';
 import type { InputSchedule } from '../waveform/schedule.js';
@@ -58,7 +58,7 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
   const m = ss.m;
   const L = b - a;
   const absErr = readouts.map(() => 0);
-  const { Ab, d } = balanced(ss);
+  const { d, entries, kl, ku } = balanced(ss);
   const inner = schedule.diracs.filter((x) => x.t > a && x.t < b);
   for (const s of weights) {
     const U = transformInputs(schedule.intervals, m, a, s, 'components');
@@ -79,16 +79,16 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
         for (let j = 0; j < m; j++) r += Bi[j] * kick[j];
         rhs[i] = r / d[i];
       }
-      const M = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) {
-        const row = Ab[i];
-        for (let j = 0; j < n; j++) if (row[j] !== 0) M[i * n + j] = -row[j];
-        M[i * n + i] += s;
-      }
-      const f = bandLU(M, n);
+      // sI − D⁻¹AD in band storage (O(n) for a ladder), from the nonzeros gathered once
+      const M = bandMatrix(n, kl, ku);
+      const { a, off } = M;
+      for (let q = 0; q < entries.i.length; q++) a[off[entries.i[q]] + entries.j[q]] = -entries.v[q];
+      for (let i = 0; i < n; i++) a[off[i] + i] += s;
+      const f = bandFactor(M);
       if (f.singular) throw new Error(`transform check: sI − A is singular at s = ${s}`);
       const y = bandSolve(f, rhs);
-      X = Array.from(y, (v, i) => v * d[i]);
+      X = new Array<number>(n);
+      for (let i = 0; i < n; i++) X[i] = y[i] * d[i];
     }
     const mass = -Math.expm1(-s * L) / s;
     readouts.forEach((r, w) => {
@@ -109,16 +109,44 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
   return { s: weights, absErr };
 }
 
+interface Balanced {
+  d: number[];
+  rate: number;
+  /** the nonzeros of D⁻¹·A·D, row by row */
+  entries: { i: Int32Array; j: Int32Array; v: Float64Array };
+  /** its lower and upper bandwidths */
+  kl: number;
+  ku: number;
+}
+
 // balancing keeps sI − A well scaled when volts sit next to nanohenry currents; once per model
-const balancedOf = new WeakMap<StateSpace, { Ab: number[][]; d: number[]; rate: number }>();
-function balanced(ss: StateSpace): { Ab: number[][]; d: number[]; rate: number } {
+const balancedOf = new WeakMap<StateSpace, Balanced>();
+function balanced(ss: StateSpace): Balanced {
   let b = balancedOf.get(ss);
   if (!b) {
     const { B: Ab, d } = ss.n ? balance(ss.A) : { B: [] as number[][], d: [] as number[] };
     // ‖A‖∞ of the balanced matrix bounds every |λ|
     let rate = 0;
-    for (const row of Ab) rate = Math.max(rate, row.reduce((t, v) => t + Math.abs(v), 0));
-    b = { Ab, d, rate };
+    const I: number[] = [];
+    const J: number[] = [];
+    const V: number[] = [];
+    let kl = 0;
+    let ku = 0;
+    Ab.forEach((row, i) => {
+      let sum = 0;
+      for (let j = 0; j < row.length; j++) {
+        const v = row[j];
+        sum += Math.abs(v);
+        if (v === 0) continue;
+        I.push(i);
+        J.push(j);
+        V.push(v);
+        kl = Math.max(kl, i - j);
+        ku = Math.max(ku, j - i);
+      }
+      rate = Math.max(rate, sum);
+    });
+    b = { d, rate, entries: { i: Int32Array.from(I), j: Int32Array.from(J), v: Float64Array.from(V) }, kl, ku };
     balancedOf.set(ss, b);
   }
   return b;
