@@ -8,7 +8,7 @@ import { bandHalfWidth, settlingTime } from './settling.js';
 import { buildTrack, endValue, startValue, type Track } from './track.js';
 import { averageAndRms, delay50, maxSlope, ringing, WEIGHT_FLOOR } from './shape.js';
 import { hasTransition } from './transition.js';
-import { clipTable } from './peak.js';
+import { clipTable } from './repeat.js';
 import { timeAbove } from './above.js';
 import { eventShoots, undershootPercent } from './undershoot.js';
 
@@ -73,7 +73,7 @@ function shapeMetrics(times: Float64Array, pieces: readonly Piece[], a: ReturnTy
   const scale = Math.max(Math.abs(a.peak.value), Math.abs(a.valley.value));
   const floor = Math.max(WEIGHT_FLOOR * (a.peak.value - a.valley.value), 1e-12 * scale);
   const ring = pieces.length > 0 ? ringing(pieces, start, end, floor) : null;
-  const clip = clipTable(pieces, start, end);
+  const clip = a.clip;
   const mean = averageAndRms(pieces, start, end, clip);
   return {
     ringingHz: ring ? ring.hz : null,
@@ -93,7 +93,9 @@ export function isPeriodicSignal(times: Float64Array, values: Float64Array, piec
 }
 
 function analyse(times: Float64Array, values: Float64Array, pieces: readonly Piece[], band: SettleBand) {
-  const track: Track = buildTrack(times, values, pieces);
+  // the pieces clipped to the span once, for the track and the integrals (with their repeats)
+  const clip = clipTable(pieces, times.length > 0 ? times[0]! : 0, times.length > 0 ? times[times.length - 1]! : 0);
+  const track: Track = buildTrack(times, values, pieces, clip);
   const initial = startValue(track);
   const final = endValue(track);
   const { peak, valley } = findPeakAndValley(track);
@@ -105,5 +107,5 @@ function analyse(times: Float64Array, values: Float64Array, pieces: readonly Pie
   // the band the signal must stay in to count as settled; without a transition, 2 % of the swing
   const half = bandHalfWidth(band, initial, final) ?? 0.02 * excursion;
   const periodic = keepsSwinging(pieces, track, final, half, scale);
-  return { track, initial, final, peak, valley, moving, periodic };
+  return { track, clip, initial, final, peak, valley, moving, periodic };
 }

@@ -177,36 +177,3 @@ export function forEachClipped(pieces: readonly Piece[], start: number, end: num
   if (count === 0 && pieces.length > 0) fn(pieces[pieces.length - 1]!, pieces.length - 1, count++, start, end);
   return count;
 }
-
-/** clipPieces as parallel arrays: piece index, lo and hi of each clipped piece, in order. */
-export interface ClipTable {
-  count: number;
-  index: Int32Array;
-  lo: Float64Array;
-  hi: Float64Array;
-}
-
-/** clipPieces without an object per piece (a long pulse train has 10⁴ of them; numbers stay unboxed). */
-export function clipTable(pieces: readonly Piece[], start: number, end: number): ClipTable {
-  const n = Math.max(1, pieces.length);
-  const out: ClipTable = { count: 0, index: new Int32Array(n), lo: new Float64Array(n), hi: new Float64Array(n) };
-  let count = 0;
-  for (let i = 0; i < pieces.length; i++) {
-    const piece = pieces[i]!;
-    const next = pieces[i + 1];
-    const lo = Math.max(piece.t0, start);
-    const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
-    if (hi < lo || (hi === lo && count > 0)) continue;
-    out.index[count] = i;
-    out.lo[count] = lo;
-    out.hi[count++] = hi;
-  }
-  if (count === 0 && pieces.length > 0) {
-    out.index[0] = pieces.length - 1;
-    out.lo[0] = start;
-    out.hi[0] = end;
-    count = 1;
-  }
-  out.count = count;
-  return out;
-}

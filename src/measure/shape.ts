@@ -3,8 +3,8 @@ import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
 import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue, termsValue } from '../lti/term.js';
-import { type ClipTable, clipTable, geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
-import { sameEnd } from './repeat.js';
+import { geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
+import { type Clipped, clipTable, sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
 import type { Track } from './track.js';
@@ -123,7 +123,7 @@ export function maxSlope(
   end: number,
   extra?: ArrayLike<number>,
   bounds?: Track['slopeBounds'],
-  clip: ClipTable = clipTable(pieces, start, end),
+  clip: Clipped = clipTable(pieces, start, end),
 ): { value: number; time: number } | null {
   const count = clip.count;
   if (count === 0) return null;
@@ -158,16 +158,20 @@ export function maxSlope(
   let best: { value: number; time: number } | null = null;
   // a piece with the same term array over the same τ range (repeat.ts) as one searched before has
   // the same largest slope (to rounding), which cannot beat the best by 1e-12 then: not searched again
-  const searched = new Map<Piece['terms'], { a: number; b: number }>();
+  const searched = new Uint8Array(count);
+  const { rep, lo: los, hi: his } = clip;
   for (let i = 0; i < count; i++) {
     // the bound is NaN when the terms are: search such a piece
     if (upper[i]! < cut) continue;
     const piece = pieces[clip.index[i]!]!;
-    const lo = clip.lo[i]!;
-    const hi = clip.hi[i]!;
-    const before = searched.get(piece.terms);
-    if (before && before.a === lo - piece.t0 && sameEnd(hi - piece.t0, before.b, hi)) continue;
-    if (!before && searched.size < 4096) searched.set(piece.terms, { a: lo - piece.t0, b: hi - piece.t0 });
+    const lo = los[i]!;
+    const hi = his[i]!;
+    const r = rep[i]!;
+    if (r !== i && searched[r] === 1) {
+      const first = pieces[clip.index[r]!]!;
+      if (los[r]! - first.t0 === lo - piece.t0 && sameEnd(hi - piece.t0, his[r]! - first.t0, hi)) continue;
+    }
+    searched[i] = 1;
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
     if (best === null || p.value > best.value * (1 + 1e-12)) best = { value: p.value, time: p.time };
   }
@@ -233,7 +237,7 @@ export function averageAndRms(
   pieces: readonly Piece[],
   start: number,
   end: number,
-  clip: ClipTable = clipTable(pieces, start, end),
+  clip: Clipped = clipTable(pieces, start, end),
 ): { average: number; rms: number } | null {
   const T = end - start;
   if (pieces.length === 0 || !(T > 0)) return null;
@@ -243,26 +247,37 @@ export function averageAndRms(
   // the cycles of a pulse train share their integrals (see RepeatedIntegrals); the periods of a
   // steady tail share their term arrays, and a range longer by d adds f(b)·d and f(b)²·d (repeat.ts)
   const cycles = new RepeatedIntegrals();
-  const seen = new Map<Term[], { b: number; sum: number; square: number; y: number }>();
-  for (let i = 0; i < clip.count; i++) {
+  // per clipped piece whose integrals were found over [0, b]: b, the integrals and y(b) (NaN: none)
+  const count = clip.count;
+  const { rep } = clip;
+  const B = new Float64Array(count).fill(NaN);
+  const S = new Float64Array(count);
+  const Q = new Float64Array(count);
+  const Y = new Float64Array(count);
+  for (let i = 0; i < count; i++) {
     const piece = pieces[clip.index[i]!]!;
     const hi = clip.hi[i]!;
     const a = clip.lo[i]! - piece.t0;
     const b = hi - piece.t0;
     const terms = piece.terms;
-    const s = seen.get(terms);
+    const r = rep[i]!;
     if (a > 0) {
       sum += integrateTerms(terms, b) - integrateTerms(terms, a);
       sq += integrateProduct(terms, terms, b) - integrateProduct(terms, terms, a);
-    } else if (s !== undefined && sameEnd(b, s.b, hi)) {
-      const d = b - s.b;
-      sum += s.sum + s.y * d;
-      sq += s.square + s.y * s.y * d;
+    } else if (r !== i && sameEnd(b, B[r]!, hi)) {
+      const d = b - B[r]!;
+      sum += S[r]! + Y[r]! * d;
+      sq += Q[r]! + Y[r]! * Y[r]! * d;
     } else {
       cycles.integrate(terms, b);
       sum += cycles.sum;
       sq += cycles.square;
-      if (s === undefined && seen.size < 4096) seen.set(terms, { b, sum: cycles.sum, square: cycles.square, y: termsValue(terms, b) });
+      if (r === i) {
+        B[i] = b;
+        S[i] = cycles.sum;
+        Q[i] = cycles.square;
+        Y[i] = termsValue(terms, b);
+      }
     }
     if (piece.impulseArea !== 0 && piece.t0 >= start && piece.t0 < end) {
       sum += piece.impulseArea;

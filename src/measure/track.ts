@@ -2,7 +2,7 @@ import type { Piece } from '../simulate/result.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue } from '../lti/term.js';
 import { maxOmega, pieceValue } from './evaluate.js';
 import { uniformIntervals } from './peak.js';
-import { sameEnd } from './repeat.js';
+import { type Clipped, clipTable, sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
 
@@ -134,16 +134,17 @@ class PieceTrack implements Track {
  * values, and the same bounds; only the end value moves, by y'(b)·d, and the bound on |y'| by at
  * most |y''(b)|·|d| (added twice).
  */
-export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[]): Track {
+export function buildTrack(times: Float64Array, values: Float64Array, pieces: readonly Piece[], clip?: Clipped): Track {
   const n = times.length;
   if (n === 0) return new PieceTrack(0, 0);
   const start = times[0]!;
   const end = times[n - 1]!;
   if (pieces.length === 0) return sampledTrack(times, values);
 
-  const of = new Int32Array(Math.max(1, pieces.length));
-  const track = new PieceTrack(start, end, pieces, of);
-  const buf = new Buffers(pieces.length);
+  const c = clip ?? clipTable(pieces, start, end);
+  const count = c.count;
+  const track = new PieceTrack(start, end, pieces, c.index.subarray(0, count));
+  const buf = new Buffers(count);
   const ctx: Ctx = {
     buf,
     times,
@@ -154,20 +155,20 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     D2: emptyGroups(),
     D3: emptyGroups(),
     reached: 0,
-    laid: new Map(),
     lastStart: 0,
   };
-  const laid = ctx.laid;
-  let count = 0;
-  for (let i = 0; i < pieces.length; i++) {
-    const piece = pieces[i]!;
-    const next = pieces[i + 1];
-    const lo = Math.max(piece.t0, start);
-    const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
-    if (hi < lo || (hi === lo && count > 0)) continue;
-    of[count++] = i;
+  // which pieces are repeated later (their layout is kept, by ordinal)
+  const { rep, lo: los, hi: his } = c;
+  const repeated = new Uint8Array(count);
+  for (let k = 0; k < count; k++) if (rep[k] !== k) repeated[rep[k]!] = 1;
+  const laid: (Laid | undefined)[] = [];
+  for (let k = 0; k < count; k++) {
+    const piece = pieces[c.index[k]!]!;
+    const lo = los[k]!;
+    const hi = his[k]!;
     const t0 = piece.t0;
-    const seen = hi > lo ? laid.get(piece.terms) : undefined;
+    const r = rep[k]!;
+    const seen = r !== k && hi > lo ? laid[r] : undefined;
     if (seen !== undefined && seen.a === lo - t0 && sameEnd(hi - t0, seen.b, hi)) {
       // a repeat (written out here: this runs once per period of a long pulse train)
       const d = hi - t0 - seen.b;
@@ -200,12 +201,8 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     // a piece covering a small part of the span needs proportionally fewer grid intervals
     // (a long pulse train has tens of thousands of short pieces); never fewer than 8
     const share = end > start ? (hi - lo) / (end - start) : 1;
-    pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)), seen === undefined);
-  }
-  if (count === 0) {
-    // Every piece lies outside the span: measure the last piece over the span.
-    of[count++] = pieces.length - 1;
-    pieceStretch(pieces[pieces.length - 1]!, start, end, ctx, MIN_INTERVALS, false);
+    const L = pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)), repeated[k] === 1);
+    if (L) laid[k] = L;
   }
   track.ts = buf.ts.subarray(0, buf.n);
   track.ys = buf.ys.subarray(0, buf.n);
@@ -227,8 +224,6 @@ interface Ctx {
   D3: Groups;
   /** the largest |y'| at a stretch start so far */
   reached: number;
-  /** stretches already laid out, by their pieces' term arrays (the periods of a steady tail share them) */
-  laid: Map<Piece['terms'], Laid>;
   /** |y'| at the start of the stretch just laid out (0 when not found) */
   lastStart: number;
 }
@@ -253,25 +248,22 @@ interface Laid {
 }
 
 /**
- * Appends the stretch of one piece over [lo, hi] to the track, laid out on its own; kept for the
- * repeats when `keep` (the first range laid out for an array stays: the last period, cut short by
- * the span, does not evict it).
+ * Appends the stretch of one piece over [lo, hi] to the track, laid out on its own; returns its
+ * layout for the repeats when `keep`.
  */
-function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number, keep: boolean): void {
+function pieceStretch(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: number, keep: boolean): Laid | undefined {
   const t0 = piece.t0;
   const buf = ctx.buf;
   if (hi === lo) {
     buf.push(lo, pieceValue(piece, lo));
     buf.close(Infinity);
-    return;
+    return undefined;
   }
   const a = lo - t0;
   const from = buf.n;
   layOut(piece, lo, hi, ctx, minIntervals);
-  if (keep && ctx.laid.size < 4096 && a === 0) {
-    const none = new Float64Array(0);
-    ctx.laid.set(piece.terms, { a, b: hi - t0, t0, from, to: buf.n, upper: buf.upper[buf.k - 1]!, start: ctx.lastStart, taus: null, ys: none, endSlope: 0, endCurve: 0 });
-  }
+  if (!keep || a !== 0) return undefined;
+  return { a, b: hi - t0, t0, from, to: buf.n, upper: buf.upper[buf.k - 1]!, start: ctx.lastStart, taus: null, ys: new Float64Array(0), endSlope: 0, endCurve: 0 };
 }
 
 /**

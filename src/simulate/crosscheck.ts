@@ -44,17 +44,8 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
       }
     }
     const g = shape;
-    const lift = (x: Vec) => {
-      const v = new Array<number>(g.d.length);
-      for (let i = 0; i < n; i++) v[i] = x[i] / g.d[i];
-      for (let i = n; i < g.d.length; i++) v[i] = g.start[i - n] / g.d[i];
-      return v;
-    };
-    const drop = (v: Vec) => {
-      const x = new Array<number>(n);
-      for (let i = 0; i < n; i++) x[i] = v[i] * g.d[i];
-      return x;
-    };
+    const lift = (x: Vec) => liftInto(g, n, x);
+    const drop = (v: Vec) => dropFrom(g, n, v);
     // skip check times before this interval (they fell on an earlier epoch's side)
     while (next < checks.length && checks[next].t < iv.t0) next++;
     if (next < checks.length && checks[next].t < iv.t1) {
@@ -104,6 +95,21 @@ export function referenceValues(ss: StateSpace, readouts: Readout[], schedule: I
     xi = xn;
   });
   return out;
+}
+
+/** The augmented state (balanced) of a circuit state x at the start of an interval of shape g. */
+function liftInto(g: Shape, n: number, x: Vec): Vec {
+  const v = new Array<number>(g.d.length);
+  for (let i = 0; i < n; i++) v[i] = x[i] / g.d[i];
+  for (let i = n; i < g.d.length; i++) v[i] = g.start[i - n] / g.d[i];
+  return v;
+}
+
+/** The circuit state of an augmented (balanced) one. */
+function dropFrom(g: Shape, n: number, v: Vec): Vec {
+  const x = new Array<number>(n);
+  for (let i = 0; i < n; i++) x[i] = v[i] * g.d[i];
+  return x;
 }
 
 function sameComponents(a: Component[], b: Component[]): boolean {
@@ -232,11 +238,20 @@ function exosystem(k: Component): { size: number; S: number[][]; out: number[]; 
  */
 export function checkTimes(t0: number, t1: number, schedule: InputSchedule): number[] {
   const len = t1 - t0;
-  const edges = schedule.intervals.map((iv) => iv.t0);
+  const ivs = schedule.intervals;
   const out: number[] = [];
   for (let k = 1; k <= 8; k++) {
     let t = t0 + (len * k) / 8.5;
-    if (edges.some((e) => Math.abs(t - e) <= 1e-9 * len)) t += len / 170;
+    // the breakpoints nearest t (interval starts in increasing order: a long train has 10⁴)
+    let lo = 0;
+    let hi = ivs.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (ivs[mid].t0 < t) lo = mid + 1;
+      else hi = mid;
+    }
+    const near = (i: number) => i >= 0 && i < ivs.length && Math.abs(t - ivs[i].t0) <= 1e-9 * len;
+    if (near(lo - 1) || near(lo)) t += len / 170;
     out.push(t);
   }
   return out;

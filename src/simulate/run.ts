@@ -270,7 +270,9 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   // round-off (the voltage across a coil carrying DC) is not judged against its own noise
   const peakOf = signals.map((s, w) => {
     let m = refMax[w];
-    for (const v of s.values) m = Math.max(m, Math.abs(v));
+    // (indexed: this runs once per call, unoptimized, and an iterator would box every sample)
+    const vs = s.values;
+    for (let i = 0; i < vs.length; i++) m = Math.max(m, Math.abs(vs[i]));
     return m;
   });
   // ... and never below the largest voltage (current) anywhere in the circuit at the starts of its
@@ -278,7 +280,15 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const circuitScale = { V: 0, A: 0 };
   partPieces.forEach((ps, q) => {
     const unit = q % 2 === 0 ? 'V' : 'A';
-    for (const p of ps) circuitScale[unit] = Math.max(circuitScale[unit], Math.abs(termsValue(p.terms, 0)));
+    // (the periods of a steady tail share a few term arrays: each evaluated once)
+    const recent: Piece['terms'][] = [];
+    for (let i = 0; i < ps.length; i++) {
+      const terms = ps[i].terms;
+      if (recent.includes(terms)) continue;
+      if (recent.length >= 8) recent.shift();
+      recent.push(terms);
+      circuitScale[unit] = Math.max(circuitScale[unit], Math.abs(termsValue(terms, 0)));
+    }
   });
   let maxRel = 0;
   signals.forEach((s, w) => {
