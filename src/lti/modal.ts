@@ -57,10 +57,12 @@ export function modalDecomposition(A: Mat): Modal {
   for (const row of A) norm = Math.max(norm, row.reduce((acc, v) => acc + Math.abs(v), 0));
   const tiny = 1e-12 * norm;
   const snapped = new Set<number>();
+  const slow = new Set<number>();
   for (let i = 0; i < n; i++) {
     // a real eigenvalue below ‖A‖'s round-off may still be a genuine slow mode (a 10 s time
     // constant beside a 1 ps one): kept when its eigenpair is verified to its own size
-    if (Math.hypot(re[i], im[i]) <= tiny && !(im[i] === 0 && re[i] !== 0 && verifiedSlow(A, re[i], V.map((row) => row[i])))) {
+    if (Math.hypot(re[i], im[i]) <= tiny && im[i] === 0 && re[i] !== 0 && verifiedSlow(A, re[i], V.map((row) => row[i]))) slow.add(i);
+    else if (Math.hypot(re[i], im[i]) <= tiny) {
       if (im[i] !== 0) snapped.add(i);
       re[i] = 0;
       im[i] = 0;
@@ -100,7 +102,8 @@ export function modalDecomposition(A: Mat): Modal {
       if (re[H[0]] - re[G[0]] > CLOSE * big + tiny) break;
       let dist = Infinity;
       for (const i of G) for (const j of H) dist = Math.min(dist, Math.hypot(re[i] - re[j], im[i] - im[j]));
-      const equal = dist <= 1e-9 * big + tiny;
+      // (a verified slow mode is not round-off of zero: it merges only with its equals)
+      const equal = dist <= 1e-9 * big + (G.some((i) => slow.has(i)) || H.some((j) => slow.has(j)) ? 0 : tiny);
       if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
@@ -416,10 +419,12 @@ function invariantSubspace(A: Mat, eig: { re: number; im: number }[]): number[][
 
 /**
  * Whether a real eigenvalue λ far below ‖A‖ is resolved to its own size: its eigenpair satisfies
- * A·v = λ·v to 1e-11 of |λ|·‖v‖ (the eigen-solver's error is of ‖A‖'s size in general, so only a
- * mode it computed exactly, e.g. one that does not couple to the fast ones, passes), and λ moves by
- * less than 1e-12 of itself when each entry of A moves by its own relative round-off
- * (|w|ᵀ·|A|·|v| / |wᵀ·v|, w the left eigenvector by inverse iteration).
+ * A·v = λ·v to 1e-2 of |λ|·‖v‖ (a zero computed as round-off of ‖A‖ misses that by many orders,
+ * while the residual of a genuine slow mode is dominated by the round-off of A·v itself: 1e-3 for
+ * a 1.4e3/s mode beside a 3e15/s one, whose eigenvalue was right to 1e-8; the in-run cross-check
+ * judges the rest), and λ moves by less than 1e-12 of itself when each entry of A
+ * moves by its own relative round-off (|w|ᵀ·|A|·|v| / |wᵀ·v|, w the left eigenvector by inverse
+ * iteration).
  */
 function verifiedSlow(A: Mat, lambda: number, v: number[]): boolean {
   const n = A.length;
@@ -431,7 +436,7 @@ function verifiedSlow(A: Mat, lambda: number, v: number[]): boolean {
     for (let j = 0; j < n; j++) acc += A[i][j] * v[j];
     res = Math.max(res, Math.abs(acc));
   }
-  if (!(res <= 1e-11 * Math.abs(lambda) * vmax)) return false;
+  if (!(res <= 1e-2 * Math.abs(lambda) * vmax)) return false;
   const f = luFactor(A.map((_, i) => A.map((row, j) => row[i] - (i === j ? lambda : 0))));
   if (luSingular(f)) return false;
   let w = Array.from({ length: n }, (_, i) => [1 + (i % 7) / 10]);
