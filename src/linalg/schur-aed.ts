@@ -21,6 +21,26 @@
 const EPS = 2 ** -52;
 const SAFE_MIN = 2 ** -1022;
 
+// scratch for the block swaps (at most 4×4) and the window products, reused across calls: AED
+// runs often and small typed-array allocations showed up as garbage-collection time (measured)
+const sD = new Float64Array(16);
+const sQ = new Float64Array(16);
+const sQD = new Float64Array(16);
+const sR = new Float64Array(16);
+const sK = new Float64Array(16);
+const sM = new Float64Array(8);
+const s4a = new Float64Array(4);
+const s4b = new Float64Array(4);
+const s4c = new Float64Array(4);
+const s4d = new Float64Array(4);
+let scratch = new Float64Array(1024);
+
+/** A reused buffer of at least `len` entries (contents undefined). */
+function work(len: number): Float64Array {
+  if (scratch.length < len) scratch = new Float64Array(Math.max(len, 2 * scratch.length));
+  return scratch;
+}
+
 /** Real Schur form of an n×n Hessenberg T in place, Schur vectors accumulated in Ut (transposed). */
 export type SchurFn = (T: Float64Array, n: number, Ut: Float64Array, d: Float64Array, e: Float64Array) => void;
 
@@ -211,7 +231,7 @@ export function swapBlocks(T: Float64Array, Ut: Float64Array, n: number, j1: num
     return true;
   }
   const nd = n1 + n2;
-  const D = new Float64Array(16);
+  const D = sD;
   let dnorm = 0;
   for (let i = 0; i < nd; i++) {
     for (let j = 0; j < nd; j++) {
@@ -223,12 +243,12 @@ export function swapBlocks(T: Float64Array, Ut: Float64Array, n: number, j1: num
   // T11·X − X·T22 = T12; then [−X; I] spans the invariant subspace of T22
   const X = sylvester(D, n1, n2);
   // Householder QR of M = [−X; I] (nd×n2): Q's first n2 columns span range(M)
-  const M = new Float64Array(8);
+  const M = sM.fill(0);
   for (let i = 0; i < n1; i++) for (let j = 0; j < n2; j++) M[i * 2 + j] = -X[i * 2 + j];
   for (let j = 0; j < n2; j++) M[(n1 + j) * 2 + j] = 1;
-  const Q = new Float64Array(16);
+  const Q = sQ.fill(0);
   for (let i = 0; i < nd; i++) Q[i * 4 + i] = 1;
-  const v = new Float64Array(4);
+  const v = s4a;
   for (let c = 0; c < n2; c++) {
     const len = nd - c;
     for (let i = 0; i < len; i++) v[i] = M[(c + i) * 2 + c];
@@ -249,8 +269,8 @@ export function swapBlocks(T: Float64Array, Ut: Float64Array, n: number, j1: num
     }
   }
   // the swapped block Qᵀ·D·Q: its lower-left n1×n2 part must be round-off
-  const QD = new Float64Array(16);
-  const R = new Float64Array(16);
+  const QD = sQD;
+  const R = sR;
   for (let i = 0; i < nd; i++) {
     for (let j = 0; j < nd; j++) {
       let acc = 0;
@@ -268,7 +288,7 @@ export function swapBlocks(T: Float64Array, Ut: Float64Array, n: number, j1: num
   const thresh = Math.max(10 * EPS * dnorm, SAFE_MIN / EPS);
   for (let i = n2; i < nd; i++) for (let j = 0; j < n2; j++) if (!(Math.abs(R[i * 4 + j]) <= thresh)) return false;
   // apply to T: rows j1.. (columns j1..n−1) and columns j1.. (rows 0..j1 + nd − 1), and to Ut
-  const tmp = new Float64Array(4);
+  const tmp = s4a;
   for (let col = j1; col < n; col++) {
     for (let i = 0; i < nd; i++) tmp[i] = T[(j1 + i) * n + col];
     for (let i = 0; i < nd; i++) {
@@ -312,8 +332,8 @@ export function swapBlocks(T: Float64Array, Ut: Float64Array, n: number, j1: num
  */
 function sylvester(D: Float64Array, n1: number, n2: number): Float64Array {
   const m = n1 * n2;
-  const K = new Float64Array(16);
-  const rhs = new Float64Array(4);
+  const K = sK.fill(0);
+  const rhs = s4b.fill(0);
   let kmax = 0;
   // unknown (i, j) at index i + n1·j
   for (let j = 0; j < n2; j++) {
@@ -370,13 +390,13 @@ function sylvester(D: Float64Array, n1: number, n2: number): Float64Array {
       rhs[i] -= f * rhs[c];
     }
   }
-  const y = new Float64Array(4);
+  const y = s4c.fill(0);
   for (let i = m - 1; i >= 0; i--) {
     let acc = rhs[i];
     for (let j = i + 1; j < m; j++) acc -= K[i * 4 + j] * y[j];
     y[i] = acc / K[i * 4 + i];
   }
-  const X = new Float64Array(4);
+  const X = s4d.fill(0);
   for (let c = 0; c < m; c++) {
     const u = perm[c];
     X[(u % n1) * 2 + Math.floor(u / n1)] = y[c];
@@ -429,27 +449,29 @@ function restoreHessenberg(T: Float64Array, Ut: Float64Array, jw: number, ns: nu
 
 /** T := P·T·P and Ut := P·Ut for P = I − τ·v·vᵀ acting on indices r0..r0+len−1 (T's right product on rows 0..ns−1). */
 function reflectBoth(T: Float64Array, Ut: Float64Array, jw: number, ns: number, r0: number, len: number, v: Float64Array, tau: number): void {
-  const w = new Float64Array(jw);
-  for (const M of [T, Ut]) {
-    // M := P·M on rows r0.., all columns (T's columns left of r0 − 1 are zero in those rows)
-    w.fill(0);
-    for (let i = 0; i < len; i++) {
-      const vi = v[i];
-      const b = (r0 + i) * jw;
-      for (let j = 0; j < jw; j++) w[j] += vi * M[b + j];
-    }
-    for (let i = 0; i < len; i++) {
-      const f = tau * v[i];
-      const b = (r0 + i) * jw;
-      for (let j = 0; j < jw; j++) M[b + j] -= f * w[j];
-    }
-  }
+  reflectRows(T, jw, r0, len, v, tau);
+  reflectRows(Ut, jw, r0, len, v, tau);
   for (let r = 0; r < ns; r++) {
     const b = r * jw + r0;
     let dot = 0;
     for (let i = 0; i < len; i++) dot += T[b + i] * v[i];
     dot *= tau;
     for (let i = 0; i < len; i++) T[b + i] -= dot * v[i];
+  }
+}
+
+/** M := P·M on rows r0..r0+len−1, all jw columns (T's columns left of r0 − 1 are zero in those rows). */
+function reflectRows(M: Float64Array, jw: number, r0: number, len: number, v: Float64Array, tau: number): void {
+  const w = work(jw).fill(0, 0, jw);
+  for (let i = 0; i < len; i++) {
+    const vi = v[i];
+    const b = (r0 + i) * jw;
+    for (let j = 0; j < jw; j++) w[j] += vi * M[b + j];
+  }
+  for (let i = 0; i < len; i++) {
+    const f = tau * v[i];
+    const b = (r0 + i) * jw;
+    for (let j = 0; j < jw; j++) M[b + j] -= f * w[j];
   }
 }
 
@@ -477,7 +499,7 @@ function rotateColumns(M: Float64Array, n: number, a: number, b: number, r0: num
 
 /** Rows r0..r1 of M, columns k0..k0+jw−1: M := M·U, with U = Utᵀ (a dot product with each row of Ut). */
 function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: number, Ut: Float64Array, jw: number): void {
-  const row = new Float64Array(jw);
+  const row = work(jw);
   for (let r = r0; r <= r1; r++) {
     const b = r * nn + k0;
     for (let k = 0; k < jw; k++) row[k] = M[b + k];
@@ -493,7 +515,7 @@ function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: 
 /** Rows k0..k0+jw−1 of M, columns c0..c1: M := Uᵀ·M = Ut·M (row j of the result = Σₖ Ut[j][k]·row k). */
 function leftMultiply(M: Float64Array, nn: number, k0: number, c0: number, c1: number, Ut: Float64Array, jw: number): void {
   const width = c1 - c0 + 1;
-  const out = new Float64Array(jw * width);
+  const out = work(jw * width).fill(0, 0, jw * width);
   for (let j = 0; j < jw; j++) {
     const o = j * width;
     const u = j * jw;

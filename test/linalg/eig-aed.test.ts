@@ -62,7 +62,7 @@ describe(`eig with aggressive early deflation vs ${golden.source} golden data`, 
 /** A random orthogonal n×n matrix: a product of Householder reflectors of random vectors. */
 function orthogonal(n: number, seed: number): number[][] {
   const r = rng(seed);
-  const Q = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+  const Q = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j): number => (i === j ? 1 : 0)));
   for (let k = 0; k < 6; k++) {
     const v = Array.from({ length: n }, () => 2 * r() - 1);
     const vv = v.reduce((s, x) => s + x * x, 0);
