@@ -174,7 +174,7 @@ export function buildModel(circuit: Circuit): Model {
     return { C, D, D1: dx[1] ?? new Array(m).fill(0) };
   };
 
-  const init: InitContext = { circuit, d, s, zpRow: direct ? direct.zpRow : (i) => r.Zp[i], Zp: () => r.Zp, Zu: red.Zu, np, applyX, Xu, chosen, physical };
+  const init: InitContext = { circuit, d, s, zpRow: direct ? direct.zpRow : (i) => r.Zp[i], unitAt: direct?.unitAt, Zp: () => r.Zp, Zu: red.Zu, np, applyX, Xu, chosen, physical };
   const initialState = (before: Map<string, number>, u0: Vec, du0: Vec): InitialState =>
     isTree(red)
       ? treeInitial(init, red, before, u0)
@@ -369,6 +369,8 @@ interface InitContext {
   /** row i of Zp, and all of it (formed on first use on the index-one path) */
   zpRow(i: number): Vec;
   Zp(): Mat;
+  /** k when z_i is p_k itself (index-one path), else −1 */
+  unitAt?: (i: number) => number;
   Zu: Mat[];
   np: number;
   applyX(p: Vec): Vec;
@@ -462,7 +464,7 @@ function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat; eddDiagon
   if (Zu[0]) addInto(zu, matvec(Zu[0], u0));
   const x = np ? applyX(p) : [];
   if (Xu[0]) addInto(x, matvec(Xu[0], u0));
-  const jumps = settleJumps(physical, beforeValues, ctx.zpRow, zu, p, s, u0, chosen, x);
+  const jumps = settleJumps(physical, beforeValues, ctx.zpRow, zu, p, s, u0, chosen, x, ctx.unitAt);
   return { x, jumps, residual: 0 };
 }
 
@@ -470,11 +472,15 @@ function index1Initial(ctx: InitContext, idx: { d: number[]; Edd: Mat; eddDiagon
  * Which capacitors/inductors changed value in the instant; a change below 1e-9 of the circuit's
  * largest stored value or source value is round-off, and then the state keeps its value exactly.
  */
-function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, number>, zpRow: (i: number) => Vec, zu: Vec, p: Vec, s: number[], u0: Vec, chosen: number[], x: Vec): InitialState['jumps'] {
-  // z just after the instant, only where a capacitor or inductor reads it
+function settleJumps(physical: PhysicalQuantity[], beforeValues: Map<string, number>, zpRow: (i: number) => Vec, zu: Vec, p: Vec, s: number[], u0: Vec, chosen: number[], x: Vec, unitAt?: (i: number) => number): InitialState['jumps'] {
+  // z just after the instant, only where a capacitor or inductor reads it; a unit row of Zp picks
+  // p_k (the sum over the row's zeros adds only zeros while p is finite)
+  const finite = p.every(Number.isFinite);
   const zPlus = (i: number): number => {
     let acc = 0;
-    if (p.length) {
+    const k = unitAt && finite ? unitAt(i) : -1;
+    if (k >= 0) acc = 0 + p[k];
+    else if (p.length) {
       const row = zpRow(i);
       for (let j = 0; j < p.length; j++) acc += row[j] * p[j];
     }

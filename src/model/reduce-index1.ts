@@ -20,6 +20,8 @@ export interface IndexOneReduction extends Reduction {
   Frows: SparseRow[];
   /** row i of Zp: z_i in terms of p */
   zpRow(i: number): Vec;
+  /** k when z_i is p_k itself (a differential unknown), else −1 */
+  unitAt(i: number): number;
 }
 
 /**
@@ -267,6 +269,7 @@ export function reduceIndexOne(desc: Descriptor, m: number): IndexOneReduction |
     },
     Frows,
     zpRow,
+    unitAt: (i) => posD[i],
   };
 }
 
