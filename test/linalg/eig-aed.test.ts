@@ -1,6 +1,6 @@
 /**
  * The QR iteration's aggressive early deflation (src/linalg/schur-aed.ts), used on active blocks
- * of 75 rows or more.
+ * of 110 rows or more (the cases below are larger).
  *
  * References: numpy.linalg.eig golden data (test/linalg/make_aed_golden.py, the matrices rebuilt
  * here from the same integer sequence); similarity invariance of the spectrum (textbook, from
@@ -121,8 +121,8 @@ describe('eig with aggressive early deflation: known spectra (similarity invaria
 
   it('a graded spectrum (1 … 1e-8, real and complex) keeps its small eigenvalues to ε·‖A‖', () => {
     const spec: { re: number; im: number }[] = [];
-    for (let k = 0; k < 60; k++) {
-      const m = 10 ** (-8 * (k / 59));
+    for (let k = 0; k < 100; k++) {
+      const m = 10 ** (-8 * (k / 99));
       spec.push(k % 2 === 0 ? { re: -m, im: 0 } : { re: -0.3 * m, im: m });
     }
     const { D, values } = blockDiagonal(spec);
@@ -135,11 +135,11 @@ describe('eig with aggressive early deflation: known spectra (similarity invaria
 
   it('Jordan blocks of size 2 (defective): eigenvalues to √(ε·‖A‖·‖N‖), residual stays at round-off', () => {
     const spec: { re: number; im: number }[] = [];
-    for (let k = 0; k < 50; k++) spec.push({ re: -1 - 0.02 * k, im: 0 });
-    for (let k = 0; k < 25; k++) spec.push({ re: -0.1 * k, im: 1 + 0.1 * k });
+    for (let k = 0; k < 70; k++) spec.push({ re: -1 - 0.02 * k, im: 0 });
+    for (let k = 0; k < 30; k++) spec.push({ re: -0.1 * k, im: 1 + 0.1 * k });
     const { D, values } = blockDiagonal(spec);
     // couple the real eigenvalues two by two into Jordan blocks: equal diagonal, unit superdiagonal
-    for (let k = 0; k < 50; k += 2) {
+    for (let k = 0; k < 70; k += 2) {
       D[k + 1][k + 1] = D[k][k];
       values[k + 1] = values[k];
       D[k][k + 1] = 1;

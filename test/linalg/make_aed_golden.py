@@ -2,7 +2,7 @@
 """Golden eigenvalues for test/linalg/eig-aed.test.ts from numpy.linalg.eig (LAPACK dgeev).
 
 The matrices are sizes where the QR iteration uses aggressive early deflation (active blocks of
-75 rows or more). They are not stored: each is the same linear congruential sequence as
+110 rows or more). They are not stored: each is the same linear congruential sequence as
 randomMatrix() in test/linalg/matrices.ts (s ← 1664525·s + 1013904223 mod 2³², entry 2·s/2³² − 1,
 exact in binary floating point), so both sides build identical matrices. Stored per case: the
 eigenvalues and the largest eigenvalue condition number (1/|yᴴx| for unit left/right vectors,
