@@ -63,7 +63,7 @@ describe('fuzz: hostile text ends in a result or an InputError', () => {
         fc.property(spliced, (text) => {
           expect(['result', 'input-error']).toContain(outcome(text));
         }),
-        { numRuns: 200, seed: 20250302, endOnFailure: true },
+        { numRuns: Number(process.env.FUZZ_RUNS ?? 200), seed: Number(process.env.FUZZ_SEED ?? 20250302), endOnFailure: true },
       );
     },
     120_000,

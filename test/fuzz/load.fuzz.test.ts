@@ -54,7 +54,7 @@ const mutated = fc
     return ls.join('\n');
   });
 
-const PARAMS = { numRuns: 300, seed: 20240611, endOnFailure: true } as const;
+const PARAMS = { numRuns: Number(process.env.FUZZ_RUNS ?? 300), seed: Number(process.env.FUZZ_SEED ?? 20240611), endOnFailure: true } as const;
 
 describe('fuzz: loadCircuit returns or throws InputError only', () => {
   it('random bytes (decoded as UTF-8, invalid sequences replaced)', () => {
