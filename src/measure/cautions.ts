@@ -4,6 +4,7 @@ import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
 import { derivativeTerms, extremaOnGrid, type Located } from './grid.js';
 import { clipPieces } from './peak.js';
+import { clipTable, sameEnd } from './repeat.js';
 import { emptyGroups, groupsBound, groupsDerivative, groupTermsAlike } from '../lti/term.js';
 import { StressGrids } from './stress.js';
 
@@ -254,11 +255,22 @@ function boundOf(pieces: readonly Piece[], start: number, end: number, slope: bo
   let b = 0;
   const G = emptyGroups();
   const D = emptyGroups();
-  for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
-    const a = lo - piece.t0;
+  // a piece repeating an earlier one's term array over the same τ range (repeat.ts) has its bound
+  // (the ulps by which the range may be longer move it by far less than BOUND_SLACK)
+  const c = clipTable(pieces, start, end);
+  const done = new Uint8Array(c.count);
+  for (let k = 0; k < c.count; k++) {
+    const piece = pieces[c.index[k]!]!;
+    const a = c.lo[k]! - piece.t0;
     if (a < 0) return Infinity;
+    const r = c.rep[k]!;
+    if (r !== k && done[r] === 1) {
+      const f = pieces[c.index[r]!]!;
+      if (c.lo[r]! - f.t0 === a && sameEnd(c.hi[k]! - piece.t0, c.hi[r]! - f.t0, c.hi[k]!)) continue;
+    }
+    done[k] = 1;
     groupTermsAlike([piece.terms], [G]);
-    const x = groupsBound(slope ? groupsDerivative(G, D) : G, a, hi - piece.t0);
+    const x = groupsBound(slope ? groupsDerivative(G, D) : G, a, c.hi[k]! - piece.t0);
     // NaN (a NaN coefficient): no bound
     if (Number.isNaN(x)) return Infinity;
     if (x > b) b = x;

@@ -1,11 +1,13 @@
 import type { PartKind } from '../circuit/circuit.js';
 import { ProductIntegrals, productsFor } from '../lti/gram.js';
+import { termsValue } from '../lti/term.js';
 import { JointPeaks } from './joint-peaks.js';
 import type { Piece, RunResult } from '../simulate/result.js';
 import { evaluatePiecesBefore, pieceDerivative, pieceValue } from './evaluate.js';
 import { switchVoltagesByKVL, withJumpImpulses } from './kvl.js';
 import { GridSet, derivativeTerms, peakOnGrid, type GridBasis } from './grid.js';
 import { TIE, clipPieces, termsOmega, termsRate, type MagnitudePeak } from './peak.js';
+import { clipTable, sameEnd } from './repeat.js';
 
 /**
  * What each part goes through over the analysed span, from the exact closed forms of its voltage
@@ -73,32 +75,96 @@ function impulsesIn(pieces: readonly Piece[], start: number, end: number, scale:
  */
 export class StressGrids {
   private readonly set: GridSet;
-  private readonly scales = new Map<string, { omega: number; rate: number }>();
+  /**
+   * The stretches of the first list included, in order (every part's forms share the run's piece
+   * boundaries: looked up by bisection, no hashing of 10⁵ stretches), with the time scales of
+   * every list over them; stretches of other lists that are not among them, by start time.
+   */
+  private ord: { t0: Float64Array; lo: Float64Array; hi: Float64Array; omega: Float64Array; rate: Float64Array; count: number } | null = null;
+  private readonly scales = new Map<number, Scale[]>();
 
   constructor(times?: ArrayLike<number>) {
     this.set = new GridSet(times);
   }
 
+  /** Ordinal of the stretch [lo, hi] of a piece starting at t0 among the first list's, or −1. */
+  private ordinal(t0: number, lo: number, hi: number, hint = -1): number {
+    const o = this.ord;
+    if (!o) return -1;
+    if (hint >= 0 && hint < o.count && o.lo[hint] === lo && o.hi[hint] === hi && o.t0[hint] === t0) return hint;
+    let a = 0;
+    let b = o.count;
+    while (a < b) {
+      const mid = (a + b) >> 1;
+      if (o.lo[mid]! < lo) a = mid + 1;
+      else b = mid;
+    }
+    for (let k = a; k < o.count && o.lo[k] === lo; k++) if (o.hi[k] === hi && o.t0[k] === t0) return k;
+    return -1;
+  }
+
+  private find(t0: number, lo: number, hi: number, make: boolean): Scale | undefined {
+    let list = this.scales.get(t0);
+    if (list) {
+      for (const s of list) if (s.lo === lo && s.hi === hi) return s;
+    } else if (make) this.scales.set(t0, (list = []));
+    if (!make) return undefined;
+    const s: Scale = { lo, hi, omega: 0, rate: 0 };
+    list!.push(s);
+    return s;
+  }
+
   /** Takes the time scales of these pieces into account (call for every signal before searching). */
   include(pieces: readonly Piece[], start: number, end: number): void {
-    for (const { piece, lo, hi } of clipPieces(pieces, start, end)) {
-      const key = `${piece.t0}|${lo}|${hi}`;
-      const s = this.scales.get(key) ?? { omega: 0, rate: 0 };
-      s.omega = Math.max(s.omega, termsOmega(piece.terms));
-      s.rate = Math.max(s.rate, termsRate(piece.terms));
-      this.scales.set(key, s);
+    // (pieces sharing a term array share its scales: worked out once)
+    const c = clipTable(pieces, start, end);
+    const om = new Float64Array(c.count);
+    const ra = new Float64Array(c.count);
+    for (let k = 0; k < c.count; k++) {
+      const piece = pieces[c.index[k]!]!;
+      const r = c.rep[k]!;
+      om[k] = r === k ? termsOmega(piece.terms) : om[r]!;
+      ra[k] = r === k ? termsRate(piece.terms) : ra[r]!;
+    }
+    if (!this.ord) {
+      const t0 = new Float64Array(c.count);
+      for (let k = 0; k < c.count; k++) t0[k] = pieces[c.index[k]!]!.t0;
+      this.ord = { t0, lo: c.lo.slice(0, c.count), hi: c.hi.slice(0, c.count), omega: om, rate: ra, count: c.count };
+      return;
+    }
+    const o = this.ord;
+    for (let k = 0; k < c.count; k++) {
+      const t0 = pieces[c.index[k]!]!.t0;
+      const j = this.ordinal(t0, c.lo[k]!, c.hi[k]!, k);
+      if (j >= 0) {
+        o.omega[j] = Math.max(o.omega[j]!, om[k]!);
+        o.rate[j] = Math.max(o.rate[j]!, ra[k]!);
+      } else {
+        const s = this.find(t0, c.lo[k]!, c.hi[k]!, true)!;
+        s.omega = Math.max(s.omega, om[k]!);
+        s.rate = Math.max(s.rate, ra[k]!);
+      }
     }
   }
 
   /** The fastest oscillation and decay of the signals over this stretch (those of the piece when not included). */
-  scale(piece: Piece, lo: number, hi: number): { omega: number; rate: number } {
-    return this.scales.get(`${piece.t0}|${lo}|${hi}`) ?? { omega: termsOmega(piece.terms), rate: termsRate(piece.terms) };
+  scale(piece: Piece, lo: number, hi: number, hint = -1): { omega: number; rate: number } {
+    const j = this.ordinal(piece.t0, lo, hi, hint);
+    if (j >= 0) return { omega: this.ord!.omega[j]!, rate: this.ord!.rate[j]! };
+    return this.find(piece.t0, lo, hi, false) ?? { omega: termsOmega(piece.terms), rate: termsRate(piece.terms) };
   }
 
   grid(piece: Piece, lo: number, hi: number): GridBasis {
     const s = this.scale(piece, lo, hi);
     return this.set.get(piece.t0, lo, hi, 2 * s.omega, 2 * s.rate);
   }
+}
+
+interface Scale {
+  lo: number;
+  hi: number;
+  omega: number;
+  rate: number;
 }
 
 /** A piece's value and derivative on a grid, computed once per part. */
@@ -188,16 +254,42 @@ function peakOfProduct(v: readonly Piece[], i: readonly Piece[], start: number, 
 function integralsOf(v: readonly Piece[], i: readonly Piece[], start: number, end: number, products: ProductIntegrals): { vi: number; ii: number } {
   let vi = 0;
   let ii = 0;
-  for (const { piece: pv, index, lo, hi } of clipPieces(v, start, end)) {
+  // a pair repeating an earlier pair's term arrays from τ = 0 to an end a few ulps away (repeat.ts)
+  // has its integrals plus v(b)·i(b)·d and i(b)²·d
+  const c = clipTable(v, start, end);
+  const VI = new Float64Array(c.count);
+  const II = new Float64Array(c.count);
+  const B = new Float64Array(c.count).fill(NaN);
+  const VB = new Float64Array(c.count);
+  const IB = new Float64Array(c.count);
+  for (let k = 0; k < c.count; k++) {
+    const index = c.index[k]!;
+    const pv = v[index]!;
     const pi = i[index];
+    const lo = c.lo[k]!;
+    const hi = c.hi[k]!;
     if (!pi || !(hi > lo)) continue;
-    products.pair(pv.terms, pi.terms, hi - pv.t0);
+    const b = hi - pv.t0;
+    const r = c.rep[k]!;
+    if (r !== k && lo === pv.t0 && i[c.index[r]!]?.terms === pi.terms && sameEnd(b, B[r]!, hi)) {
+      const d = b - B[r]!;
+      vi += VI[r]! + VB[r]! * IB[r]! * d;
+      ii += II[r]! + IB[r]! * IB[r]! * d;
+      continue;
+    }
+    products.pair(pv.terms, pi.terms, b);
     vi += products.fg;
     ii += products.gg;
     if (lo > pv.t0) {
       products.pair(pv.terms, pi.terms, lo - pv.t0);
       vi -= products.fg;
       ii -= products.gg;
+    } else if (r === k) {
+      B[k] = b;
+      VI[k] = products.fg;
+      II[k] = products.gg;
+      VB[k] = termsValue(pv.terms, b);
+      IB[k] = termsValue(pi.terms, b);
     }
   }
   return { vi, ii };
@@ -218,8 +310,18 @@ function peaks(forms: PartForms, start: number, end: number, g: StressGrids, joi
   const v: MagnitudePeak = { value: 0, time: start };
   const i: MagnitudePeak = { value: 0, time: start };
   const power: MagnitudePeak = { value: 0, time: start };
+  // a pair of pieces with the same term arrays over the same τ range (repeat.ts) as a pair searched
+  // before has the same peaks (to rounding), which cannot beat those by 1e-12: not searched again
+  const rep = clipTable(forms.voltage, start, end).rep;
+  const searched = new Uint8Array(vc.length);
   vc.forEach(({ piece, lo, hi }, k) => {
-    const s = g.scale(piece, lo, hi);
+    const r = rep[k]!;
+    if (r !== k && searched[r] === 1 && ic[k]!.piece.terms === ic[r]!.piece.terms) {
+      const f = vc[r]!;
+      if (lo - piece.t0 === f.lo - f.piece.t0 && sameEnd(hi - piece.t0, f.hi - f.piece.t0, hi)) return;
+    }
+    searched[k] = 1;
+    const s = g.scale(piece, lo, hi, k);
     joint.search(piece, ic[k]!.piece, lo, hi, s.omega, s.rate, v, i, power);
   });
   return { v, i, power };
