@@ -1,6 +1,8 @@
 import type { Circuit } from '../circuit/circuit.js';
 import { productsFor } from '../lti/gram.js';
+import { termsValue } from '../lti/term.js';
 import type { Piece } from '../simulate/result.js';
+import { sameEnd } from './repeat.js';
 
 /**
  * Energy bookkeeping over the span from the exact closed forms (∫ v·i dt per piece, in closed form):
@@ -29,9 +31,20 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   const products = productsFor(circuit);
   const perPart = parts.map((p) => {
     let absorbed = 0;
+    // a pair of term arrays seen before over a length a few ulps away (a steady tail's periods,
+    // repeat.ts): its integral plus v(b)·i(b)·d
+    const seen = new Map<Piece['terms'], { i: Piece['terms']; b: number; fg: number; vb: number; ib: number }>();
     p.voltage.forEach((pv, k) => {
-      products.pair(pv.terms, p.current[k].terms, pv.t1 - pv.t0);
+      const pi = p.current[k];
+      const b = pv.t1 - pv.t0;
+      const s = seen.get(pv.terms);
+      if (s !== undefined && s.i === pi.terms && sameEnd(b, s.b, pv.t1)) {
+        absorbed += s.fg + s.vb * s.ib * (b - s.b);
+        return;
+      }
+      products.pair(pv.terms, pi.terms, b);
       absorbed += products.fg;
+      if (s === undefined) seen.set(pv.terms, { i: pi.terms, b, fg: products.fg, vb: termsValue(pv.terms, b), ib: termsValue(pi.terms, b) });
     });
     const kind = circuit.parts.find((q) => q.name === p.part)?.kind;
     if (kind === 'voltage-source' || kind === 'current-source') delivered -= absorbed;
