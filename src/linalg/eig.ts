@@ -448,8 +448,8 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
     if (ort[m] > 0) g = -g;
     h -= ort[m] * g;
     ort[m] -= g;
-    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h);
-    // four rows per pass over f, two per pass in the update, to cut loads and stores per product
+    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h,
+    // the latter fused into the right product below); four rows per pass over f
     f.fill(0, m, n);
     let i = m;
     for (; i + 3 <= high; i += 4) {
@@ -469,24 +469,9 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
       for (let j = m; j < n; j++) f[j] += oi * H[base + j];
     }
     for (let j = m; j < n; j++) f[j] /= h;
-    i = m;
-    for (; i + 1 <= high; i += 2) {
-      const o0 = ort[i];
-      const o1 = ort[i + 1];
-      const b0 = i * n;
-      const b1 = b0 + n;
-      for (let j = m; j < n; j++) {
-        const fj = f[j];
-        H[b0 + j] -= o0 * fj;
-        H[b1 + j] -= o1 * fj;
-      }
-    }
-    for (; i <= high; i++) {
-      const oi = ort[i];
-      const base = i * n;
-      for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
-    }
-    // H := H·(I − u·uᵀ/h)  on rows 0..high, columns m..high, four rows at a time
+    // H := H·(I − u·uᵀ/h) on rows 0..high, columns m..high, four rows at a time; rows m..high first
+    // take the left update (H −= u·f), fused with the dot product of the right one, so that each
+    // row is read and written twice instead of three times (same operations in the same order)
     i = 0;
     for (; i + 3 <= high; i += 4) {
       const b0 = i * n;
@@ -497,12 +482,36 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
       let s1 = 0;
       let s2 = 0;
       let s3 = 0;
-      for (let j = m; j <= high; j++) {
-        const oj = ort[j];
-        s0 += oj * H[b0 + j];
-        s1 += oj * H[b1 + j];
-        s2 += oj * H[b2 + j];
-        s3 += oj * H[b3 + j];
+      if (i + 3 < m) {
+        for (let j = m; j <= high; j++) {
+          const oj = ort[j];
+          s0 += oj * H[b0 + j];
+          s1 += oj * H[b1 + j];
+          s2 += oj * H[b2 + j];
+          s3 += oj * H[b3 + j];
+        }
+      } else {
+        // rows below m carry ort = 0 in the left update only when the block straddles m
+        const o0 = i >= m ? ort[i] : 0;
+        const o1 = i + 1 >= m ? ort[i + 1] : 0;
+        const o2 = i + 2 >= m ? ort[i + 2] : 0;
+        const o3 = ort[i + 3];
+        for (let j = m; j <= high; j++) {
+          const oj = ort[j];
+          const fj = f[j];
+          const v0 = H[b0 + j] - o0 * fj;
+          const v1 = H[b1 + j] - o1 * fj;
+          const v2 = H[b2 + j] - o2 * fj;
+          const v3 = H[b3 + j] - o3 * fj;
+          H[b0 + j] = v0;
+          H[b1 + j] = v1;
+          H[b2 + j] = v2;
+          H[b3 + j] = v3;
+          s0 += oj * v0;
+          s1 += oj * v1;
+          s2 += oj * v2;
+          s3 += oj * v3;
+        }
       }
       s0 /= h;
       s1 /= h;
@@ -518,6 +527,10 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
     }
     for (; i <= high; i++) {
       const base = i * n;
+      if (i >= m) {
+        const oi = ort[i];
+        for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
+      }
       let s0 = 0;
       for (let j = m; j <= high; j++) s0 += ort[j] * H[base + j];
       s0 /= h;
