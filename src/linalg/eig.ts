@@ -1297,29 +1297,71 @@ function backTransform(H: Float64Array, nn: number, Vt: Float64Array): void {
   // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
   // (column j of X uses rows 0..j only). In the transposed storage: Vt := Xᵀ·Vt, row j of the
   // result = Σ_{k ≤ j} X[k][j]·(row k of Vt); going from the last row up, rows k < j are still old.
-  // Four rows of Vt per pass over the accumulator.
-  const row = new Float64Array(nn);
-  for (let j = nn - 1; j >= 0; j--) {
-    row.fill(0);
+  // Four result rows at a time, so each pass over Vt's rows serves four of them (a quarter of the
+  // memory traffic: at n = 1000, Vt does not fit in cache), two rows of Vt per pass.
+  const acc = new Float64Array(4 * nn);
+  let j = nn - 1;
+  for (; j >= 3; j -= 4) {
+    // result rows j − 3 … j in acc[0..3]; k ≤ j − 3 reaches all four
+    acc.fill(0);
+    const r0 = j - 3;
     let k = 0;
-    for (; k + 3 <= j; k += 4) {
-      const x0 = H[k * nn + j];
-      const x1 = H[(k + 1) * nn + j];
-      const x2 = H[(k + 2) * nn + j];
-      const x3 = H[(k + 3) * nn + j];
-      const b0 = k * nn;
-      const b1 = b0 + nn;
-      const b2 = b1 + nn;
-      const b3 = b2 + nn;
-      for (let i = 0; i < nn; i++) row[i] += x0 * Vt[b0 + i] + x1 * Vt[b1 + i] + x2 * Vt[b2 + i] + x3 * Vt[b3 + i];
+    for (; k + 1 <= r0; k += 2) {
+      const h0 = k * nn;
+      const h1 = h0 + nn;
+      backTransformPair(acc, Vt, nn, h0, h1, H[h0 + r0], H[h0 + r0 + 1], H[h0 + r0 + 2], H[h0 + j], H[h1 + r0], H[h1 + r0 + 1], H[h1 + r0 + 2], H[h1 + j]);
     }
+    // the rest of the triangle, one row of Vt and one result row at a time
     for (; k <= j; k++) {
-      const xkj = H[k * nn + j];
-      if (xkj === 0) continue;
       const bk = k * nn;
-      for (let i = 0; i < nn; i++) row[i] += xkj * Vt[bk + i];
+      for (let t = Math.max(0, k - r0); t < 4; t++) {
+        const x = H[bk + r0 + t];
+        if (x === 0) continue;
+        const o = t * nn;
+        for (let i = 0; i < nn; i++) acc[o + i] += x * Vt[bk + i];
+      }
     }
-    Vt.set(row, j * nn);
+    Vt.set(acc, r0 * nn);
+  }
+  // the first rows, fewer than four: one at a time
+  for (; j >= 0; j--) {
+    acc.fill(0, 0, nn);
+    for (let k = 0; k <= j; k++) {
+      const x = H[k * nn + j];
+      if (x === 0) continue;
+      const bk = k * nn;
+      for (let i = 0; i < nn; i++) acc[i] += x * Vt[bk + i];
+    }
+    Vt.set(acc.subarray(0, nn), j * nn);
+  }
+}
+
+/** acc row t += a_t·(Vt row at h0) + b_t·(Vt row at h1), t = 0..3. */
+function backTransformPair(
+  acc: Float64Array,
+  Vt: Float64Array,
+  nn: number,
+  h0: number,
+  h1: number,
+  a0: number,
+  a1: number,
+  a2: number,
+  a3: number,
+  b0: number,
+  b1: number,
+  b2: number,
+  b3: number,
+): void {
+  const o1 = nn;
+  const o2 = 2 * nn;
+  const o3 = 3 * nn;
+  for (let i = 0; i < nn; i++) {
+    const v = Vt[h0 + i];
+    const w = Vt[h1 + i];
+    acc[i] += a0 * v + b0 * w;
+    acc[o1 + i] += a1 * v + b1 * w;
+    acc[o2 + i] += a2 * v + b2 * w;
+    acc[o3 + i] += a3 * v + b3 * w;
   }
 }
 
