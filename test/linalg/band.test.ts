@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bandLU, bandSolve, bandwidths } from '../../src/linalg/band.js';
+import { bandFactor, bandLU, bandMatrix, bandSolve, bandwidths } from '../../src/linalg/band.js';
 
 function rng(seed: number) {
   let s = seed >>> 0;
@@ -47,6 +47,30 @@ describe('band LU', () => {
         res = Math.max(res, Math.abs(acc));
       }
       expect(res / size).toBeLessThan(1e-12);
+    }
+  });
+
+  it('band storage gives the very factors and solutions of the full array (same operations, narrower rows)', () => {
+    for (const [n, kl, ku] of [
+      [80, 1, 1],
+      [70, 2, 5],
+      [30, 0, 3],
+    ]) {
+      const r = rng(7 * n + kl);
+      const full = new Float64Array(n * n);
+      const band = bandMatrix(n, kl, ku);
+      expect(band.a.length).toBeLessThan(n * n);
+      for (let i = 0; i < n; i++) {
+        for (let j = Math.max(0, i - kl); j <= Math.min(n - 1, i + ku); j++) {
+          const v = i === j ? 1e-3 * r() : r(); // small diagonals force row exchanges
+          full[i * n + j] = v;
+          band.a[band.off[i] + j] = v;
+        }
+      }
+      const b = Float64Array.from({ length: n }, () => r());
+      const x = bandSolve(bandLU(full, n), b.slice());
+      const y = bandSolve(bandFactor(band), b.slice());
+      expect(Array.from(y)).toEqual(Array.from(x));
     }
   });
 });
