@@ -241,6 +241,37 @@ span 9.9e-4
     expect(near(-1441.515669) || near(-1441.515659)).toBe(true);
   });
 
+  it('a 0.055/s mode beside a 7.3e13/s one (9.9 nH) is refined, not left at the eigen-solver\'s 0.0625/s or zeroed', () => {
+    // Reference: the eigenvalues of the run's own state matrix in 60-digit arithmetic (mpmath,
+    // computed by hand once): −0.0553375196/s in both switch configurations, besides two zeros.
+    const text = `inductor L1 gnd -> n1 1e-4H
+inductor L2 gnd -> n2 2.2e-3H
+inductor L3 gnd -> n3 9.9e-9H
+resistor R4 gnd -> n4 1.6e1ohm
+inductor L5 n1 -> n5 1.7e-2H
+capacitor C6 n3 -> n6 1e-5F
+resistor R7 n3 -> n7 1.3e4ohm
+resistor R8 n6 -> n8 2.2e5ohm
+resistor R9 gnd -> n9 1.6e6ohm
+resistor R10 n1 -> n10 2.7e6ohm
+inductor L11 n8 -> n11 4.5e-1H
+inductor L12 n2 -> n7 1.5e-8H
+capacitor C13 n9 -> n8 1.4e-3F
+inductor L14 n4 -> gnd 1.5e-3H
+inductor L15 n1 -> gnd 6.4e-3H
+current-source I1 n6 -> n8 20A
+current-source I2 n8 -> gnd step from 49A to 40A at 2.3e-3 rise 8e-6
+switch S1 gnd -> n3 on 7.8e0ohm off 1.2e6ohm opens 5.9e-5
+watch node n3
+samples 201
+start rest
+span 9.8e-2
+`;
+    const r = run(text)!;
+    expect(r.modes.some((m) => m.kind === 'real' && Math.abs(m.lambda + 0.0553375196) <= 1e-8)).toBe(true);
+    expect(r.crossCheck.passed).toBe(true);
+  });
+
   // Still open (found by the same run): a series RLC loop (15 H, 8.1 pF, 0.16 Ω) sharing its
   // capacitors with two dead-end ones, a current source charging one of them: four exact zero
   // modes and a ring at 9.07e4 rad/s with ζ = 6e-8. The model is right (odex on hand-written
