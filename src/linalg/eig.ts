@@ -566,20 +566,37 @@ function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Ar
     for (let i = m + 1; i <= high; i++) u[o + i] = H[i * n + m - 1];
   }
   for (let j0 = 0; j0 < n; j0 += 4) {
-    const cnt = Math.min(4, n - j0);
-    const b0 = j0 * n;
-    const b1 = cnt > 1 ? b0 + n : b0;
-    const b2 = cnt > 2 ? b1 + n : b1;
-    const b3 = cnt > 3 ? b2 + n : b2;
-    for (let m = Math.min(high - 1, j0 + 3); m >= 1; m--) {
-      const hm = H[m * n + m - 1];
-      if (hm === 0) continue;
-      const o = offs[m] - m;
-      const den = u[o + m];
-      let g0 = 0;
-      let g1 = 0;
-      let g2 = 0;
-      let g3 = 0;
+    if (j0 + 4 <= n) accumulateBlock(H, n, u, offs, X, j0);
+    else accumulateTail(H, n, u, offs, X, j0);
+  }
+}
+
+/**
+ * Rows j0..j0+3 of X through the reflectors, last to first. The update by reflector m is fused
+ * with the dot products of reflector m − 1 (which read exactly the entries the update has just
+ * written, plus entry m − 1): one pass over the rows per reflector instead of two, with the same
+ * operations in the same order.
+ */
+function accumulateBlock(H: Float64Array, n: number, u: Float64Array, offs: Int32Array, X: Float64Array, j0: number): void {
+  const high = n - 1;
+  const b0 = j0 * n;
+  const b1 = b0 + n;
+  const b2 = b1 + n;
+  const b3 = b2 + n;
+  let g0 = 0;
+  let g1 = 0;
+  let g2 = 0;
+  let g3 = 0;
+  let ready = false; // g0..g3 hold reflector m's dot products
+  for (let m = Math.min(high - 1, j0 + 3); m >= 1; m--) {
+    const hm = H[m * n + m - 1];
+    if (hm === 0) {
+      ready = false;
+      continue;
+    }
+    const o = offs[m] - m;
+    if (!ready) {
+      g0 = g1 = g2 = g3 = 0;
       for (let i = m; i <= high; i++) {
         const ui = u[o + i];
         g0 += ui * X[b0 + i];
@@ -587,11 +604,43 @@ function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Ar
         g2 += ui * X[b2 + i];
         g3 += ui * X[b3 + i];
       }
-      // two divisions avoid underflow; a short last block repeats its first row, updated once
-      g0 = g0 / den / hm;
-      g1 = cnt > 1 ? g1 / den / hm : 0;
-      g2 = cnt > 2 ? g2 / den / hm : 0;
-      g3 = cnt > 3 ? g3 / den / hm : 0;
+    }
+    // two divisions avoid underflow
+    const den = u[o + m];
+    g0 = g0 / den / hm;
+    g1 = g1 / den / hm;
+    g2 = g2 / den / hm;
+    g3 = g3 / den / hm;
+    const p = m - 1;
+    if (p >= 1 && H[p * n + p - 1] !== 0) {
+      const q = offs[p] - p;
+      const up = u[q + p];
+      let d0 = up * X[b0 + p];
+      let d1 = up * X[b1 + p];
+      let d2 = up * X[b2 + p];
+      let d3 = up * X[b3 + p];
+      for (let i = m; i <= high; i++) {
+        const ui = u[o + i];
+        const wi = u[q + i];
+        const x0 = X[b0 + i] + g0 * ui;
+        const x1 = X[b1 + i] + g1 * ui;
+        const x2 = X[b2 + i] + g2 * ui;
+        const x3 = X[b3 + i] + g3 * ui;
+        X[b0 + i] = x0;
+        X[b1 + i] = x1;
+        X[b2 + i] = x2;
+        X[b3 + i] = x3;
+        d0 += wi * x0;
+        d1 += wi * x1;
+        d2 += wi * x2;
+        d3 += wi * x3;
+      }
+      g0 = d0;
+      g1 = d1;
+      g2 = d2;
+      g3 = d3;
+      ready = true;
+    } else {
       for (let i = m; i <= high; i++) {
         const ui = u[o + i];
         X[b0 + i] += g0 * ui;
@@ -599,6 +648,24 @@ function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Ar
         X[b2 + i] += g2 * ui;
         X[b3 + i] += g3 * ui;
       }
+      ready = false;
+    }
+  }
+}
+
+/** The last rows (fewer than four), one at a time. */
+function accumulateTail(H: Float64Array, n: number, u: Float64Array, offs: Int32Array, X: Float64Array, j0: number): void {
+  const high = n - 1;
+  for (let j = j0; j < n; j++) {
+    const b = j * n;
+    for (let m = Math.min(high - 1, j); m >= 1; m--) {
+      const hm = H[m * n + m - 1];
+      if (hm === 0) continue;
+      const o = offs[m] - m;
+      let g = 0;
+      for (let i = m; i <= high; i++) g += u[o + i] * X[b + i];
+      g = g / u[o + m] / hm;
+      for (let i = m; i <= high; i++) X[b + i] += g * u[o + i];
     }
   }
 }
