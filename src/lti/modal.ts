@@ -445,6 +445,12 @@ function refineSlow(A: Mat, start: number): { lambda: number; v: number[] } | nu
   for (let it = 0; it < 6; it++) {
     const f = luFactor(A.map((row, r) => row.map((x, c) => x - (r === c ? mu : 0))));
     const ft = luFactor(A.map((_, r) => A.map((row, c) => row[r] - (r === c ? mu : 0))));
+    // exactly singular at the solver's own value (a decoupled mode, or an exact cancellation):
+    // step off it by 1e-8 and iterate back
+    if ((luSingular(f) || luSingular(ft)) && it === 0) {
+      mu = start * (1 + 1e-8);
+      continue;
+    }
     if (luSingular(f) || luSingular(ft)) return null;
     let v = Array.from({ length: n }, (_, k) => [1 + (k % 5) / 7]);
     let w = Array.from({ length: n }, (_, k) => [1 + (k % 3) / 5]);

@@ -272,6 +272,42 @@ span 9.8e-2
     expect(r.crossCheck.passed).toBe(true);
   });
 
+  it('a decoupled 0.66/s mode beside a 3e12/s one: a result, not a singular modal matrix', () => {
+    // Found with FUZZ_SEED=2. The refinement of slow modes met an exactly singular A − λI at the
+    // solver's own (exact) value and took the mode for a zero; three "zeros" with two eigenvectors
+    // made the modal matrix singular (an exception, exit 1). The true value (mpmath, 60 digits, of
+    // the run's state matrix, computed by hand): −0.6578947368/s.
+    const text = `resistor R1 gnd -> n1 9.4e4ohm
+inductor L2 gnd -> n2 3.1e-5H
+resistor R3 n1 -> n3 9.5e6ohm
+inductor L4 n3 -> n4 5.6e-7H
+inductor L5 n1 -> n5 1.4e-7H
+capacitor C6 n1 -> n6 1.6e-7F
+capacitor C7 n1 -> n7 1.9e-12F
+resistor R8 n2 -> n8 2.7e6ohm
+inductor L9 gnd -> n9 8.4e-5H
+inductor L10 gnd -> n10 2.8e0H
+resistor R11 n5 -> n11 9.3e0ohm
+capacitor C12 n11 -> n7 4.8e-5F
+inductor L13 n1 -> n8 1.2e-1H
+inductor L14 n2 -> n5 1.9e-1H
+capacitor C15 n5 -> n10 5e-9F
+capacitor C16 gnd -> n5 3.1e-10F
+resistor R17 gnd -> n5 8.8e2ohm
+inductor L18 n2 -> gnd 1e-2H
+voltage-source V1 n6 -> n3 49V
+current-source I2 n3 -> n7 sine amplitude -14A freq 1.6e1Hz phase 126deg at 8.4e-4
+switch S1 n1 -> n8 on 9.4e1ohm off 9.4e7ohm opens 1.5e-6
+watch node n1
+samples 201
+start settled
+span 9.8e-3
+
+`;
+    const r = run(text)!;
+    expect(r.modes.some((m) => m.kind === 'real' && Math.abs(m.lambda + 0.6578947368) <= 1e-9)).toBe(true);
+  });
+
   // Still open (found by the same run): a series RLC loop (15 H, 8.1 pF, 0.16 Ω) sharing its
   // capacitors with two dead-end ones, a current source charging one of them: four exact zero
   // modes and a ring at 9.07e4 rad/s with ζ = 6e-8. The model is right (odex on hand-written
