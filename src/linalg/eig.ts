@@ -1231,130 +1231,193 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
 /**
  * Eigenvectors of the upper quasi-triangular Schur form by back-substitution (hqr2 structure),
  * written into H in place: column n of X in column n (a pair: Re, Im in columns n−1, n).
+ *
+ * Four columns (vectors, a pair counting two) at a time: each row of the triangle is read once
+ * for the four dot products (at n = 1000 the triangle does not fit in cache, and one pass per
+ * vector was memory-bound). The per-vector arithmetic is hqr2's, in the same order: entries not
+ * solved yet are zeros in the work array, so the dot products over j = i+1..hi equal hqr2's over
+ * its solved range.
  */
 function backSubstitute(H: Float64Array, nn: number, d: Float64Array, e: Float64Array, norm: number): void {
-  let n: number;
-  let p: number;
-  let q: number;
-  let r = 0;
-  let s = 0;
-  let t: number;
-  let w: number;
-  let x: number;
-  let y: number;
-  let z = 0;
-  // Back-substitute to find the eigenvectors of the upper quasi-triangular form. Column n of the
-  // result is built in the contiguous work vectors xr (and xi for the second column of a pair).
-  const xr = new Float64Array(nn);
-  const xi = new Float64Array(nn);
+  const xs = new Float64Array(4 * nn); // xs[4·j + slot]: entry j of the vector in slot
+  const dots = new Float64Array(4);
+  const sz = new Float64Array(4); // per slot: w, r, s saved at the lower row of a 2×2 block
+  const sr = new Float64Array(4);
+  const ss = new Float64Array(4);
   const cd = new Float64Array(2);
-  for (n = nn - 1; n >= 0; n--) {
-    p = d[n];
-    q = e[n];
-    if (q === 0) {
-      // real eigenvector
-      let l = n;
-      xr[n] = 1;
-      for (let i = n - 1; i >= 0; i--) {
-        const bi = i * nn;
-        w = H[bi + i] - p;
-        r = 0;
-        for (let j = l; j <= n; j++) r += H[bi + j] * xr[j];
-        if (e[i] < 0) {
-          z = w;
-          s = r;
+  let hi = nn - 1;
+  while (hi >= 0) {
+    let lo = Math.max(0, hi - 3);
+    if (e[lo] < 0) lo++; // the second column of a pair: the pair goes to the next group
+    xs.fill(0, 0, 4 * (hi + 1));
+    for (let c = lo; c <= hi; c++) {
+      const sl = c - lo;
+      if (e[c] === 0) xs[4 * c + sl] = 1;
+      else if (e[c] < 0) {
+        // the pair's last two entries (columns c − 1: real part, c: imaginary part)
+        const p = d[c];
+        const q = e[c];
+        const bn = c * nn;
+        const bn1 = bn - nn;
+        if (Math.abs(H[bn + c - 1]) > Math.abs(H[bn1 + c])) {
+          xs[4 * (c - 1) + sl - 1] = q / H[bn + c - 1];
+          xs[4 * (c - 1) + sl] = -(H[bn + c] - p) / H[bn + c - 1];
         } else {
-          l = i;
-          if (e[i] === 0) {
-            xr[i] = w !== 0 ? -r / w : -r / (EPS * norm);
-          } else {
-            // solve the real 2×2 system of a complex-pair block
-            x = H[bi + i + 1];
-            y = H[bi + nn + i];
-            q = (d[i] - p) * (d[i] - p) + e[i] * e[i];
-            t = (x * s - z * r) / q;
-            xr[i] = t;
-            xr[i + 1] = Math.abs(x) > Math.abs(z) ? (-r - w * t) / x : (-s - y * t) / z;
-          }
-          // overflow control
-          t = Math.abs(xr[i]);
-          if (EPS * t * t > 1) for (let j = i; j <= n; j++) xr[j] /= t;
+          cdiv(0, -H[bn1 + c], H[bn1 + c - 1] - p, q, cd);
+          xs[4 * (c - 1) + sl - 1] = cd[0];
+          xs[4 * (c - 1) + sl] = cd[1];
+        }
+        xs[4 * c + sl] = 1;
+      }
+    }
+    for (let i = hi - 1; i >= 0; i--) {
+      const bi = i * nn;
+      let a0 = 0;
+      let a1 = 0;
+      let a2 = 0;
+      let a3 = 0;
+      for (let j = i + 1; j <= hi; j++) {
+        const h = H[bi + j];
+        const o = 4 * j;
+        a0 += h * xs[o];
+        a1 += h * xs[o + 1];
+        a2 += h * xs[o + 2];
+        a3 += h * xs[o + 3];
+      }
+      dots[0] = a0;
+      dots[1] = a1;
+      dots[2] = a2;
+      dots[3] = a3;
+      for (let c = lo; c <= hi; c++) {
+        if (e[c] === 0) {
+          if (c > i) realStep(H, nn, d, e, norm, i, c - lo, d[c], hi, xs, dots, sz, ss);
+        } else if (e[c] < 0 && c - 1 > i) {
+          complexStep(H, nn, d, e, norm, i, c - 1 - lo, d[c], e[c], hi, xs, dots, sz, sr, ss, cd);
         }
       }
-      for (let i = 0; i <= n; i++) H[i * nn + n] = xr[i];
-    } else if (q < 0) {
-      // complex eigenvector: columns n−1 (real part) and n (imaginary part)
-      let l = n - 1;
-      const bn = n * nn;
-      const bn1 = bn - nn;
-      if (Math.abs(H[bn + n - 1]) > Math.abs(H[bn1 + n])) {
-        xr[n - 1] = q / H[bn + n - 1];
-        xi[n - 1] = -(H[bn + n] - p) / H[bn + n - 1];
-      } else {
-        cdiv(0, -H[bn1 + n], H[bn1 + n - 1] - p, q, cd);
-        xr[n - 1] = cd[0];
-        xi[n - 1] = cd[1];
-      }
-      xr[n] = 0;
-      xi[n] = 1;
-      let ra: number;
-      let sa: number;
-      let vr: number;
-      let vi: number;
-      for (let i = n - 2; i >= 0; i--) {
-        const bi = i * nn;
-        ra = 0;
-        sa = 0;
-        for (let j = l; j <= n; j++) {
-          const hij = H[bi + j];
-          ra += hij * xr[j];
-          sa += hij * xi[j];
-        }
-        w = H[bi + i] - p;
-        if (e[i] < 0) {
-          z = w;
-          r = ra;
-          s = sa;
-        } else {
-          l = i;
-          if (e[i] === 0) {
-            cdiv(-ra, -sa, w, q, cd);
-            xr[i] = cd[0];
-            xi[i] = cd[1];
-          } else {
-            // solve the complex 2×2 system
-            x = H[bi + i + 1];
-            y = H[bi + nn + i];
-            vr = (d[i] - p) * (d[i] - p) + e[i] * e[i] - q * q;
-            vi = (d[i] - p) * 2 * q;
-            if (vr === 0 && vi === 0) vr = EPS * norm * (Math.abs(w) + Math.abs(q) + Math.abs(x) + Math.abs(y) + Math.abs(z));
-            cdiv(x * r - z * ra + q * sa, x * s - z * sa - q * ra, vr, vi, cd);
-            xr[i] = cd[0];
-            xi[i] = cd[1];
-            if (Math.abs(x) > Math.abs(z) + Math.abs(q)) {
-              xr[i + 1] = (-ra - w * xr[i] + q * xi[i]) / x;
-              xi[i + 1] = (-sa - w * xi[i] - q * xr[i]) / x;
-            } else {
-              cdiv(-r - y * xr[i], -s - y * xi[i], z, q, cd);
-              xr[i + 1] = cd[0];
-              xi[i + 1] = cd[1];
-            }
-          }
-          // overflow control
-          t = Math.max(Math.abs(xr[i]), Math.abs(xi[i]));
-          if (EPS * t * t > 1) {
-            for (let j = i; j <= n; j++) {
-              xr[j] /= t;
-              xi[j] /= t;
-            }
-          }
+    }
+    for (let c = lo; c <= hi; c++) {
+      const sl = c - lo;
+      if (e[c] === 0) {
+        for (let i = 0; i <= c; i++) H[i * nn + c] = xs[4 * i + sl];
+      } else if (e[c] < 0) {
+        // H[c][c−1] now holds Re v_c = 0, which the back-transformation never reads
+        for (let i = 0; i <= c; i++) {
+          H[i * nn + c - 1] = xs[4 * i + sl - 1];
+          H[i * nn + c] = xs[4 * i + sl];
         }
       }
-      for (let i = 0; i <= n; i++) {
-        H[i * nn + n - 1] = xr[i];
-        H[i * nn + n] = xi[i];
-      }
-      // H[n][n−1] now holds Re v_n = 0, which the back-transformation below never reads
+    }
+    hi = lo - 1;
+  }
+}
+
+/** Row i of the real eigenvector (eigenvalue p) in slot sl, given its dot product dots[sl]. */
+function realStep(
+  H: Float64Array,
+  nn: number,
+  d: Float64Array,
+  e: Float64Array,
+  norm: number,
+  i: number,
+  sl: number,
+  p: number,
+  hi: number,
+  xs: Float64Array,
+  dots: Float64Array,
+  sz: Float64Array,
+  ss: Float64Array,
+): void {
+  const bi = i * nn;
+  const w = H[bi + i] - p;
+  const r = dots[sl];
+  if (e[i] < 0) {
+    sz[sl] = w;
+    ss[sl] = r;
+    return;
+  }
+  if (e[i] === 0) {
+    xs[4 * i + sl] = w !== 0 ? -r / w : -r / (EPS * norm);
+  } else {
+    // solve the real 2×2 system of a complex-pair block
+    const x = H[bi + i + 1];
+    const y = H[bi + nn + i];
+    const z = sz[sl];
+    const s = ss[sl];
+    const q = (d[i] - p) * (d[i] - p) + e[i] * e[i];
+    const t = (x * s - z * r) / q;
+    xs[4 * i + sl] = t;
+    xs[4 * (i + 1) + sl] = Math.abs(x) > Math.abs(z) ? (-r - w * t) / x : (-s - y * t) / z;
+  }
+  // overflow control
+  const t = Math.abs(xs[4 * i + sl]);
+  if (EPS * t * t > 1) for (let j = i; j <= hi; j++) xs[4 * j + sl] /= t;
+}
+
+/** Row i of the complex eigenvector (eigenvalue p + j·q) in slots sl (real part) and sl + 1. */
+function complexStep(
+  H: Float64Array,
+  nn: number,
+  d: Float64Array,
+  e: Float64Array,
+  norm: number,
+  i: number,
+  sl: number,
+  p: number,
+  q: number,
+  hi: number,
+  xs: Float64Array,
+  dots: Float64Array,
+  sz: Float64Array,
+  sr: Float64Array,
+  ss: Float64Array,
+  cd: Float64Array,
+): void {
+  const bi = i * nn;
+  const ra = dots[sl];
+  const sa = dots[sl + 1];
+  const w = H[bi + i] - p;
+  if (e[i] < 0) {
+    sz[sl] = w;
+    sr[sl] = ra;
+    ss[sl] = sa;
+    return;
+  }
+  const oi = 4 * i + sl;
+  if (e[i] === 0) {
+    cdiv(-ra, -sa, w, q, cd);
+    xs[oi] = cd[0];
+    xs[oi + 1] = cd[1];
+  } else {
+    // solve the complex 2×2 system
+    const x = H[bi + i + 1];
+    const y = H[bi + nn + i];
+    const z = sz[sl];
+    const r = sr[sl];
+    const s = ss[sl];
+    let vr = (d[i] - p) * (d[i] - p) + e[i] * e[i] - q * q;
+    const vi = (d[i] - p) * 2 * q;
+    if (vr === 0 && vi === 0) vr = EPS * norm * (Math.abs(w) + Math.abs(q) + Math.abs(x) + Math.abs(y) + Math.abs(z));
+    cdiv(x * r - z * ra + q * sa, x * s - z * sa - q * ra, vr, vi, cd);
+    const xr = cd[0];
+    const xi = cd[1];
+    xs[oi] = xr;
+    xs[oi + 1] = xi;
+    if (Math.abs(x) > Math.abs(z) + Math.abs(q)) {
+      xs[oi + 4] = (-ra - w * xr + q * xi) / x;
+      xs[oi + 5] = (-sa - w * xi - q * xr) / x;
+    } else {
+      cdiv(-r - y * xr, -s - y * xi, z, q, cd);
+      xs[oi + 4] = cd[0];
+      xs[oi + 5] = cd[1];
+    }
+  }
+  // overflow control
+  const t = Math.max(Math.abs(xs[oi]), Math.abs(xs[oi + 1]));
+  if (EPS * t * t > 1) {
+    for (let j = i; j <= hi; j++) {
+      xs[4 * j + sl] /= t;
+      xs[4 * j + sl + 1] /= t;
     }
   }
 }
