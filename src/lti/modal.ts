@@ -133,7 +133,11 @@ export function modalDecomposition(A: Mat): Modal {
     const eig = idx.map((i) => ({ re: re[i], im: im[i] }));
     // a complex pair this close to the real axis has nearly parallel complex eigenvectors:
     // evaluate it as a cluster (series around its mean) rather than as two complex modes
-    const nearRealPair = gs.length === 1 && idx.length === 2 && (Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]) || snapped.has(idx[0]));
+    // (its Re v and Im v nearly parallel; close to the axis but with distinct directions, as in a
+    // non-normal mesh, the pair form is exact, where the series around the mean would need
+    // ω·span terms and overflow)
+    const nearRealPair =
+      gs.length === 1 && idx.length === 2 && (snapped.has(idx[0]) || (Math.abs(im[idx[0]]) < CLOSE * scaleOf(idx[0]) && colSine([idx[0]], [idx[1]]) < PARALLEL));
     const isCluster = gs.length > 1 || nearRealPair;
     const kind: Block['kind'] = isCluster ? 'cluster' : idx.length === 2 ? 'pair' : 'real';
     const basis: (number | number[])[] = isCluster ? invariantSubspace(A, eig) : idx;
