@@ -14,7 +14,20 @@ export interface ScalarMode {
   right: C[];
 }
 
+// a block is read-only once formed: its modes are computed once (every path, interval shape and
+// read-out asks for them)
+const modesOf = new WeakMap<Block, ScalarMode[] | null>();
+
 export function scalarModes(b: Block): ScalarMode[] | null {
+  let m = modesOf.get(b);
+  if (m === undefined) {
+    m = modesOfBlock(b);
+    modesOf.set(b, m);
+  }
+  return m;
+}
+
+function modesOfBlock(b: Block): ScalarMode[] | null {
   if (b.kind === 'real') return [{ lambda: c(b.T[0][0]), left: [c(1)], right: [c(1)] }];
   if (b.kind !== 'pair') return null;
   const T: Mat = b.T;
