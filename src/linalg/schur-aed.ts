@@ -497,13 +497,38 @@ function rotateColumns(M: Float64Array, n: number, a: number, b: number, r0: num
   }
 }
 
-/** Rows r0..r1 of M, columns k0..k0+jw−1: M := M·U, with U = Utᵀ (a dot product with each row of Ut). */
+/**
+ * Rows r0..r1 of M, columns k0..k0+jw−1: M := M·U, with U = Utᵀ (dot products with the rows of
+ * Ut, four at a time: independent sums instead of one running sum waiting on each addition).
+ */
 function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: number, Ut: Float64Array, jw: number): void {
   const row = work(jw);
   for (let r = r0; r <= r1; r++) {
     const b = r * nn + k0;
     for (let k = 0; k < jw; k++) row[k] = M[b + k];
-    for (let j = 0; j < jw; j++) {
+    let j = 0;
+    for (; j + 3 < jw; j += 4) {
+      const u0 = j * jw;
+      const u1 = u0 + jw;
+      const u2 = u1 + jw;
+      const u3 = u2 + jw;
+      let a0 = 0;
+      let a1 = 0;
+      let a2 = 0;
+      let a3 = 0;
+      for (let k = 0; k < jw; k++) {
+        const x = row[k];
+        a0 += x * Ut[u0 + k];
+        a1 += x * Ut[u1 + k];
+        a2 += x * Ut[u2 + k];
+        a3 += x * Ut[u3 + k];
+      }
+      M[b + j] = a0;
+      M[b + j + 1] = a1;
+      M[b + j + 2] = a2;
+      M[b + j + 3] = a3;
+    }
+    for (; j < jw; j++) {
       const u = j * jw;
       let acc = 0;
       for (let k = 0; k < jw; k++) acc += row[k] * Ut[u + k];
@@ -512,11 +537,60 @@ function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: 
   }
 }
 
-/** Rows k0..k0+jw−1 of M, columns c0..c1: M := Uᵀ·M = Ut·M (row j of the result = Σₖ Ut[j][k]·row k). */
+/**
+ * Rows k0..k0+jw−1 of M, columns c0..c1: M := Uᵀ·M = Ut·M (row j of the result = Σₖ Ut[j][k]·row k),
+ * four result rows per pass over two rows of M.
+ */
 function leftMultiply(M: Float64Array, nn: number, k0: number, c0: number, c1: number, Ut: Float64Array, jw: number): void {
   const width = c1 - c0 + 1;
   const out = work(jw * width).fill(0, 0, jw * width);
-  for (let j = 0; j < jw; j++) {
+  let j = 0;
+  for (; j + 3 < jw; j += 4) {
+    const o0 = j * width;
+    const o1 = o0 + width;
+    const o2 = o1 + width;
+    const o3 = o2 + width;
+    const u0 = j * jw;
+    const u1 = u0 + jw;
+    const u2 = u1 + jw;
+    const u3 = u2 + jw;
+    let k = 0;
+    for (; k + 1 < jw; k += 2) {
+      const p0 = Ut[u0 + k];
+      const q0 = Ut[u0 + k + 1];
+      const p1 = Ut[u1 + k];
+      const q1 = Ut[u1 + k + 1];
+      const p2 = Ut[u2 + k];
+      const q2 = Ut[u2 + k + 1];
+      const p3 = Ut[u3 + k];
+      const q3 = Ut[u3 + k + 1];
+      const b0 = (k0 + k) * nn + c0;
+      const b1 = b0 + nn;
+      for (let c = 0; c < width; c++) {
+        const m0 = M[b0 + c];
+        const m1 = M[b1 + c];
+        out[o0 + c] += p0 * m0 + q0 * m1;
+        out[o1 + c] += p1 * m0 + q1 * m1;
+        out[o2 + c] += p2 * m0 + q2 * m1;
+        out[o3 + c] += p3 * m0 + q3 * m1;
+      }
+    }
+    for (; k < jw; k++) {
+      const p0 = Ut[u0 + k];
+      const p1 = Ut[u1 + k];
+      const p2 = Ut[u2 + k];
+      const p3 = Ut[u3 + k];
+      const b0 = (k0 + k) * nn + c0;
+      for (let c = 0; c < width; c++) {
+        const m0 = M[b0 + c];
+        out[o0 + c] += p0 * m0;
+        out[o1 + c] += p1 * m0;
+        out[o2 + c] += p2 * m0;
+        out[o3 + c] += p3 * m0;
+      }
+    }
+  }
+  for (; j < jw; j++) {
     const o = j * width;
     const u = j * jw;
     let k = 0;
@@ -533,8 +607,8 @@ function leftMultiply(M: Float64Array, nn: number, k0: number, c0: number, c1: n
       for (let c = 0; c < width; c++) out[o + c] += a0 * M[b0 + c];
     }
   }
-  for (let j = 0; j < jw; j++) {
-    const b = (k0 + j) * nn + c0;
-    for (let c = 0; c < width; c++) M[b + c] = out[j * width + c];
+  for (let r = 0; r < jw; r++) {
+    const b = (k0 + r) * nn + c0;
+    for (let c = 0; c < width; c++) M[b + c] = out[r * width + c];
   }
 }
