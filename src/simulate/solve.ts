@@ -269,11 +269,7 @@ export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: nu
   const beta = ss.n ? modalInputs(ss, modal) : [];
   const gamma = ss.n ? rowCombination(r.C, modal.W, modal.n) : [];
   return ss.inputs.map((source, j) => {
-    const bj = beta.map((row) => row[j]);
-    const zero = (b: Block) => b.index.map(() => 0);
-    const impulseSols = modal.blocks.map((b) => solveBlockForced(b, pick(bj, b), [], span));
-    const unitStep = (b: Block): Forcing[] => [{ power: 0, s: c(0), g: b.index.map((i) => c(bj[i])) }];
-    const stepSols = modal.blocks.map((b) => solveBlockForced(b, zero(b), unitStep(b), span));
+    const { impulseSols, stepSols } = pathSolutions(modal, beta, j, span);
     const stepTerms = collect(modal.blocks, stepSols, gamma, span);
     if (r.D[j]) stepTerms.push({ kind: 'exp', lambda: 0, coef: r.D[j] });
     const simplified = simplifyTerms(stepTerms);
@@ -287,6 +283,26 @@ export function pathResponses(ss: StateSpace, modal: Modal, r: Readout, span: nu
       dcGain: decays ? (constant && constant.kind === 'exp' ? constant.coef : 0) : NaN,
     };
   });
+}
+
+// the blocks' impulse and step solutions of one source depend on neither the read-out nor its
+// watch: formed once per modal form, source and span
+const solutionsOf = new WeakMap<Modal, Map<string, { impulseSols: BlockSolution[]; stepSols: BlockSolution[] }>>();
+function pathSolutions(modal: Modal, beta: Mat, j: number, span: number): { impulseSols: BlockSolution[]; stepSols: BlockSolution[] } {
+  let byKey = solutionsOf.get(modal);
+  if (!byKey) solutionsOf.set(modal, (byKey = new Map()));
+  const key = `${j} ${span}`;
+  let sols = byKey.get(key);
+  if (!sols) {
+    const bj = beta.map((row) => row[j]);
+    const zero = (b: Block) => b.index.map(() => 0);
+    const impulseSols = modal.blocks.map((b) => solveBlockForced(b, pick(bj, b), [], span));
+    const unitStep = (b: Block): Forcing[] => [{ power: 0, s: c(0), g: b.index.map((i) => c(bj[i])) }];
+    const stepSols = modal.blocks.map((b) => solveBlockForced(b, zero(b), unitStep(b), span));
+    sols = { impulseSols, stepSols };
+    byKey.set(key, sols);
+  }
+  return sols;
 }
 
 function decayRate(t: Term): number {
