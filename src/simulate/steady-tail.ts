@@ -5,6 +5,7 @@ import type { Modal } from '../lti/modal.js';
 import { type InputSchedule, breakpointTimes, buildSchedule, inputValues } from '../waveform/schedule.js';
 import { type PeriodMap, periodMap, periodsToRoundOff } from './periodic.js';
 import { type ExactSolution, solveExact } from './solve.js';
+import type { Piece } from './result.js';
 
 /**
  * A long periodic drive (a PWM signal for thousands of periods) brings the state to the periodic
@@ -81,23 +82,8 @@ export function steadyTail(q: TailRequest): SteadyTail | null {
   // schedule would have, bit for bit: later stages match events by time)
   const times = breakpointTimes(waves, t1, cut);
   const lengths = steady[0]?.map((p) => p.t1 - p.t0) ?? map.sched.intervals.map((iv) => iv.t1 - iv.t0);
-  const P = lengths.length;
-  for (let k = 0; k + 1 < times.length; k++) {
-    // every interval must be the steady one of its phase (the last may be cut short by t1)
-    const len = times[k + 1] - times[k];
-    const want = lengths[k % P];
-    if (Math.abs(len - want) > 1e-9 * T && !(k + 2 === times.length && len < want)) return null;
-  }
-  const pieces = exact.pieces.map((own, r) => {
-    const out = own;
-    const phases = steady[r];
-    for (let k = 0, j = 0; k + 1 < times.length; k++) {
-      const p = phases[j];
-      out.push({ t0: times[k], t1: times[k + 1], terms: p.terms, impulseArea: p.impulseArea });
-      if (++j === P) j = 0;
-    }
-    return out;
-  });
+  if (!phasesFit(times, lengths, T)) return null;
+  const pieces = exact.pieces.map((own, r) => layPeriods(own, steady[r], times));
   // the state at t1: the steady state at t1's phase of the period
   const whole = Math.floor((t1 - cut) / T + 1e-9);
   const phase = t1 - (cut + whole * T);
@@ -106,4 +92,30 @@ export function steadyTail(q: TailRequest): SteadyTail | null {
   const last = partial.intervals[partial.intervals.length - 1];
   const uEnd = inputValues(last, ss.m, last.t1 - last.t0);
   return { schedule, solution: { pieces, statesAt: exact.statesAt, final }, uEnd, cut, checkEnd, xiCheckEnd: map.xiStar.slice(), map };
+}
+
+// The two loops over every breakpoint of the tail, as functions of their own: this runs once per
+// call, and a loop inside the long function above would run unoptimized (or be deoptimized) there.
+
+/** Whether every interval between the times is the steady one of its phase (the last may be cut short). */
+function phasesFit(times: number[], lengths: number[], T: number): boolean {
+  const P = lengths.length;
+  for (let k = 0, j = 0; k + 1 < times.length; k++) {
+    const len = times[k + 1] - times[k];
+    const want = lengths[j];
+    if (Math.abs(len - want) > 1e-9 * T && !(k + 2 === times.length && len < want)) return false;
+    if (++j === P) j = 0;
+  }
+  return true;
+}
+
+/** Appends to `out` the steady phases' pieces laid on the times (sharing their term arrays); returns `out`. */
+function layPeriods(out: Piece[], phases: Piece[], times: number[]): Piece[] {
+  const P = phases.length;
+  for (let k = 0, j = 0; k + 1 < times.length; k++) {
+    const p = phases[j];
+    out.push({ t0: times[k], t1: times[k + 1], terms: p.terms, impulseArea: p.impulseArea });
+    if (++j === P) j = 0;
+  }
+  return out;
 }
