@@ -1,6 +1,6 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { eig } from '../linalg/eig.js';
-import { type Mat, identity, matmul, matvec, toArray } from '../linalg/dense.js';
+import { type Mat, identity, matmul, matvec } from '../linalg/dense.js';
 import { symmetrize } from '../linalg/symmetrize.js';
 import { solveSquare } from '../linalg/factor.js';
 import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
@@ -60,10 +60,14 @@ export function modalDecomposition(A: Mat): Modal {
   const slow = new Set<number>();
   // refinements cost two LU factorizations per step: a few dozen at most (zeros stop after one)
   let budget = n <= 400 ? 32 : 4;
+  let zeroBudget = 4;
   for (let i = 0; i < n; i++) {
     // a real eigenvalue below ‖A‖'s round-off may still be a genuine slow mode (a 10 s time
     // constant beside a 1 ps one): kept when its eigenpair is verified to its own size
-    const refined = Math.hypot(re[i], im[i]) <= tiny && im[i] === 0 && re[i] !== 0 && budget-- > 0 ? refineSlow(A, re[i]) : null;
+    // (an exact 0 from the solver is tried too, from just below zero: it may be a 1e5 s mode)
+    const candidate = Math.hypot(re[i], im[i]) <= tiny && im[i] === 0 && (re[i] !== 0 || (n <= 64 && zeroBudget-- > 0));
+    let refined = candidate && budget-- > 0 ? refineSlow(A, re[i], -1e-9 * tiny) : null;
+    if (refined && re[i] === 0 && [...slow].some((j) => Math.abs(re[j] - refined!.lambda) <= 1e-6 * Math.abs(refined!.lambda))) refined = null;
     if (refined) {
       re[i] = refined.lambda;
       refined.v.forEach((x, r) => (V[r][i] = x));
@@ -161,14 +165,15 @@ export function modalDecomposition(A: Mat): Modal {
   // (RC) or of either sign (ladders of L and C, where couplings come in opposite-sign pairs)
   const weights = symScale ? Array.from(symScale, (d) => 1 / (d * d)) : selfAdjointWeights(A);
   const inv = weights ? weightedInverse(weights, W, cols) : null;
-  const sym = inv && inv.err <= 1e-12 ? inv.Winv : null;
+  const sym = inv && inv.err <= 1e-12 ? inv.apply : null;
   // eigenvectors of a non-normal matrix (RLC meshes) satisfy the orthogonality only to ~1e-11:
   // then that inverse refines the solves instead of an LU of W
-  const near = !sym && inv && inv.err <= 1e-6 ? inv.Winv : null;
+  const near = !sym && inv && inv.err <= 1e-6 ? inv.apply : null;
   const lu = sym || near ? null : luFactor(W);
   if (lu && luSingular(lu)) throw new Error('the eigenvectors of the state matrix do not form a basis (singular modal matrix)');
-  const toModal = (M: Mat): Mat => (sym ? matmul(sym, M) : near ? refinedSolve(W, near, M) : M.length && M[0].length ? luSolve(lu!, M) : M.map(() => []));
-  let full: Mat | null = sym;
+  const none = (M: Mat): Mat => M.map(() => []);
+  const toModal = (M: Mat): Mat => (!M.length || !M[0].length ? none(M) : sym ? sym(M) : near ? refinedSolve(W, near, M) : luSolve(lu!, M));
+  let full: Mat | null = null;
   const blocks: Block[] = cols.map((index, b) => ({
     kind: specs[b].kind,
     index,
@@ -261,61 +266,73 @@ function selfAdjointWeights(A: Mat): number[] | null {
  * When M·A is symmetric for a diagonal M (RC networks: M = D⁻² positive; LC ladders: M of mixed
  * sign), eigenvectors of different blocks are orthogonal in the bilinear form xᵀ·M·y (no complex
  * conjugation: the real and imaginary parts of a pair's vector are orthogonal to every other
- * block's too), so W⁻¹ = G⁻¹·Wᵀ·M with G = Wᵀ·M·W block diagonal: O(n²) instead of an LU of W.
- * Returned with its error on a random vector, ‖W⁻¹·W·r − r‖/‖r‖ (the caller decides whether it is
- * the inverse or a preconditioner); null when a block is neutral in the form.
+ * block's too), so W⁻¹ = G⁻¹·Wᵀ·M with G = Wᵀ·M·W block diagonal: W⁻¹·X in O(n²) per column
+ * without an LU of W or W⁻¹ itself. Returned with its error on a random vector,
+ * ‖W⁻¹·W·r − r‖/‖r‖ (the caller decides whether it is the inverse or a preconditioner); null
+ * when a block is neutral in the form.
  */
-function weightedInverse(w2: number[], W: Mat, cols: number[][]): { Winv: Mat; err: number } | null {
+function weightedInverse(w2: number[], W: Mat, cols: number[][]): { apply: (X: Mat) => Mat; err: number } | null {
   const n = W.length;
-  // W's columns, each contiguous
-  const Wt = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    const row = W[i];
-    for (let j = 0; j < n; j++) Wt[j * n + i] = row[j];
-  }
-  const Winv: Mat = new Array(n);
-  const out = new Float64Array(n);
-  for (const index of cols) {
-    // G_b = W_bᵀ·M·W_b and the rows W_bᵀ·M
-    const rows = index.map((j) => {
-      const r = new Float64Array(n);
-      for (let k = 0; k < n; k++) r[k] = Wt[j * n + k] * w2[k];
-      return r;
+  // G_b = W_bᵀ·M·W_b, row by row of W (contiguous), each entry summed in row order
+  const Gs = cols.map((index) => index.map(() => new Array<number>(index.length).fill(0)));
+  for (let k = 0; k < n; k++) {
+    const row = W[k];
+    const wk = w2[k];
+    cols.forEach((index, b) => {
+      const G = Gs[b];
+      for (let a = 0; a < index.length; a++) {
+        const t = row[index[a]] * wk;
+        const Ga = G[a];
+        for (let q = 0; q < index.length; q++) Ga[q] += t * row[index[q]];
+      }
     });
-    const G = index.map((_, a) =>
-      index.map((j) => {
-        const r = rows[a];
-        let acc = 0;
-        for (let k = 0; k < n; k++) acc += r[k] * Wt[j * n + k];
-        return acc;
-      }),
-    );
-    let inv: Mat;
+  }
+  const invs: Mat[] = [];
+  for (const [b, index] of cols.entries()) {
+    const G = Gs[b];
     try {
-      inv = index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length));
+      invs.push(index.length === 1 ? [[1 / G[0][0]]] : solveSquare(G, identity(index.length)));
     } catch {
       return null; // a block neutral in the indefinite form: no inverse this way
     }
-    index.forEach((i, a) => {
-      out.fill(0);
-      inv[a].forEach((g, b) => {
-        const r = rows[b];
-        for (let k = 0; k < n; k++) out[k] += g * r[k];
-      });
-      Winv[i] = toArray(out);
-    });
   }
+  const apply = (X: Mat): Mat => {
+    const c = X[0].length;
+    // Z = Wᵀ·(M·X), by rows of W
+    const Z = new Float64Array(n * c);
+    for (let k = 0; k < n; k++) {
+      const row = W[k];
+      const xk = X[k];
+      for (let q = 0; q < c; q++) {
+        const u = w2[k] * xk[q];
+        if (u === 0) continue;
+        for (let j = 0; j < n; j++) Z[j * c + q] += row[j] * u;
+      }
+    }
+    const out: Mat = new Array(n);
+    cols.forEach((index, b) => {
+      const inv = invs[b];
+      index.forEach((i, a) => {
+        const r = new Array<number>(c).fill(0);
+        inv[a].forEach((g, q) => {
+          for (let col = 0; col < c; col++) r[col] += g * Z[index[q] * c + col];
+        });
+        out[i] = r;
+      });
+    });
+    return out;
+  };
   // W⁻¹·(W·r) must give r back
   let seed = 12345;
   const r = Array.from({ length: n }, () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 2 ** 32) - 0.5);
-  const back = matvec(Winv, matvec(W, r));
+  const back = apply(matvec(W, r).map((v) => [v]));
   let err = 0;
   let size = 0;
   for (let i = 0; i < n; i++) {
-    err = Math.max(err, Math.abs(back[i] - r[i]));
+    err = Math.max(err, Math.abs(back[i][0] - r[i]));
     size = Math.max(size, Math.abs(r[i]));
   }
-  return { Winv, err: err / size };
+  return { apply, err: err / size };
 }
 
 /**
@@ -324,17 +341,13 @@ function weightedInverse(w2: number[], W: Mat, cols: number[][]): { Winv: Mat; e
  * ‖I − P·W‖, so two or three reach working precision, and the residual is the given W's own (as
  * with an LU solve) however inexact P is. O(n²) per column instead of the O(n³) factorization.
  */
-function refinedSolve(W: Mat, P: Mat, M: Mat): Mat {
+function refinedSolve(W: Mat, P: (X: Mat) => Mat, M: Mat): Mat {
   const c = M.length ? M[0].length : 0;
   if (c === 0) return M.map(() => []);
-  let X = matmul(P, M, c);
+  let X = P(M);
   for (let step = 0; step < 5; step++) {
     const WX = matmul(W, X, c);
-    const D = matmul(
-      P,
-      M.map((row, i) => row.map((v, j) => v - WX[i][j])),
-      c,
-    );
+    const D = P(M.map((row, i) => row.map((v, j) => v - WX[i][j])));
     const dMax = new Array<number>(c).fill(0);
     const xMax = new Array<number>(c).fill(0);
     X = X.map((row, i) =>
@@ -440,19 +453,20 @@ function invariantSubspace(A: Mat, eig: { re: number; im: number }[]): number[][
  * transpose, μ ← wᵀ·A·v / wᵀ·v) converges to the eigenvalue nearest λ̂ with the solves' own
  * accuracy. A genuine mode settles (to 1e-6 between steps; the jitter of its iterates is that of
  * the solves, 1e-8 beside 1e12/s modes) and stays within half of λ̂; a zero
- * collapses by orders of magnitude (or makes A − μI exactly singular). Returns the refined λ and
- * its eigenvector, or null (then λ is zero).
+ * collapses by orders of magnitude (or makes A − μI exactly singular). A solver's exact 0 starts
+ * from `below` and must settle (nothing to stay near). Returns the refined λ and its eigenvector,
+ * or null (then λ is zero).
  */
-function refineSlow(A: Mat, start: number): { lambda: number; v: number[] } | null {
+function refineSlow(A: Mat, start: number, below: number): { lambda: number; v: number[] } | null {
   const n = A.length;
-  let mu = start;
+  let mu = start === 0 ? below : start;
   for (let it = 0; it < 6; it++) {
     const f = luFactor(A.map((row, r) => row.map((x, c) => x - (r === c ? mu : 0))));
     const ft = luFactor(A.map((_, r) => A.map((row, c) => row[r] - (r === c ? mu : 0))));
     // exactly singular at the solver's own value (a decoupled mode, or an exact cancellation):
     // step off it by 1e-8 and iterate back
     if ((luSingular(f) || luSingular(ft)) && it === 0) {
-      mu = start * (1 + 1e-8);
+      mu *= 1 + 1e-8;
       continue;
     }
     if (luSingular(f) || luSingular(ft)) return null;
@@ -471,7 +485,7 @@ function refineSlow(A: Mat, start: number): { lambda: number; v: number[] } | nu
       den += w[r][0] * v[r][0];
     }
     const next = num / den;
-    if (!Number.isFinite(next) || !(Math.abs(next - start) <= 0.5 * Math.abs(start))) return null;
+    if (!Number.isFinite(next) || !(start === 0 || Math.abs(next - start) <= 0.5 * Math.abs(start))) return null;
     const done = Math.abs(next - mu) <= 1e-6 * Math.abs(next);
     mu = next;
     if (done) return { lambda: mu, v: v.map((r) => r[0]) };
