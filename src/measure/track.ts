@@ -170,39 +170,44 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     const r = rep[k]!;
     const seen = r !== k && hi > lo ? laid[r] : undefined;
     if (seen !== undefined && seen.a === lo - t0 && sameEnd(hi - t0, seen.b, hi)) {
-      // a repeat (written out here: this runs once per period of a long pulse train)
       const d = hi - t0 - seen.b;
-      if (seen.start > ctx.reached) ctx.reached = seen.start;
       const taus = seen.taus ?? prepare(seen, piece.terms, ctx);
       const vs = seen.ys;
       const m = taus.length;
-      buf.ensure(m);
-      const ts = buf.ts;
-      const ys = buf.ys;
-      let w = buf.n;
-      ts[w] = lo;
-      ys[w++] = vs[0]!;
-      let last = lo;
-      for (let j = 1; j < m - 1; j++) {
-        const t = t0 + taus[j]!;
-        if (t > last && t < hi) {
-          ts[w] = t;
-          ys[w++] = vs[j]!;
-          last = t;
+      // a repeat (written out here: this runs once per period of a long pulse train), when y''·d²/2
+      // is below round-off of the end value, which then moves by y'·d alone
+      if (seen.endCurve * d * d <= Number.EPSILON * Math.max(Math.abs(vs[0]!), Math.abs(vs[m - 1]!))) {
+        if (seen.start > ctx.reached) ctx.reached = seen.start;
+        buf.ensure(m);
+        const ts = buf.ts;
+        const ys = buf.ys;
+        let w = buf.n;
+        ts[w] = lo;
+        ys[w++] = vs[0]!;
+        let last = lo;
+        for (let j = 1; j < m - 1; j++) {
+          const t = t0 + taus[j]!;
+          if (t > last && t < hi) {
+            ts[w] = t;
+            ys[w++] = vs[j]!;
+            last = t;
+          }
         }
+        ts[w] = hi;
+        ys[w++] = d === 0 ? vs[m - 1]! : vs[m - 1]! + seen.endSlope * d;
+        buf.n = w;
+        buf.upper[buf.k++] = d === 0 ? seen.upper : seen.upper + 2 * seen.endCurve * Math.abs(d);
+        buf.first[buf.k] = w;
+        continue;
       }
-      ts[w] = hi;
-      ys[w++] = d === 0 ? vs[m - 1]! : vs[m - 1]! + seen.endSlope * d;
-      buf.n = w;
-      buf.upper[buf.k++] = d === 0 ? seen.upper : seen.upper + 2 * seen.endCurve * Math.abs(d);
-      buf.first[buf.k] = w;
-      continue;
     }
     // a piece covering a small part of the span needs proportionally fewer grid intervals
     // (a long pulse train has tens of thousands of short pieces); never fewer than 8
     const share = end > start ? (hi - lo) / (end - start) : 1;
-    const L = pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)), repeated[k] === 1);
-    if (L) laid[k] = L;
+    // kept for the repeats: the first piece of each array laid out from its start (the one at the
+    // start of the span may begin before it)
+    const L = pieceStretch(piece, lo, hi, ctx, Math.max(8, Math.ceil(MIN_INTERVALS * share)), laid[r] === undefined && (r !== k || repeated[k] === 1));
+    if (L) laid[r] = L;
   }
   track.ts = buf.ts.subarray(0, buf.n);
   track.ys = buf.ys.subarray(0, buf.n);
