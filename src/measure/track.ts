@@ -154,6 +154,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     D: emptyGroups(),
     D2: emptyGroups(),
     D3: emptyGroups(),
+    D4: emptyGroups(),
     reached: 0,
     lastStart: 0,
   };
@@ -227,6 +228,7 @@ interface Ctx {
   D: Groups;
   D2: Groups;
   D3: Groups;
+  D4: Groups;
   /** the largest |y'| at a stretch start so far */
   reached: number;
   /** |y'| at the start of the stretch just laid out (0 when not found) */
@@ -325,6 +327,24 @@ function layOut(piece: Piece, lo: number, hi: number, ctx: Ctx, minIntervals: nu
     if (Math.min(Math.abs(d0), Math.abs(d1)) > r && d0 < 0 === d1 < 0) {
       buf.push(lo, groupsValue(G, a));
       buf.push(hi, groupsValue(G, hi - t0));
+      buf.close(upper);
+      return;
+    }
+    // or y' is provably monotone (y'' keeps its sign the same way, by max|y''''|·s²/2): then y' has
+    // at most one root, where it changes sign between the ends, and that extremum is the only knot
+    // besides the ends
+    const D4 = groupsDerivative(D3, ctx.D4);
+    const e1 = s0 + groupsValue(D3, a) * w;
+    const r2 = (groupsBound(D4, a, a + w) * w * w) / 2;
+    if (Math.min(Math.abs(s0), Math.abs(e1)) > r2 && s0 < 0 === e1 < 0) {
+      const b = hi - t0;
+      const db = groupsValue(D, b);
+      buf.push(lo, groupsValue(G, a));
+      if (d0 !== 0 && db !== 0 && d0 < 0 !== db < 0) {
+        const root = findRoot((u) => groupsValue(D, u - t0), lo, hi, 1e-14, d0, db);
+        if (root > lo && root < hi) buf.push(root, groupsValue(G, root - t0));
+      }
+      buf.push(hi, groupsValue(G, b));
       buf.close(upper);
       return;
     }
