@@ -27,14 +27,19 @@ export interface Symmetrized {
  */
 export function symmetrize(a: Float64Array, n: number, relTol: number): Symmetrized | null {
   const adjacency: number[][] = Array.from({ length: n }, () => []);
+  // rows read in order, the transposed entry only where a row has a nonzero (a column walk over
+  // the whole matrix would miss the cache n² times); a pair with a zero on one side fails from
+  // the side that has the nonzero
   for (let i = 0; i < n; i++) {
-    for (let j = i + 1; j < n; j++) {
-      const aij = a[i * n + j];
-      const aji = a[j * n + i];
-      if (aij === 0 && aji === 0) continue;
-      if (!(aij * aji > 0)) return null; // one-sided coupling or opposite signs (an LC exchange)
-      adjacency[i].push(j);
-      adjacency[j].push(i);
+    const row = i * n;
+    for (let j = 0; j < n; j++) {
+      const aij = a[row + j];
+      if (aij === 0 || j === i) continue;
+      if (!(aij * a[j * n + i] > 0)) return null; // one-sided coupling or opposite signs (an LC exchange)
+      if (j > i) {
+        adjacency[i].push(j);
+        adjacency[j].push(i);
+      }
     }
   }
   // d² along a breadth-first spanning forest; squares avoid square roots until the end
