@@ -227,15 +227,17 @@ function symmetricScale(A: Mat): Float64Array | null {
 function selfAdjointWeights(A: Mat): number[] | null {
   const n = A.length;
   const adj: number[][] = Array.from({ length: n }, () => []);
+  // rows in order, the transposed entry only behind a nonzero (a one-sided pair fails from the
+  // side that has it)
   for (let i = 0; i < n; i++) {
     const row = A[i];
-    for (let j = i + 1; j < n; j++) {
-      const a = row[j];
-      const b = A[j][i];
-      if (a === 0 && b === 0) continue;
-      if (a === 0 || b === 0) return null;
-      adj[i].push(j);
-      adj[j].push(i);
+    for (let j = 0; j < n; j++) {
+      if (row[j] === 0 || j === i) continue;
+      if (A[j][i] === 0) return null;
+      if (j > i) {
+        adj[i].push(j);
+        adj[j].push(i);
+      }
     }
   }
   const m = new Array<number>(n).fill(0);
