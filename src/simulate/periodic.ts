@@ -204,7 +204,14 @@ function extremes(pieces: Piece[], from: number, period: number): { min: number;
   const N = 2048;
   let iMax = 0;
   let iMin = 0;
-  const vals = Array.from({ length: N + 1 }, (_, i) => f(from + (period * i) / N));
+  // (the sample times increase: the piece in force is found by walking, not by a scan per sample)
+  const vals = new Array<number>(N + 1);
+  for (let i = 0, j = 0; i <= N; i++) {
+    const t = from + (period * i) / N;
+    while (j + 1 < pieces.length && pieces[j + 1].t0 <= t) j++;
+    const p = pieces[j].t0 <= t ? pieces[j] : pieces[0];
+    vals[i] = termsValue(p.terms, t - p.t0);
+  }
   vals.forEach((v, i) => {
     if (v > vals[iMax]) iMax = i;
     if (v < vals[iMin]) iMin = i;
