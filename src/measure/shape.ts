@@ -169,7 +169,7 @@ export function maxSlope(
     const r = rep[i]!;
     if (r !== i && searched[r] === 1) {
       const first = pieces[clip.index[r]!]!;
-      if (los[r]! - first.t0 === lo - piece.t0 && sameEnd(hi - piece.t0, his[r]! - first.t0, hi)) continue;
+      if (first.terms === piece.terms && los[r]! - first.t0 === lo - piece.t0 && sameEnd(hi - piece.t0, his[r]! - first.t0, hi)) continue;
     }
     searched[i] = 1;
     const p = pieceSlope(piece, lo, hi, sweeper, extra, extraStep, G, D1, D2);
@@ -264,7 +264,7 @@ export function averageAndRms(
     if (a > 0) {
       sum += integrateTerms(terms, b) - integrateTerms(terms, a);
       sq += integrateProduct(terms, terms, b) - integrateProduct(terms, terms, a);
-    } else if (r !== i && sameEnd(b, B[r]!, hi)) {
+    } else if (r !== i && sameEnd(b, B[r]!, hi) && pieces[clip.index[r]!]!.terms === terms) {
       const d = b - B[r]!;
       sum += S[r]! + Y[r]! * d;
       sq += Q[r]! + Y[r]! * Y[r]! * d;

@@ -169,7 +169,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     const hi = his[k]!;
     const t0 = piece.t0;
     const r = rep[k]!;
-    const seen = r !== k && hi > lo ? laid[r] : undefined;
+    const seen = r !== k && hi > lo && pieces[c.index[r]!]!.terms === piece.terms ? laid[r] : undefined;
     if (seen !== undefined && seen.a === lo - t0 && sameEnd(hi - t0, seen.b, hi)) {
       const d = hi - t0 - seen.b;
       const taus = seen.taus ?? prepare(seen, piece.terms, ctx);

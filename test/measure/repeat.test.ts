@@ -10,6 +10,7 @@ import { modalDecomposition } from '../../src/lti/modal.js';
 import { termsValue } from '../../src/lti/term.js';
 import { computeMetrics } from '../../src/measure/metrics.js';
 import { averageAndRms } from '../../src/measure/shape.js';
+import { partStress } from '../../src/measure/stress.js';
 import { clipTable } from '../../src/measure/repeat.js';
 import { buildTrack } from '../../src/measure/track.js';
 import { buildModel } from '../../src/model/build.js';
@@ -152,5 +153,61 @@ describe('repeats over ranges a few ulps apart', () => {
     const span = end - times[0];
     expect(rel(m.average, sum / span)).toBeLessThan(1e-12);
     expect(rel(m.rms, Math.sqrt(sq / span))).toBeLessThan(1e-12);
+  });
+});
+
+describe('part stress and energy over periods that share their term arrays', () => {
+  // a pulse train into an RC low-pass (first-order step responses, from memory): on for 0.3 ms,
+  // the capacitor charges as 5 + (v0 − 5)·e^(−t/RC); off for 0.7 ms it decays as v0·e^(−t/RC); the
+  // resistor carries (5 − v)/R on and −v/R off. From period 50 on the state repeats to round-off and
+  // the copy `shared` reuses the arrays of period 50 (the times accumulate, so the lengths differ by
+  // ulps); `separate` has its own arrays throughout: the stress figures must agree
+  const RC = 1e-3;
+  const R = 1e3;
+  const mk = (share: boolean) => {
+    const v: Piece[] = [];
+    const i: Piece[] = [];
+    let y0 = 0;
+    let t = 0;
+    let onV: Term[] | null = null;
+    let onI: Term[] | null = null;
+    let offV: Term[] | null = null;
+    let offI: Term[] | null = null;
+    for (let k = 0; k < 300; k++) {
+      const reuse = share && k > 50;
+      const aV: Term[] = reuse ? onV! : [{ kind: 'exp', lambda: 0, coef: 5 }, { kind: 'exp', lambda: -1 / RC, coef: y0 - 5 }];
+      const aI: Term[] = reuse ? onI! : [{ kind: 'exp', lambda: -1 / RC, coef: (5 - y0) / R }];
+      onV = aV;
+      onI = aI;
+      v.push(piece(t, t + 3e-4, aV));
+      i.push(piece(t, t + 3e-4, aI));
+      y0 = 5 + (y0 - 5) * Math.exp(-3e-4 / RC);
+      t += 3e-4;
+      const bV: Term[] = reuse ? offV! : [{ kind: 'exp', lambda: -1 / RC, coef: y0 }];
+      const bI: Term[] = reuse ? offI! : [{ kind: 'exp', lambda: -1 / RC, coef: -y0 / R }];
+      offV = bV;
+      offI = bI;
+      v.push(piece(t, t + 7e-4, bV));
+      i.push(piece(t, t + 7e-4, bI));
+      y0 *= Math.exp(-7e-4 / RC);
+      t += 7e-4;
+    }
+    return { v, i, end: t };
+  };
+  const shared = mk(true);
+  const separate = mk(false);
+  const times = grid(0, shared.end, 3001);
+
+  it('shares the arrays of the later periods', () => {
+    expect(new Set(shared.v.map((p) => p.terms)).size).toBeLessThan(110);
+    expect(new Set(separate.v.map((p) => p.terms)).size).toBe(600);
+  });
+
+  it('the same peaks, heat and I²t', () => {
+    const a = partStress({ part: 'R1', voltage: shared.v, current: shared.i }, 'resistor', R, 0, shared.end, times);
+    const b = partStress({ part: 'R1', voltage: separate.v, current: separate.i }, 'resistor', R, 0, separate.end, times);
+    for (const k of ['voltage', 'current', 'power'] as const) expect(rel(a[k].value, b[k].value)).toBeLessThan(1e-12);
+    expect(rel(a.energy!, b.energy!)).toBeLessThan(1e-12);
+    expect(rel(a.i2t, b.i2t)).toBeLessThan(1e-12);
   });
 });
