@@ -141,7 +141,10 @@ function outsideBookkeeping(r: RunResult): boolean {
 /** Values over wide decades, as boards have them: 10 mΩ–10 MΩ, 1 pF–10 mF, 1 nH–10 H; an optional switch. */
 const WIDE: Ranges = { r: [-2, 6], c: [-12, -3], l: [-9, 0], on: [-2, 1], switches: true };
 
-// FUZZ_SEED and FUZZ_RUNS widen a local search (e.g. FUZZ_SEED=7 FUZZ_RUNS=600); CI keeps these
+// FUZZ_SEED and FUZZ_RUNS widen a local search (e.g. FUZZ_SEED=7 FUZZ_RUNS=600); CI keeps these.
+// With other seeds about 14 % of the runs are flagged (above the 10 % bound below): mostly the
+// cross-check's own limits, stiffness × span above 1e9 and watches that are round-off of zero
+// (both kept open in known-failures.test.ts); each flagged run says so, none is silent.
 const PARAMS = { numRuns: Number(process.env.FUZZ_RUNS ?? 60), seed: Number(process.env.FUZZ_SEED ?? 20250301), endOnFailure: true } as const;
 
 describe('fuzz: random RLC circuits run exactly', () => {
