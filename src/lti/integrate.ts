@@ -165,35 +165,97 @@ export function integrateProduct(f: Term[], g: Term[], T: number): number {
 }
 
 function productOf(a: Monos, b: Monos, T: number): number {
+  const ga = growths(a, T);
+  const gb = growths(b, T);
   let s = 0;
   for (let x = 0; x < a.k.length; x++) {
-    for (let y = 0; y < b.k.length; y++) s += pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], b.cre[y], b.cim[y], b.k[y], b.kre[y], b.kim[y], T);
+    for (let y = 0; y < b.k.length; y++) s += pairIntegral(a, x, ga, b, y, gb, T);
   }
   return s;
 }
 
 function squareOf(a: Monos, T: number): number {
+  const g = growths(a, T);
   let s = 0;
   for (let x = 0; x < a.k.length; x++) {
-    s += pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], T);
-    for (let y = x + 1; y < a.k.length; y++) s += 2 * pairIntegral(a.cre[x], a.cim[x], a.k[x], a.kre[x], a.kim[x], a.cre[y], a.cim[y], a.k[y], a.kre[y], a.kim[y], T);
+    s += pairIntegral(a, x, g, a, x, g, T);
+    for (let y = x + 1; y < a.k.length; y++) s += 2 * pairIntegral(a, x, g, a, y, g, T);
   }
   return s;
 }
 
-/** ∫0^T Re[X]·Re[Y] dτ for two monomials X = c·τ^k·e^(κτ). */
-function pairIntegral(ar: number, ai: number, ak: number, akr: number, aki: number, br: number, bi: number, bk: number, bkr: number, bki: number, T: number): number {
+/**
+ * e^(κT) of each monomial, so that a pair's e^((κ₁ + κ₂)T) and e^((κ₁ + κ̄₂)T) are two complex
+ * products instead of an exp, a cos and a sin each (the O(m²) pairs of an RMS). A decayed one is
+ * exactly 0 (below e^(−745), as is every pair's sum with it); a growing one is NaN, and its pairs
+ * are computed directly (a product could leave the range of doubles where the sum does not).
+ */
+function growths(a: Monos, T: number): { er: Float64Array; ei: Float64Array } {
+  const n = a.k.length;
+  const er = new Float64Array(n);
+  const ei = new Float64Array(n);
+  for (let x = 0; x < n; x++) {
+    const zr = a.kre[x] * T;
+    if (!(zr <= 0)) {
+      er[x] = NaN;
+      continue;
+    }
+    if (zr < -745) continue;
+    const m = Math.exp(zr);
+    er[x] = m * Math.cos(a.kim[x] * T);
+    ei[x] = m * Math.sin(a.kim[x] * T);
+  }
+  return { er, ei };
+}
+
+/** ∫0^T Re[X]·Re[Y] dτ for two monomials X = c·τ^k·e^(κτ) (a's x-th and b's y-th). */
+function pairIntegral(a: Monos, x: number, ga: { er: Float64Array; ei: Float64Array }, b: Monos, y: number, gb: { er: Float64Array; ei: Float64Array }, T: number): number {
+  const ar = a.cre[x];
+  const ai = a.cim[x];
+  const br = b.cre[y];
+  const bi = b.cim[y];
+  const akr = a.kre[x];
+  const aki = a.kim[x];
+  const bkr = b.kre[y];
+  const bki = b.kim[y];
   // Re[X]·Re[Y] = ½·Re[X·Y + X·conj(Y)]
-  const k = ak + bk;
+  const k = a.k[x] + b.k[y];
   const pr = ar * br - ai * bi;
   const pi = ar * bi + ai * br;
-  powerExpIntegralInto(k, akr + bkr, aki + bki, T);
+  const xr = ga.er[x];
+  const xi = ga.ei[x];
+  const yr = gb.er[y];
+  const yi = gb.ei[y];
+  powerExpIntegralWith(k, akr + bkr, aki + bki, T, xr * yr - xi * yi, xr * yi + xi * yr);
   let re = pr * outRe - pi * outIm;
   const qr = ar * br + ai * bi;
   const qi = -ar * bi + ai * br;
-  powerExpIntegralInto(k, akr + bkr, aki - bki, T);
+  powerExpIntegralWith(k, akr + bkr, aki - bki, T, xr * yr + xi * yi, xi * yr - xr * yi);
   re += qr * outRe - qi * outIm;
   return 0.5 * re;
+}
+
+/**
+ * powerExpIntegralInto with e^(κT) = er + j·ei given (NaN: not given). Near κT = 0 the series of
+ * powerExpIntegralInto applies, which needs no exponential.
+ */
+function powerExpIntegralWith(k: number, kr: number, ki: number, T: number, er: number, ei: number): void {
+  const zr = kr * T;
+  const zi = ki * T;
+  if (Number.isNaN(er) || zr * zr + zi * zi < 1) {
+    powerExpIntegralInto(k, kr, ki, T);
+    return;
+  }
+  const den = kr * kr + ki * ki;
+  outRe = ((er - 1) * kr + ei * ki) / den;
+  outIm = (ei * kr - (er - 1) * ki) / den;
+  for (let j = 1; j <= k; j++) {
+    const tj = T ** j;
+    const ar = er * tj - j * outRe;
+    const ai = ei * tj - j * outIm;
+    outRe = (ar * kr + ai * ki) / den;
+    outIm = (ai * kr - ar * ki) / den;
+  }
 }
 
 /**
