@@ -7,6 +7,13 @@ import type { Mat } from './dense.js';
  * matrix exponential accurate.
  */
 export function balance(M: Mat): { B: Mat; d: number[] } {
+  const d = balanceScale(M);
+  const B = M.map((row, i) => row.map((v, j) => (v === 0 || i === j ? v : (v * d[j]) / d[i])));
+  return { B, d };
+}
+
+/** The powers of two d of balance() alone (a caller that reads only B's nonzeros forms them itself). */
+export function balanceScale(M: Mat): number[] {
   const n = M.length;
   // the sweeps read only the off-diagonal nonzeros (a circuit matrix has a few per row), by row
   // and by column, gathered once; d are powers of two, so B = D⁻¹·M·D is exact at the end
@@ -55,6 +62,5 @@ export function balance(M: Mat): { B: Mat; d: number[] } {
     }
     if (!changed) break;
   }
-  const B = M.map((row, i) => row.map((v, j) => (v === 0 || i === j ? v : (v * d[j]) / d[i])));
-  return { B, d };
+  return d;
 }

@@ -1,6 +1,6 @@
 import type { Readout, StateSpace } from '../model/state-space.js';
 import type { Vec } from '../linalg/dense.js';
-import { balance } from '../linalg/balance.js';
+import { balanceScale } from '../linalg/balance.js';
 import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
 import { powerExpIntegral } from '../lti/integrate.js';
 import type { Component } from '../waveform/component.js';
@@ -124,18 +124,19 @@ const balancedOf = new WeakMap<StateSpace, Balanced>();
 function balanced(ss: StateSpace): Balanced {
   let b = balancedOf.get(ss);
   if (!b) {
-    const { B: Ab, d } = ss.n ? balance(ss.A) : { B: [] as number[][], d: [] as number[] };
-    // ‖A‖∞ of the balanced matrix bounds every |λ|
+    const d = ss.n ? balanceScale(ss.A) : [];
+    // ‖A‖∞ of the balanced matrix bounds every |λ|; its entries as balance() forms them
     let rate = 0;
     const I: number[] = [];
     const J: number[] = [];
     const V: number[] = [];
     let kl = 0;
     let ku = 0;
-    Ab.forEach((row, i) => {
+    ss.A.forEach((row, i) => {
       let sum = 0;
       for (let j = 0; j < row.length; j++) {
-        const v = row[j];
+        const a = row[j];
+        const v = a === 0 || i === j ? a : (a * d[j]) / d[i];
         sum += Math.abs(v);
         if (v === 0) continue;
         I.push(i);
