@@ -360,11 +360,12 @@ span 5.4e-5
     expect(run(text)!.crossCheck.passed).toBe(true);
   });
 
-  // Still open: the cross-check itself runs out of digits. It steps e^(M·h) with ‖M‖·h ≤ 1, so
-  // a 1 s mode beside a 1 ns one takes 3e9 steps (by repeated squaring), and the slow decay per
-  // step (1 − 1e-9) carries only 7 digits: 8e-7 disagreement although the closed form matches the
-  // textbook formula to 1e-15 (test/robust/degenerate.test.ts checks the values).
-  it.fails('a 1 ns RC and a 10 s RL on one source (textbook first-order forms): the cross-check passes', () => {
+  // Fixed: the cross-check itself ran out of digits. It steps e^(M·h) with ‖M‖·h ≤ 1, so a 1 s
+  // mode beside a 1 ns one takes 3e9 steps (by repeated squaring), and the slow decay per step
+  // (1 − 1e-9) kept only 7 digits: 8e-7 disagreement although the closed form matches the textbook
+  // formula to 1e-15 (test/robust/degenerate.test.ts checks the values). The steps are now kept
+  // as e^(M·h) − I.
+  it('a 1 ns RC and a 10 s RL on one source (textbook first-order forms): the cross-check passes', () => {
     const text = `voltage-source V1 in -> gnd step from 0V to 1V at 0
 resistor R1 in -> a 1kohm
 capacitor C1 a -> gnd 1pF
@@ -382,10 +383,12 @@ samples 11
     expect(r.crossCheck.passed).toBe(true);
   });
 
-  // Still open: the cross-check judges each watch relative to its own size, and this one is exactly
-  // 0 V at DC (n1 is tied to ground by L5 and L9); its closed form is round-off of the 100 V
-  // elsewhere (4e-13 V), and the comparison of two round-offs reads as a relative error of 1.
-  it.fails('a watch that is 0 V at DC by topology: the cross-check passes', () => {
+  // Fixed: the cross-check judged each watch relative to its own size, and this one is exactly
+  // 0 V at DC (n1 is tied to ground by L5 and L9; every voltage in the circuit is 0 while 6 A flow
+  // through the coils); its closed form is round-off of the terms C_j·ξ_j that cancel (4e-13 V),
+  // and the comparison of two round-offs read as a relative error of 1. Round-off of the
+  // cancelling terms (1000 ε of their size) is now forgiven, nothing more.
+  it('a watch that is 0 V at DC by topology: the cross-check passes', () => {
     const text = `resistor R1 gnd -> n1 2.6e-1ohm
 resistor R2 n1 -> n2 7.8e0ohm
 inductor L3 gnd -> n3 9.9e-3H
