@@ -16,7 +16,10 @@ export interface EnergyBalance {
   delivered: number;
   dissipated: number;
   storedChange: number;
-  /** |delivered − dissipated − storedChange| / max(|delivered|, |dissipated|, |storedChange|) */
+  /**
+   * |delivered − dissipated − storedChange| / Σ|∫v·i dt| over the parts: Tellegen's sum against the
+   * energy the parts moved in all (one source feeding another can leave all three totals near 0)
+   */
   residual: number;
   /** per part: ∫ v·i dt over the span (positive: absorbed) */
   perPart: { part: string; absorbed: number }[];
@@ -52,7 +55,11 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
     else storedChange += absorbed;
     return { part: p.part, absorbed };
   });
-  const scale = Math.max(Math.abs(delivered), Math.abs(dissipated), Math.abs(storedChange));
+  // a sum of terms carries round-off of the terms' sizes, not of the sum: two sources trading
+  // 1 J with nothing else moving leave delivered ≈ 0, and a ratio to that would be round-off / round-off
+  let moved = 0;
+  for (const p of perPart) moved += Math.abs(p.absorbed);
+  const scale = Math.max(Math.abs(delivered), Math.abs(dissipated), Math.abs(storedChange), moved);
   const residual = scale > 0 ? Math.abs(delivered - dissipated - storedChange) / scale : 0;
   return { delivered, dissipated, storedChange, residual, perPart };
 }
