@@ -192,9 +192,10 @@ function factor(d: Float64Array, b: Float64Array, c: Float64Array, lr: number, l
   }
 }
 
-/** x := U⁻¹·x (backward substitution with the reciprocal pivots). */
-function backSolve(n: number, ws: Work): void {
+/** x := U⁻¹·x (backward substitution with the reciprocal pivots); returns max |re| + |im| of x. */
+function backSolve(n: number, ws: Work): number {
   const { u1r, u1i, u2, vr, vi, xr, xi } = ws;
+  let big = 0;
   for (let i = n - 1; i >= 0; i--) {
     let tr = xr[i];
     let ti = xi[i];
@@ -208,9 +209,13 @@ function backSolve(n: number, ws: Work): void {
       tr -= u2[i] * xr[i + 2];
       ti -= u2[i] * xi[i + 2];
     }
-    xr[i] = tr * vr[i] - ti * vi[i];
-    xi[i] = tr * vi[i] + ti * vr[i];
+    const ar = tr * vr[i] - ti * vi[i];
+    const ai = tr * vi[i] + ti * vr[i];
+    xr[i] = ar;
+    xi[i] = ai;
+    big = Math.max(big, Math.abs(ar) + Math.abs(ai));
   }
+  return big;
 }
 
 /**
@@ -236,18 +241,16 @@ export function bidiagonalForward(n: number, mr: Float64Array, mi: Float64Array,
   }
 }
 
-/** Scales x to max-norm 1 (|re| + |im|); returns the factor's inverse (the old max), 0 if not finite. */
-function rescale(n: number, ws: Work): number {
+/** Scales x by 1/big (its max-norm |re| + |im|, from backSolve); false when that is not finite. */
+function rescale(n: number, big: number, ws: Work): boolean {
   const { xr, xi } = ws;
-  let big = 0;
-  for (let i = 0; i < n; i++) big = Math.max(big, Math.abs(xr[i]) + Math.abs(xi[i]));
-  if (!(big > 0) || !Number.isFinite(big)) return 0;
+  if (!(big > 0) || !Number.isFinite(big)) return false;
   const f = 1 / big;
   for (let i = 0; i < n; i++) {
     xr[i] *= f;
     xi[i] *= f;
   }
-  return big;
+  return true;
 }
 
 /**
@@ -323,13 +326,11 @@ function vector(d: Float64Array, b: Float64Array, c: Float64Array, w: Float64Arr
   // dlaein's start: U·x = (1, …, 1)
   ws.xr.fill(1);
   ws.xi.fill(0);
-  backSolve(n, ws);
-  if (!rescale(n, ws)) return false;
+  if (!rescale(n, backSolve(n, ws), ws)) return false;
   let res = Infinity;
   for (let its = 0; its < MAX_SOLVES; its++) {
     bidiagonalForward(n, ws.mr, ws.mi, ws.swap, ws.xr, ws.xi);
-    backSolve(n, ws);
-    if (!rescale(n, ws)) return false;
+    if (!rescale(n, backSolve(n, ws), ws)) return false;
     if (!rayleigh(d, b, c, w, real, ws)) return false;
     res = residual(d, b, c, ws.lr, ws.li, ws);
     if (res <= ROUND_OFF * norm) return true;
