@@ -17,8 +17,10 @@ export interface EnergyBalance {
   dissipated: number;
   storedChange: number;
   /**
-   * |delivered − dissipated − storedChange| / Σ|∫v·i dt| over the parts: Tellegen's sum against the
-   * energy the parts moved in all (one source feeding another can leave all three totals near 0)
+   * |delivered − dissipated − storedChange| over the circuit's energy scale: the largest of the
+   * three totals, Σ|∫v·i dt| over the parts (one source feeding another can leave all three totals
+   * near 0) and the energy stored at the start or the end of the span (a circuit holding 4 J in
+   * its coils while nothing moves: the ∫v·i of its parts are round-off of that)
    */
   residual: number;
   /** per part: ∫ v·i dt over the span (positive: absorbed) */
@@ -59,7 +61,20 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   // 1 J with nothing else moving leave delivered ≈ 0, and a ratio to that would be round-off / round-off
   let moved = 0;
   for (const p of perPart) moved += Math.abs(p.absorbed);
-  const scale = Math.max(Math.abs(delivered), Math.abs(dissipated), Math.abs(storedChange), moved);
+  let heldFirst = 0;
+  let heldLast = 0;
+  for (const p of parts) {
+    const part = circuit.parts.find((q) => q.name === p.part);
+    const x = part?.kind === 'capacitor' ? p.voltage : part?.kind === 'inductor' ? p.current : null;
+    if (!part || !x || x.length === 0) continue;
+    const first = termsValue(x[0]!.terms, 0);
+    const last = x[x.length - 1]!;
+    const end = termsValue(last.terms, last.t1 - last.t0);
+    // ½·C·v² or ½·L·i² (textbook)
+    if (Number.isFinite(first)) heldFirst += 0.5 * part.value * first * first;
+    if (Number.isFinite(end)) heldLast += 0.5 * part.value * end * end;
+  }
+  const scale = Math.max(Math.abs(delivered), Math.abs(dissipated), Math.abs(storedChange), moved, heldFirst, heldLast);
   const residual = scale > 0 ? Math.abs(delivered - dissipated - storedChange) / scale : 0;
   return { delivered, dissipated, storedChange, residual, perPart };
 }

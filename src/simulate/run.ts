@@ -303,13 +303,14 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   });
   // A watch that is zero by topology (every node it sees tied to ground by coils carrying current)
   // is a cancellation of terms Σ C_j·ξ_j: its closed form and its reference are both round-off of
-  // those terms' size, so a disagreement within 1000 ε of Σ|C_j·ξ_j| + Σ|D_j·u_j| is no disagreement
-  // (only that much is forgiven: an error of 1e-9 of the watch stays one)
+  // those terms' size. So the scale is at least Σ|C_j·ξ_j| + Σ|D_j·u_j| times 1000 ε / tolerance:
+  // a disagreement of 1000 ε of the cancelling terms reads as the tolerance, no more is forgiven
+  // (an error of 1e-9 of a watch whose terms are of its own size stays one)
   let maxRel = 0;
   signals.forEach((s, w) => {
-    const scale = Math.max(circuitScale[s.watch.unit], ...signals.map((o, v) => (o.watch.unit === s.watch.unit ? peakOf[v] : 0)));
-    const err = absErr[w] <= 1e3 * Number.EPSILON * termSize[w] ? 0 : absErr[w];
-    const rel = scale > 0 ? err / scale : err;
+    const cancelling = (termSize[w] * 1e3 * Number.EPSILON) / CROSS_CHECK_TOLERANCE;
+    const scale = Math.max(circuitScale[s.watch.unit], cancelling, ...signals.map((o, v) => (o.watch.unit === s.watch.unit ? peakOf[v] : 0)));
+    const rel = scale > 0 ? absErr[w] / scale : absErr[w];
     maxRel = Math.max(maxRel, Number.isNaN(rel) ? Infinity : rel);
   });
   const methods = [
