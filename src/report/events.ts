@@ -4,8 +4,9 @@ import { heading } from './table.js';
 
 type RunEvent = NonNullable<RunResult['events']>[number];
 
-function eventLines(e: RunEvent): string[] {
-  const closed = e.closed.length > 0 ? `closed switches: ${e.closed.join(', ')}` : 'all switches open';
+function eventLines(e: RunEvent, hasSwitches: boolean): string[] {
+  // an instant without switches is the start itself (stored charges shared at t = 0)
+  const closed = e.closed.length > 0 ? `closed switches: ${e.closed.join(', ')}` : hasSwitches ? 'all switches open' : 'the start (no switches)';
   const lines = [`  t = ${formatSI(e.t, 's')}: ${closed}`];
   for (const j of e.jumps) {
     const unit = j.kind === 'capacitor-voltage' ? 'V' : 'A';
@@ -20,5 +21,6 @@ function eventLines(e: RunEvent): string[] {
 export function eventsSection(result: RunResult): string[] {
   const events = result.events ?? [];
   if (events.length === 0) return [];
-  return [...heading('Events'), ...events.flatMap(eventLines)];
+  const hasSwitches = result.circuit.parts.some((p) => p.kind === 'switch');
+  return [...heading('Events'), ...events.flatMap((e) => eventLines(e, hasSwitches))];
 }

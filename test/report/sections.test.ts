@@ -99,4 +99,13 @@ describe('interval labels', () => {
     expect(ranges).toEqual(['for 0 s ≤ t < 990 µs:', 'for 990 µs ≤ t < 990.02 µs:', 'for t ≥ 990.02 µs:']);
     expect(distinctDigits([990e-6, 990.0000001e-6])).toBeGreaterThan(4);
   });
+  it('charge shared at the start without any switch: the event says so, not "all switches open"; 3 µJ lost', () => {
+    // C1 (1 µF, 0 V) and C2 (2 µF, 3 V) in parallel share to 2 V; energy lost ½·2µ·9 − ½·3µ·4 = 3 µJ
+    // (charge conservation, physics textbook, from memory)
+    const r = run(['capacitor C1 a -> gnd 1uF', 'capacitor C2 a -> gnd 2uF initial 3V', 'resistor R1 a -> gnd 1k', 'watch node a', 'start rest', 'span 5ms', 'samples 51']);
+    const t = formatTextReport(r, { chart: false });
+    expect(t).toContain('t = 0 s: the start (no switches)');
+    expect(t).not.toContain('all switches open');
+    expect(Math.abs(r.events![0]!.energyLost - 3e-6)).toBeLessThan(1e-15);
+  });
 });
