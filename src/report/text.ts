@@ -56,7 +56,10 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   out.push(`  step response from t = 0 to ${spanText}, ${result.times.length} samples`);
   const a = circuit.analysis;
   if (a.start !== undefined) {
-    out.push(`  before t = 0: ${a.start === 'rest' ? 'every capacitor and inductor at zero' : 'settled at the DC operating point'}`);
+    // what the run used: a settled start falls back to rest when there is no operating point
+    const used = result.start ?? a.start;
+    const fellBack = a.start === 'settled' && used === 'rest';
+    out.push(`  before t = 0: ${used === 'rest' ? `every capacitor and inductor at zero${fellBack ? ' (no DC operating point)' : ''}` : 'settled at the DC operating point'}`);
   }
   const units = [...new Set(circuit.watches.map((w) => w.unit))];
   const band =
@@ -104,8 +107,8 @@ export function formatTextReport(result: RunResult, options: TextReportOptions =
   const warnings = circuit.warnings ?? [];
   if (warnings.length + result.notices.length > 0) {
     out.push(...heading('Notices'));
-    for (const w of warnings) out.push(`  - warning: ${warningLine(w)}`);
-    for (const n of result.notices) out.push(`  - ${n}`);
+    for (const w of warnings) out.push(...wrapWords(`  - warning: ${warningLine(w)}`, 80, '    '));
+    for (const n of result.notices) out.push(...wrapWords(`  - ${n}`, 80, '    '));
     out.push('');
   }
 
