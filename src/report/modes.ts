@@ -11,7 +11,7 @@ export function modesSection(modes: readonly Mode[], title = 'Natural modes'): s
     const n = String(i + 1);
     switch (m.kind) {
       case 'real':
-        rows.push([n, m.lambda === 0 ? 'constant (no decay)' : 'decaying', formatSI(m.tau, 's'), '', '', '', '']);
+        rows.push([n, m.lambda === 0 ? 'constant' : 'decaying', formatSI(m.tau, 's'), '', '', '', '']);
         break;
       case 'oscillatory':
         rows.push([
