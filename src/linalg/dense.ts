@@ -144,7 +144,3 @@ export function pickRows(a: Mat, idx: number[]): Mat {
   return idx.map((i) => a[i].slice());
 }
 
-export function hstack(...ms: Mat[]): Mat {
-  const rows = ms.find((m) => m.length)?.length ?? 0;
-  return Array.from({ length: rows }, (_, i) => ms.flatMap((m) => (m.length ? m[i] : [])));
-}

@@ -2,29 +2,17 @@ import { type Mat, add, identity, matmul, norm1, scale } from './dense.js';
 import { solveSquare } from './factor.js';
 
 /**
- * Matrix exponential by scaling and squaring with the degree-13 Padé approximant
- * (N. J. Higham, "The scaling and squaring method for the matrix exponential revisited",
- * SIAM J. Matrix Anal. Appl. 26(4), 2005). Used as the independent cross-check of the
- * modal closed forms, so it deliberately shares no code with the eigen-decomposition path.
+ * The degree-13 Padé approximant of the matrix exponential (N. J. Higham, "The scaling and
+ * squaring method for the matrix exponential revisited", SIAM J. Matrix Anal. Appl. 26(4), 2005),
+ * in the form e^A − I. The cross-check of the closed forms steps with it (its own scaling: steps of
+ * ‖M‖·h ≤ 1; its own squaring, in the same I + F form), so it deliberately shares no code with the
+ * eigen-decomposition path.
  */
 const B13 = [
   64764752532480000, 32382376266240000, 7771770303897600, 1187353796428800, 129060195264000,
   10559470521600, 670442572800, 33522128640, 1323241920, 40840800, 960960, 16380, 182, 1,
 ];
 const THETA13 = 5.371920351148152;
-
-export function expm(a: Mat): Mat {
-  const n = a.length;
-  if (n === 0) return [];
-  const nrm = norm1(a);
-  let s = 0;
-  if (nrm > THETA13) s = Math.max(0, Math.ceil(Math.log2(nrm / THETA13)));
-  const A = s > 0 ? scale(a, 2 ** -s) : a;
-  const { U, V } = pade13(A);
-  let R = solveSquare(add(V, U, -1), add(V, U));
-  for (let k = 0; k < s; k++) R = matmul(R, R);
-  return R;
-}
 
 /**
  * e^A − I for ‖A‖₁ ≤ 5.37 (no scaling), without forming e^A: with the Padé form

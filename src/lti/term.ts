@@ -75,12 +75,6 @@ export function termsValue(terms: Term[], tau: number): number {
   return s;
 }
 
-export function termsSlope(terms: Term[], tau: number): number {
-  let s = 0;
-  for (const t of terms) s += termSlope(t, tau);
-  return s;
-}
-
 /**
  * A sum of terms regrouped by exponent: Σ_g Re[P_g(τ)·e^(κ_g·τ)], P_g a polynomial with complex
  * coefficients. Terms with the same exponent (a mode's free response and the particular solution

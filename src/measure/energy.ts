@@ -34,6 +34,7 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   // all parts share the run's exponents: one table of exponent integrals per piece length,
   // shared with the part stress (the same products, mostly)
   const products = productsFor(circuit);
+  const byName = new Map(circuit.parts.map((q) => [q.name, q]));
   const perPart = parts.map((p) => {
     let absorbed = 0;
     // a pair of term arrays seen before over a length a few ulps away (a steady tail's periods,
@@ -51,7 +52,7 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
       absorbed += products.fg;
       if (s === undefined) seen.set(pv.terms, { i: pi.terms, b, fg: products.fg, vb: termsValue(pv.terms, b), ib: termsValue(pi.terms, b) });
     });
-    const kind = circuit.parts.find((q) => q.name === p.part)?.kind;
+    const kind = byName.get(p.part)?.kind;
     if (kind === 'voltage-source' || kind === 'current-source') delivered -= absorbed;
     else if (kind === 'resistor' || kind === 'switch') dissipated += absorbed;
     else storedChange += absorbed;
@@ -64,7 +65,7 @@ export function energyBalance(circuit: Circuit, parts: { part: string; voltage: 
   let heldFirst = 0;
   let heldLast = 0;
   for (const p of parts) {
-    const part = circuit.parts.find((q) => q.name === p.part);
+    const part = byName.get(p.part);
     const x = part?.kind === 'capacitor' ? p.voltage : part?.kind === 'inductor' ? p.current : null;
     if (!part || !x || x.length === 0) continue;
     const first = termsValue(x[0]!.terms, 0);

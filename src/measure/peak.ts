@@ -159,21 +159,3 @@ export function clipPieces(pieces: readonly Piece[], start: number, end: number)
   return out;
 }
 
-/**
- * clipPieces without the list: calls `fn` with each clipped piece, its index in `pieces`, its
- * ordinal among the clipped ones, and [lo, hi]; returns how many there were. (A long pulse train
- * has tens of thousands of pieces and several measurements walk them.)
- */
-export function forEachClipped(pieces: readonly Piece[], start: number, end: number, fn: (piece: Piece, index: number, ordinal: number, lo: number, hi: number) => void): number {
-  let count = 0;
-  for (let i = 0; i < pieces.length; i++) {
-    const piece = pieces[i]!;
-    const next = pieces[i + 1];
-    const lo = Math.max(piece.t0, start);
-    const hi = Math.min(next ? next.t0 : Math.max(piece.t1, end), end);
-    if (hi < lo || (hi === lo && count > 0)) continue;
-    fn(piece, i, count++, lo, hi);
-  }
-  if (count === 0 && pieces.length > 0) fn(pieces[pieces.length - 1]!, pieces.length - 1, count++, start, end);
-  return count;
-}

@@ -27,15 +27,6 @@ export interface InputSchedule {
   approximation: number[];
 }
 
-/** Breakpoints of a waveform (times where some term changes formula) within [0, span]. */
-export function breakpointsOf(w: Waveform, span = Infinity): number[] {
-  return w.terms.flatMap((t) => {
-    if (t.kind === 'impulse') return [t.at];
-    if (t.kind === 'expression') return [];
-    return termModel(t, Number.isFinite(span) ? span : 0).breakpoints(span);
-  });
-}
-
 /** Time of the last event of any waveform that should fit into an automatically chosen span. */
 export function lastEventOf(waves: Waveform[]): number {
   let last = 0;
