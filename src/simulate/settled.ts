@@ -1,6 +1,7 @@
 import type { Circuit } from '../circuit/circuit.js';
 import type { Model } from '../model/build.js';
-import { luFactor, luSingular, luSolve } from '../linalg/lu.js';
+import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
+import { bandOrder } from './band-order.js';
 import type { Waveform } from '../circuit/circuit.js';
 import { valueLeftOf } from '../waveform/schedule.js';
 
@@ -32,10 +33,40 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       const cs = Array.from({ length: n }, (_, j) => pow2Inverse(S.reduce((m, row) => Math.max(m, Math.abs(row[j])), 0)));
       for (const row of S) for (let j = 0; j < n; j++) row[j] *= cs[j];
       if (rs.some((x) => !Number.isFinite(x)) || cs.some((x) => !Number.isFinite(x))) throw new Error('no DC operating point');
-      const f = n ? luFactor(S) : null;
-      if (f && (luSingular(f) || f.minPivot <= 1e-12 * f.maxPivot)) throw new Error('no DC operating point');
-      // the same factors solve (one O(n³) factorization, not two): S·y = R·B·u, ξ = −C·y
-      const xi = f ? luSolve(f, Bu.map((r, i) => [r[0] * rs[i]])).map((r, j) => -r[0] * cs[j]) : [];
+      // one LU with partial pivoting (one O(n³) factorization at most, not two): S·y = R·B·u,
+      // ξ = −C·y. Above 32 states the states are renumbered to narrow the band first (a mesh's
+      // A is sparse; band-order.ts); small circuits keep their own order
+      const I: number[] = [];
+      const J: number[] = [];
+      S.forEach((row, i) => row.forEach((v, j) => {
+        if (v !== 0) {
+          I.push(i);
+          J.push(j);
+        }
+      }));
+      const ord = n > 32 ? bandOrder(n, I, J) : null;
+      const pos = ord ? ord.pos : Int32Array.from({ length: n }, (_, i) => i);
+      let kl = 0;
+      let ku = 0;
+      for (let q = 0; q < I.length; q++) {
+        kl = Math.max(kl, pos[I[q]] - pos[J[q]]);
+        ku = Math.max(ku, pos[J[q]] - pos[I[q]]);
+      }
+      const M = bandMatrix(n, kl, ku);
+      for (let q = 0; q < I.length; q++) M.a[M.off[pos[I[q]]] + pos[J[q]]] = S[I[q]][J[q]];
+      const f = bandFactor(M);
+      let minPivot = Infinity;
+      let maxPivot = 0;
+      for (let i = 0; i < n; i++) {
+        const p = Math.abs(f.lu[f.off[i] + i]);
+        minPivot = Math.min(minPivot, p);
+        maxPivot = Math.max(maxPivot, p);
+      }
+      if (n && (f.singular || minPivot === 0 || !Number.isFinite(maxPivot) || minPivot <= 1e-12 * maxPivot)) throw new Error('no DC operating point');
+      const rhs = new Float64Array(n);
+      for (let i = 0; i < n; i++) rhs[pos[i]] = Bu[i][0] * rs[i];
+      const y = bandSolve(f, rhs);
+      const xi = Array.from({ length: n }, (_, j) => -y[pos[j]] * cs[j]);
       for (const st of model.storage) {
         const r = st.readout;
         const v = r.C.reduce((s, cc, i) => s + cc * xi[i], 0) + r.D.reduce((s, d, j) => s + d * u[j], 0);

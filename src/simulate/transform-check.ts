@@ -2,6 +2,7 @@ import type { Readout, StateSpace } from '../model/state-space.js';
 import type { Vec } from '../linalg/dense.js';
 import { balanceScale } from '../linalg/balance.js';
 import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
+import { bandOrder } from './band-order.js';
 import { powerExpIntegral } from '../lti/integrate.js';
 import type { Component } from '../waveform/component.js';
 import type { InputSchedule } from '../waveform/schedule.js';
@@ -58,7 +59,7 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
   const m = ss.m;
   const L = b - a;
   const absErr = readouts.map(() => 0);
-  const { d, entries, kl, ku } = balanced(ss);
+  const { d, entries, kl, ku, pos } = balanced(ss);
   const inner = schedule.diracs.filter((x) => x.t > a && x.t < b);
   for (const s of weights) {
     const U = transformInputs(schedule.intervals, m, a, s, 'components');
@@ -71,13 +72,14 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
     const tail = Math.exp(-s * L);
     let X: number[] = [];
     if (n) {
-      // (sI − D⁻¹AD)·(D⁻¹X̂) = D⁻¹·rhs, by an LU within the band (a ladder is tridiagonal)
+      // (sI − D⁻¹AD)·(D⁻¹X̂) = D⁻¹·rhs, by an LU within the band (a ladder is tridiagonal), the
+      // states renumbered (state i is row pos[i]) to narrow the band of a mesh
       const rhs = new Float64Array(n);
       for (let i = 0; i < n; i++) {
         let r = e.xiStart[i] - tail * e.xiEnd[i];
         const Bi = ss.B[i];
         for (let j = 0; j < m; j++) r += Bi[j] * kick[j];
-        rhs[i] = r / d[i];
+        rhs[pos[i]] = r / d[i];
       }
       // sI − D⁻¹AD in band storage (O(n) for a ladder), from the nonzeros gathered once
       const M = bandMatrix(n, kl, ku);
@@ -88,7 +90,7 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
       if (f.singular) throw new Error(`transform check: sI − A is singular at s = ${s}`);
       const y = bandSolve(f, rhs);
       X = new Array<number>(n);
-      for (let i = 0; i < n; i++) X[i] = y[i] * d[i];
+      for (let i = 0; i < n; i++) X[i] = y[pos[i]] * d[i];
     }
     const mass = -Math.expm1(-s * L) / s;
     readouts.forEach((r, w) => {
@@ -112,9 +114,11 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
 interface Balanced {
   d: number[];
   rate: number;
-  /** the nonzeros of D⁻¹·A·D, row by row */
+  /** the nonzeros of D⁻¹·A·D, row by row, at their renumbered rows and columns */
   entries: { i: Int32Array; j: Int32Array; v: Float64Array };
-  /** its lower and upper bandwidths */
+  /** state i's row and column in the renumbered matrix (band-order.ts) */
+  pos: Int32Array;
+  /** its lower and upper bandwidths, renumbered */
   kl: number;
   ku: number;
 }
@@ -130,8 +134,6 @@ function balanced(ss: StateSpace): Balanced {
     const I: number[] = [];
     const J: number[] = [];
     const V: number[] = [];
-    let kl = 0;
-    let ku = 0;
     ss.A.forEach((row, i) => {
       let sum = 0;
       for (let j = 0; j < row.length; j++) {
@@ -142,12 +144,13 @@ function balanced(ss: StateSpace): Balanced {
         I.push(i);
         J.push(j);
         V.push(v);
-        kl = Math.max(kl, i - j);
-        ku = Math.max(ku, j - i);
       }
       rate = Math.max(rate, sum);
     });
-    b = { d, rate, entries: { i: Int32Array.from(I), j: Int32Array.from(J), v: Float64Array.from(V) }, kl, ku };
+    const { pos, kl, ku } = bandOrder(ss.n, I, J);
+    const ri = Int32Array.from(I, (i) => pos[i]);
+    const rj = Int32Array.from(J, (j) => pos[j]);
+    b = { d, rate, entries: { i: ri, j: rj, v: Float64Array.from(V) }, pos, kl, ku };
     balancedOf.set(ss, b);
   }
   return b;
