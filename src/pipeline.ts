@@ -4,6 +4,7 @@ import { MAX_STATES } from './circuit/limits.js';
 import { describeStructure } from './circuit/structure.js';
 import { InputError } from './diagnostics.js';
 import { computeMetrics } from './measure/metrics.js';
+import { releaseTables } from './measure/sweep.js';
 import { ReductionError } from './model/build.js';
 import type { RunResult } from './simulate/result.js';
 import { simulate } from './simulate/run.js';
@@ -50,6 +51,8 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     paths: s.paths,
     metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold, events),
   }));
+  // (the watches' measurements shared their power tables through the sample times)
+  releaseTables(sim.times);
   return {
     circuit,
     states: sim.states,

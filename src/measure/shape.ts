@@ -6,7 +6,7 @@ import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, gr
 import { geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
 import { type Clipped, clipTable, sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
-import { Sweeper, uniformStep } from './sweep.js';
+import { Sweeper, sharedTables, uniformStep } from './sweep.js';
 import type { Track } from './track.js';
 
 /**
@@ -152,7 +152,7 @@ export function maxSlope(
       upper[i] = a >= 0 ? Math.min(groupsBound(D1, a, b), v + Math.abs(groupsValue(D2, a)) * w + (groupsBound(D3, a, b) * w * w) / 2) : Infinity;
     }
   }
-  const sweeper = new Sweeper();
+  const sweeper = new Sweeper(sharedTables(extra));
   const extraStep = extra ? uniformStep(extra) : NaN;
   const cut = reached / (1 + TIE) ** 2;
   let best: { value: number; time: number } | null = null;

@@ -50,6 +50,24 @@ export class PowerTables {
   }
 }
 
+// A table depends on (κ, h) alone, and the measurements of one run search the same modes on the
+// same grids (every watch's track and slope search, over the same sample times): they share
+// their tables through the sample-time array, until the run lets go of them (releaseTables)
+const sharedByKey = new WeakMap<object, PowerTables>();
+
+/** The power tables shared by the measurements keyed by `key` (the run's sample times). */
+export function sharedTables(key: object | undefined): PowerTables {
+  if (!key) return new PowerTables();
+  let t = sharedByKey.get(key);
+  if (!t) sharedByKey.set(key, (t = new PowerTables()));
+  return t;
+}
+
+/** Drops the tables shared under `key` (their memory: a 1000-state run holds about 10 MB). */
+export function releaseTables(key: object): void {
+  sharedByKey.delete(key);
+}
+
 /** Per-group data of a sweep: log-size of each channel's coefficients, to skip negligible groups. */
 interface Prep {
   /** per channel and group: log of Σ|c_k| (−Infinity when zero) */
@@ -128,7 +146,7 @@ function room(a: Float64Array<ArrayBuffer> | undefined, n: number): Float64Array
  * ts[0 … count−1] and vals[c][0 … count−1], valid until the next call.
  */
 export class Sweeper {
-  readonly tables = new PowerTables();
+  constructor(readonly tables = new PowerTables()) {}
   ts = new Float64Array(64);
   vals = [new Float64Array(64), new Float64Array(64)];
   private uT = new Float64Array(64);

@@ -4,7 +4,7 @@ import { maxOmega, pieceValue } from './evaluate.js';
 import { uniformIntervals } from './peak.js';
 import { type Clipped, clipTable, sameEnd } from './repeat.js';
 import { findRoot } from './root.js';
-import { Sweeper, uniformStep } from './sweep.js';
+import { Sweeper, sharedTables, uniformStep } from './sweep.js';
 
 /**
  * A signal prepared for measurement: a list of continuous stretches (one per piece of the closed
@@ -149,7 +149,7 @@ export function buildTrack(times: Float64Array, values: Float64Array, pieces: re
     buf,
     times,
     step: uniformStep(times),
-    sweeper: new Sweeper(),
+    sweeper: new Sweeper(sharedTables(times)),
     G: emptyGroups(),
     D: emptyGroups(),
     D2: emptyGroups(),

@@ -28,22 +28,35 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       // beside 10 s, has pivots 1e13 apart without being anywhere near singular, while a zero
       // mode stays a round-off pivot (or an empty row) after scaling
       const n = ss.n;
-      const rs = ss.A.map((row) => pow2Inverse(row.reduce((m, v) => Math.max(m, Math.abs(v)), 0)));
-      const S = ss.A.map((row, i) => row.map((v) => v * rs[i]));
-      const cs = Array.from({ length: n }, (_, j) => pow2Inverse(S.reduce((m, row) => Math.max(m, Math.abs(row[j])), 0)));
-      for (const row of S) for (let j = 0; j < n; j++) row[j] *= cs[j];
+      // (on the nonzeros: a 1000-state mesh has 3000 of them, not 10⁶)
+      const I: number[] = [];
+      const J: number[] = [];
+      const V: number[] = [];
+      const rs = new Array<number>(n);
+      for (let i = 0; i < n; i++) {
+        const row = ss.A[i];
+        let m = 0;
+        for (let j = 0; j < n; j++) {
+          const v = row[j];
+          if (v === 0) continue;
+          I.push(i);
+          J.push(j);
+          V.push(v);
+          m = Math.max(m, Math.abs(v));
+        }
+        rs[i] = pow2Inverse(m);
+      }
+      const colMax = new Array<number>(n).fill(0);
+      for (let q = 0; q < I.length; q++) {
+        V[q] *= rs[I[q]];
+        colMax[J[q]] = Math.max(colMax[J[q]], Math.abs(V[q]));
+      }
+      const cs = colMax.map(pow2Inverse);
       if (rs.some((x) => !Number.isFinite(x)) || cs.some((x) => !Number.isFinite(x))) throw new Error('no DC operating point');
+      for (let q = 0; q < I.length; q++) V[q] *= cs[J[q]];
       // one LU with partial pivoting (one O(n³) factorization at most, not two): S·y = R·B·u,
       // ξ = −C·y. Above 32 states the states are renumbered to narrow the band first (a mesh's
       // A is sparse; band-order.ts); small circuits keep their own order
-      const I: number[] = [];
-      const J: number[] = [];
-      S.forEach((row, i) => row.forEach((v, j) => {
-        if (v !== 0) {
-          I.push(i);
-          J.push(j);
-        }
-      }));
       const ord = n > 32 ? bandOrder(n, I, J) : null;
       const pos = ord ? ord.pos : Int32Array.from({ length: n }, (_, i) => i);
       let kl = 0;
@@ -53,7 +66,7 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
         ku = Math.max(ku, pos[J[q]] - pos[I[q]]);
       }
       const M = bandMatrix(n, kl, ku);
-      for (let q = 0; q < I.length; q++) M.a[M.off[pos[I[q]]] + pos[J[q]]] = S[I[q]][J[q]];
+      for (let q = 0; q < I.length; q++) M.a[M.off[pos[I[q]]] + pos[J[q]]] = V[q];
       const f = bandFactor(M);
       let minPivot = Infinity;
       let maxPivot = 0;
@@ -69,7 +82,9 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       const xi = Array.from({ length: n }, (_, j) => -y[pos[j]] * cs[j]);
       for (const st of model.storage) {
         const r = st.readout;
-        const v = r.C.reduce((s, cc, i) => s + cc * xi[i], 0) + r.D.reduce((s, d, j) => s + d * u[j], 0);
+        let v = 0;
+        for (let i = 0; i < n; i++) v += r.C[i] * xi[i];
+        v += r.D.reduce((s, d, j) => s + d * u[j], 0);
         values.set(st.part.name, v);
       }
     } catch {
