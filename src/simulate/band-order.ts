@@ -1,10 +1,12 @@
+import type { StateSpace } from '../model/state-space.js';
+
 /**
  * A symmetric renumbering of a sparse matrix's rows and columns that narrows its band: reverse
- * Cuthill–McKee (breadth-first from a pseudo-peripheral vertex, neighbours by increasing degree,
- * the order reversed; a textbook method, from memory). A random RLC mesh's state matrix has about
- * three nonzeros per row scattered over the whole width; renumbered, its band is a sixth of n at
- * 1000 states, so an LU within the band (pivoting and all) costs about a quarter of the dense one.
- * The renumbering only moves entries: a permuted matrix P·M·Pᵀ is factored, no value changes.
+ * Cuthill–McKee (breadth-first, neighbours by increasing degree, the order reversed; a textbook
+ * method, from memory), from the start of several tried that gives the cheapest band. A random
+ * RLC mesh's state matrix has about three nonzeros per row scattered over the whole width;
+ * renumbered, its band is about a sixth of n at 1000 states, so an LU within the band (pivoting
+ * and all) costs a fifth of the dense one. Only entries move: P·M·Pᵀ is factored, no value changes.
  */
 export interface BandOrder {
   /** new index → old */
@@ -16,9 +18,12 @@ export interface BandOrder {
   ku: number;
 }
 
+/** how many starting vertices are tried */
+const STARTS = 16;
+
 /**
  * The renumbering of the n×n pattern given by its nonzeros (rows I, columns J), or the identity
- * when it does not narrow the band (kl + ku).
+ * when it does not make the band cheaper to factor.
  */
 export function bandOrder(n: number, I: ArrayLike<number>, J: ArrayLike<number>): BandOrder {
   let kl0 = 0;
@@ -51,10 +56,8 @@ export function bandOrder(n: number, I: ArrayLike<number>, J: ArrayLike<number>)
     adj[fill[i]!++] = j;
     adj[fill[j]!++] = i;
   }
-  const order = new Int32Array(n);
   const level = new Int32Array(n).fill(-1);
   const placed = new Uint8Array(n);
-  let count = 0;
   // breadth-first levels from r over the unplaced vertices, into `queue` (from `at`); returns the end
   const bfs = (r: number, queue: Int32Array, at: number, sortByDegree: boolean): number => {
     let head = at;
@@ -75,10 +78,9 @@ export function bandOrder(n: number, I: ArrayLike<number>, J: ArrayLike<number>)
     return tail;
   };
   const scratch = new Int32Array(n);
-  for (let seed = 0; seed < n; seed++) {
-    if (placed[seed]) continue;
-    // a pseudo-peripheral vertex of seed's component: restart from the end of the deepest level
-    // until the depth stops growing
+  // a pseudo-peripheral vertex of seed's component: restart from the end of the deepest level
+  // until the depth stops growing
+  const peripheral = (seed: number): number => {
     let r = seed;
     let depth = -1;
     for (let tries = 0; tries < 8; tries++) {
@@ -94,21 +96,66 @@ export function bandOrder(n: number, I: ArrayLike<number>, J: ArrayLike<number>)
       depth = last;
       r = best;
     }
-    const end = bfs(r, order, count, true);
-    for (let k = count; k < end; k++) {
-      placed[order[k]!] = 1;
-      level[order[k]!] = -1;
+    return r;
+  };
+  // the reversed breadth-first order from `first` (then the other components, each from a
+  // pseudo-peripheral vertex)
+  const orderFrom = (first: number): Int32Array => {
+    placed.fill(0);
+    const order = new Int32Array(n);
+    let count = 0;
+    for (let seed = -1; seed < n; seed++) {
+      const s = seed < 0 ? first : seed;
+      if (placed[s]) continue;
+      const end = bfs(seed < 0 ? first : peripheral(s), order, count, true);
+      for (let k = count; k < end; k++) {
+        placed[order[k]!] = 1;
+        level[order[k]!] = -1;
+      }
+      count = end;
     }
-    count = end;
+    return order.reverse();
+  };
+  // an LU within the band costs about n·kl·(kl + ku): the band of a random mesh depends much on
+  // where the search starts (a pseudo-peripheral vertex is no better than the median there), so
+  // several starts are tried and the cheapest kept (each O(nonzeros))
+  const cost = (kl: number, ku: number) => kl * (kl + ku + 1);
+  let best: BandOrder | null = null;
+  const starts = new Set([peripheral(0)]);
+  for (let k = 0; k < STARTS; k++) starts.add(Math.floor((k * n) / STARTS));
+  for (const first of starts) {
+    const order = orderFrom(first);
+    const pos = new Int32Array(n);
+    for (let k = 0; k < n; k++) pos[order[k]!] = k;
+    let kl = 0;
+    let ku = 0;
+    for (let q = 0; q < I.length; q++) {
+      kl = Math.max(kl, pos[I[q]!]! - pos[J[q]!]!);
+      ku = Math.max(ku, pos[J[q]!]! - pos[I[q]!]!);
+    }
+    if (!best || cost(kl, ku) < cost(best.kl, best.ku)) best = { order, pos, kl, ku };
   }
-  order.reverse();
-  const pos = new Int32Array(n);
-  for (let k = 0; k < n; k++) pos[order[k]!] = k;
-  let kl = 0;
-  let ku = 0;
-  for (let q = 0; q < I.length; q++) {
-    kl = Math.max(kl, pos[I[q]!]! - pos[J[q]!]!);
-    ku = Math.max(ku, pos[J[q]!]! - pos[I[q]!]!);
+  return best && cost(best.kl, best.ku) < cost(kl0, ku0) ? best : identity();
+}
+
+// the cross-check and the settled start factor matrices of the same pattern: renumbered once per model
+const orderOf = new WeakMap<StateSpace, BandOrder>();
+
+/** bandOrder of the state matrix's nonzero pattern, once per model. */
+export function stateOrder(ss: StateSpace): BandOrder {
+  let o = orderOf.get(ss);
+  if (!o) {
+    const I: number[] = [];
+    const J: number[] = [];
+    ss.A.forEach((row, i) => {
+      for (let j = 0; j < row.length; j++) {
+        if (row[j] === 0) continue;
+        I.push(i);
+        J.push(j);
+      }
+    });
+    o = bandOrder(ss.n, I, J);
+    orderOf.set(ss, o);
   }
-  return kl + ku < kl0 + ku0 ? { order, pos, kl, ku } : identity();
+  return o;
 }

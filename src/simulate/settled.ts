@@ -1,7 +1,7 @@
 import type { Circuit } from '../circuit/circuit.js';
 import type { Model } from '../model/build.js';
 import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
-import { bandOrder } from './band-order.js';
+import { stateOrder } from './band-order.js';
 import type { Waveform } from '../circuit/circuit.js';
 import { valueLeftOf } from '../waveform/schedule.js';
 
@@ -57,7 +57,7 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       // one LU with partial pivoting (one O(n³) factorization at most, not two): S·y = R·B·u,
       // ξ = −C·y. Above 32 states the states are renumbered to narrow the band first (a mesh's
       // A is sparse; band-order.ts); small circuits keep their own order
-      const ord = n > 32 ? bandOrder(n, I, J) : null;
+      const ord = n > 32 ? stateOrder(ss) : null;
       const pos = ord ? ord.pos : Int32Array.from({ length: n }, (_, i) => i);
       let kl = 0;
       let ku = 0;

@@ -2,7 +2,7 @@ import type { Readout, StateSpace } from '../model/state-space.js';
 import type { Vec } from '../linalg/dense.js';
 import { balanceScale } from '../linalg/balance.js';
 import { bandFactor, bandMatrix, bandSolve } from '../linalg/band.js';
-import { bandOrder } from './band-order.js';
+import { stateOrder } from './band-order.js';
 import { powerExpIntegral } from '../lti/integrate.js';
 import type { Component } from '../waveform/component.js';
 import type { InputSchedule } from '../waveform/schedule.js';
@@ -61,6 +61,8 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
   const absErr = readouts.map(() => 0);
   const { d, entries, kl, ku, pos } = balanced(ss);
   const inner = schedule.diracs.filter((x) => x.t > a && x.t < b);
+  // one band storage for every s (refilled: the factorization overwrites it)
+  const M = n ? bandMatrix(n, kl, ku) : null;
   for (const s of weights) {
     const U = transformInputs(schedule.intervals, m, a, s, 'components');
     const dU = transformInputs(schedule.intervals, m, a, s, 'slopes');
@@ -82,11 +84,11 @@ export function transformCheck(e: EpochData, weights: number[]): TransformCheckR
         rhs[pos[i]] = r / d[i];
       }
       // sI − D⁻¹AD in band storage (O(n) for a ladder), from the nonzeros gathered once
-      const M = bandMatrix(n, kl, ku);
-      const { a, off } = M;
+      const { a, off } = M!;
+      a.fill(0);
       for (let q = 0; q < entries.i.length; q++) a[off[entries.i[q]] + entries.j[q]] = -entries.v[q];
       for (let i = 0; i < n; i++) a[off[i] + i] += s;
-      const f = bandFactor(M);
+      const f = bandFactor(M!);
       if (f.singular) throw new Error(`transform check: sI − A is singular at s = ${s}`);
       const y = bandSolve(f, rhs);
       X = new Array<number>(n);
@@ -147,9 +149,15 @@ function balanced(ss: StateSpace): Balanced {
       }
       rate = Math.max(rate, sum);
     });
-    const { pos, kl, ku } = bandOrder(ss.n, I, J);
+    const { pos } = stateOrder(ss);
     const ri = Int32Array.from(I, (i) => pos[i]);
     const rj = Int32Array.from(J, (j) => pos[j]);
+    let kl = 0;
+    let ku = 0;
+    for (let q = 0; q < ri.length; q++) {
+      kl = Math.max(kl, ri[q] - rj[q]);
+      ku = Math.max(ku, rj[q] - ri[q]);
+    }
     b = { d, rate, entries: { i: ri, j: rj, v: Float64Array.from(V) }, pos, kl, ku };
     balancedOf.set(ss, b);
   }
