@@ -275,20 +275,26 @@ function selfAdjointWeights(A: Mat): number[] | null {
  */
 function weightedInverse(w2: number[], W: Mat, cols: number[][]): { apply: (X: Mat) => Mat; err: number } | null {
   const n = W.length;
-  // G_b = W_bᵀ·M·W_b, row by row of W (contiguous), each entry summed in row order
-  const Gs = cols.map((index) => index.map(() => new Array<number>(index.length).fill(0)));
+  // G_b = W_bᵀ·M·W_b, row by row of W (contiguous), each entry summed in row order (into one
+  // flat array, block after block: no closure per row and block)
+  const nb = cols.length;
+  const at = new Int32Array(nb + 1);
+  for (let b = 0; b < nb; b++) at[b + 1] = at[b] + cols[b].length * cols[b].length;
+  const flat = new Float64Array(at[nb]);
   for (let k = 0; k < n; k++) {
     const row = W[k];
     const wk = w2[k];
-    cols.forEach((index, b) => {
-      const G = Gs[b];
-      for (let a = 0; a < index.length; a++) {
+    for (let b = 0; b < nb; b++) {
+      const index = cols[b];
+      const len = index.length;
+      let o = at[b];
+      for (let a = 0; a < len; a++) {
         const t = row[index[a]] * wk;
-        const Ga = G[a];
-        for (let q = 0; q < index.length; q++) Ga[q] += t * row[index[q]];
+        for (let q = 0; q < len; q++) flat[o++] += t * row[index[q]];
       }
-    });
+    }
   }
+  const Gs = cols.map((index, b) => index.map((_, a) => Array.from(flat.subarray(at[b] + a * index.length, at[b] + (a + 1) * index.length))));
   const invs: Mat[] = [];
   for (const [b, index] of cols.entries()) {
     const G = Gs[b];

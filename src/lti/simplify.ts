@@ -6,23 +6,26 @@ import type { Term } from '../simulate/result.js';
  * (a constant or e^(λt), a damped cosine/sine, a polynomial times e^(λt), or the general form).
  */
 export function simplifyTerms(terms: Term[]): Term[] {
-  const groups = new Map<string, { sigma: number; omega: number; cos: number[]; sin: number[] }>();
-  const order: string[] = [];
+  type Group = { sigma: number; omega: number; cos: number[]; sin: number[] };
+  // by σ, then ω (number keys: no string per term for the thousands of terms of a large circuit;
+  // the same grouping, 0 and −0 together)
+  const groups = new Map<number, Map<number, Group>>();
+  const order: Group[] = [];
   for (const t of terms) {
     const q = asQuasi(t);
-    const key = `${q.sigma}|${q.omega}`;
-    let g = groups.get(key);
+    let bySigma = groups.get(q.sigma);
+    if (!bySigma) groups.set(q.sigma, (bySigma = new Map()));
+    let g = bySigma.get(q.omega);
     if (!g) {
       g = { sigma: q.sigma, omega: q.omega, cos: [], sin: [] };
-      groups.set(key, g);
-      order.push(key);
+      bySigma.set(q.omega, g);
+      order.push(g);
     }
     q.cos.forEach((v, k) => (g!.cos[k] = (g!.cos[k] ?? 0) + v));
     q.sin.forEach((v, k) => (g!.sin[k] = (g!.sin[k] ?? 0) + v));
   }
   const out: Term[] = [];
-  for (const key of order) {
-    const g = groups.get(key)!;
+  for (const g of order) {
     const cos = trim(Array.from(g.cos, (v) => v ?? 0));
     const sin = g.omega === 0 ? [] : trim(Array.from(g.sin, (v) => v ?? 0));
     if (cos.length === 0 && sin.length === 0) continue;
@@ -39,9 +42,11 @@ export function simplifyTerms(terms: Term[]): Term[] {
 }
 
 function rank(t: Term): number {
-  const q = asQuasi(t);
-  if (q.sigma === 0 && q.omega === 0) return -Infinity;
-  return -q.sigma;
+  // (no object per comparison)
+  const sigma = t.kind === 'exp' || t.kind === 'poly-exp' ? t.lambda : t.sigma;
+  const omega = t.kind === 'exp' || t.kind === 'poly-exp' ? 0 : t.omega;
+  if (sigma === 0 && omega === 0) return -Infinity;
+  return -sigma;
 }
 
 function asQuasi(t: Term): { sigma: number; omega: number; cos: number[]; sin: number[] } {
