@@ -111,10 +111,15 @@ export function solveExact(ss: StateSpace, modal: Modal, readouts: Readout[], sc
       const r = readouts[w];
       // the shape's terms are shared by its pieces (never changed: addFree replaces what it merges into)
       const terms = shape.readoutTerms[w].slice();
+      // (a large circuit looks its terms up by exponent: a scan per block is O(n²) per interval)
+      const at = nb > INDEXED ? new TermIndex(terms) : null;
       for (let k = 0; k < nb; k++) {
         const eta = etas[k];
-        if (eta) addFree(terms, modeSets[k]!, outModes[w][k]!, eta);
-        else terms.push(...blockSolutionTerms(modal.blocks[k], { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, pick(gammas[w], modal.blocks[k]), tau));
+        if (eta) addFree(terms, modeSets[k]!, outModes[w][k]!, eta, at);
+        else {
+          terms.push(...blockSolutionTerms(modal.blocks[k], { quasi: [], clusterFree: clusterSols[k]!.clusterFree }, pick(gammas[w], modal.blocks[k]), tau));
+          at?.update();
+        }
       }
       let impulseArea = 0;
       if (dirac) impulseArea += dot(r.D, dirac);
@@ -169,19 +174,63 @@ function dotRC(g: Vec, v: C[]): C {
   return { re, im };
 }
 
+/** above this many blocks addFree finds a term of the same exponent through a TermIndex */
+const INDEXED = 16;
+
+/**
+ * Where the first 'exp' term of each λ and the first 'osc' term of each (σ, ω) of a growing term
+ * list sit: the same term a scan from the start finds (a term is only replaced by one of its own
+ * kind and exponent, or appended; NaN exponents match nothing, as with ===).
+ */
+class TermIndex {
+  private readonly exps = new Map<number, number>();
+  private readonly oscs = new Map<number, Map<number, number>>();
+  private seen = 0;
+  constructor(private readonly terms: Term[]) {
+    this.update();
+  }
+
+  /** takes in the terms appended since the last call */
+  update(): void {
+    const { terms } = this;
+    for (; this.seen < terms.length; this.seen++) {
+      const t = terms[this.seen];
+      if (t.kind === 'exp') {
+        if (!Number.isNaN(t.lambda) && !this.exps.has(t.lambda)) this.exps.set(t.lambda, this.seen);
+      } else if (t.kind === 'osc' && !Number.isNaN(t.sigma) && !Number.isNaN(t.omega)) {
+        let m = this.oscs.get(t.sigma);
+        if (!m) this.oscs.set(t.sigma, (m = new Map()));
+        if (!m.has(t.omega)) m.set(t.omega, this.seen);
+      }
+    }
+  }
+
+  exp(lambda: number): number {
+    return this.exps.get(lambda) ?? this.terms.length;
+  }
+
+  osc(sigma: number, omega: number): number {
+    return this.oscs.get(sigma)?.get(omega) ?? this.terms.length;
+  }
+}
+
 /**
  * Add the free response Re[Σ_ℓ (γ·v_ℓ)·η_ℓ·e^(λ_ℓ τ)] of one block to a term list, merging with a
  * term of the same exponent when there is one. A conjugate pair becomes one damped cosine/sine.
  */
-function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
+function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[], index: TermIndex | null): void {
   if (modes.length === 1) {
     const coef = out[0].re * eta[0].re - out[0].im * eta[0].im;
     const lambda = modes[0].lambda.re;
     let at = 0;
-    while (at < terms.length && !(terms[at].kind === 'exp' && (terms[at] as { lambda: number }).lambda === lambda)) at++;
+    if (index) at = index.exp(lambda);
+    else while (at < terms.length && !(terms[at].kind === 'exp' && (terms[at] as { lambda: number }).lambda === lambda)) at++;
     const same = terms[at];
     if (same && same.kind === 'exp') terms[at] = { kind: 'exp', lambda, coef: same.coef + coef };
-    else terms.push({ kind: 'exp', lambda, coef });
+    else {
+      terms.push({ kind: 'exp', lambda, coef });
+      index?.update();
+    }
     return;
   }
   // Re[C1·e^(λτ)] + Re[C2·e^(λ̄τ)] = Re[(C1 + conj C2)·e^(λτ)], λ = μ + jω (ω > 0 for modes[0])
@@ -192,13 +241,19 @@ function addFree(terms: Term[], modes: ScalarMode[], out: C[], eta: C[]): void {
   const sigma = modes[0].lambda.re;
   const omega = modes[0].lambda.im;
   let at = 0;
-  for (; at < terms.length; at++) {
-    const t = terms[at];
-    if (t.kind === 'osc' && t.sigma === sigma && t.omega === omega) break;
+  if (index) at = index.osc(sigma, omega);
+  else {
+    for (; at < terms.length; at++) {
+      const t = terms[at];
+      if (t.kind === 'osc' && t.sigma === sigma && t.omega === omega) break;
+    }
   }
   const same = terms[at];
   if (same && same.kind === 'osc') terms[at] = { kind: 'osc', sigma, omega, cosCoef: same.cosCoef + a, sinCoef: same.sinCoef - b };
-  else terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });
+  else {
+    terms.push({ kind: 'osc', sigma, omega, cosCoef: a, sinCoef: -b });
+    index?.update();
+  }
 }
 
 interface Shape {
