@@ -59,6 +59,8 @@ export interface EigFlatResult {
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
+import { accumulateRows, applyLeft, backTransformRange, hessenbergCols, hessenbergRows, hessenbergTop, reflect3, rotatePair } from './threads/kernels.js';
+import { HelperFailed, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
 import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 import { tridiagonalVectors } from './tridiagonal-vectors.js';
@@ -71,6 +73,8 @@ const SYMMETRIC_TOL = 1e-13;
 const INVERSE_ITERATION_MIN = 16;
 // eigenvalues closer than this fraction of ‖H‖ count as repeated (see wellSeparated)
 const SEPARATION = 1e-8;
+// from this size on the dense path uses the helper thread (threads/helper.ts)
+const THREADS_MIN = 120;
 
 /** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
 export function eig(A: number[][]): EigResult {
@@ -89,12 +93,14 @@ export function eig(A: number[][]): EigResult {
  * The same on a row-major Float64Array; `a` is overwritten. Throws when an entry is not finite or
  * the QR iteration fails to converge. Options (for tests and comparisons): balance: false skips
  * the balancing; structured: false forces the dense Schur-form path; inverseIteration: false
- * keeps ladders on the Schur-form path; aed: false turns off aggressive early deflation.
+ * keeps ladders on the Schur-form path; aed: false turns off aggressive early deflation; threads:
+ * false keeps the dense path on one thread, true uses the helper thread whatever the size (the
+ * results are the same bit for bit).
  */
 export function eigFlat(
   a: Float64Array,
   n: number,
-  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean; aed?: boolean } = {},
+  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean; aed?: boolean; threads?: boolean } = {},
 ): EigFlatResult {
   if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
   for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
@@ -119,11 +125,28 @@ export function eigFlat(
       return { n, re, im, V };
     }
   }
+  if (!order && helperWanted(n, THREADS_MIN, opts.threads)) {
+    const session = Session.open(n);
+    if (session) {
+      try {
+        return eigWithHelper(a, n, opts, session);
+      } catch (err) {
+        // the helper failed: start over on one thread (a is untouched: the helper works on a copy)
+        if (!(err instanceof HelperFailed)) throw err;
+        return eigFlat(a, n, { ...opts, threads: false });
+      } finally {
+        session.close();
+      }
+    }
+  }
+  // every array of the Schur-form path lives in shared memory, also on one thread: V8 compiles
+  // the loops for one kind of backing store; mixing both made them 2× slower (measured)
+  a = sharedCopy(a);
   const scale = new Float64Array(n).fill(1);
   if (opts.balance !== false) balance(a, n, scale);
   // The Schur / eigenvector matrix is kept transposed (vt[j*n + i] = V[i][j]) while it is built:
   // the QR sweeps combine columns of V, which are then contiguous rows of vt.
-  const vt = new Float64Array(n * n);
+  const vt = sharedF64(n * n);
   let ort: Float64Array | null = null;
   if (order) {
     // a ladder (LC, RLC): reordered along its path it is tridiagonal, hence already Hessenberg,
@@ -133,13 +156,13 @@ export function eigFlat(
       const ri = order[i] * n;
       for (let j = 0; j < n; j++) a[i * n + j] = p[ri + order[j]];
     }
-  } else ort = hessenberg(a, n);
+  } else ort = hessenberg(a, n, null);
   if (order && opts.inverseIteration !== false && n >= INVERSE_ITERATION_MIN) {
     // tridiagonal, where ladderEig declined: eigenvalues alone (QR sweeps restricted to the active
     // window), then each eigenvector by inverse iteration on the tridiagonal, O(n) apiece, instead
     // of accumulating Schur vectors (O(n³)). For a full Hessenberg matrix the two cost about the
     // same (measured), so it keeps the Schur-form path.
-    const h = a.slice();
+    const h = sharedCopy(a);
     hqr2(h, n, vt, re, im, false, true, opts.aed !== false);
     const X = wellSeparated(re, im, hessenbergNorm(a, n)) ? hessenbergEigenvectors(a, n, re, im) : null;
     if (X) {
@@ -156,10 +179,36 @@ export function eigFlat(
   if (order) {
     vt.fill(0);
     for (let i = 0; i < n; i++) vt[i * n + order[i]] = 1;
-  } else if (ort) accumulateQ(a, n, ort, vt);
+  } else if (ort) accumulateQ(a, n, ort, vt, null);
   hqr2(a, n, vt, re, im, true, true, opts.aed !== false);
-  // undo the balancing (eigenvectors of D⁻¹·A·D are D⁻¹·v, so v = D·v̂) while transposing back,
-  // in 32×32 tiles (a column-wise read of a large vt misses the cache on every entry)
+  finishVectors(vt, n, scale, V, im);
+  return { n, re, im, V };
+}
+
+/**
+ * The dense Schur-form path with the helper thread (threads/helper.ts): the same operations in
+ * the same order as the one-thread path, on shared copies of the arrays (a stays untouched).
+ */
+function eigWithHelper(a: Float64Array, n: number, opts: { balance?: boolean; aed?: boolean }, session: Session): EigFlatResult {
+  const { H, Vt } = session.job;
+  H.set(a);
+  const scale = new Float64Array(n).fill(1);
+  if (opts.balance !== false) balance(H, n, scale);
+  accumulateQ(H, n, hessenberg(H, n, session), Vt, session);
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  hqr2(H, n, Vt, re, im, true, true, opts.aed !== false, session);
+  const V = new Float64Array(n * n);
+  finishVectors(Vt, n, scale, V, im);
+  return { n, re, im, V };
+}
+
+/**
+ * V from the transposed Schur-form eigenvectors: undoes the balancing (eigenvectors of D⁻¹·A·D are
+ * D⁻¹·v, so v = D·v̂) while transposing back, in 32×32 tiles (a column-wise read of a large vt
+ * misses the cache on every entry), then scales the columns to unit norm.
+ */
+function finishVectors(vt: Float64Array, n: number, scale: Float64Array, V: Float64Array, im: Float64Array): void {
   const B = 32;
   for (let i0 = 0; i0 < n; i0 += B) {
     const i1 = Math.min(i0 + B, n);
@@ -173,7 +222,6 @@ export function eigFlat(
     }
   }
   normalizeColumns(V, n, im);
-  return { n, re, im, V };
 }
 
 /**
@@ -435,15 +483,16 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 
 /**
  * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place. Entries below the
- * subdiagonal are left holding the Householder vectors (hqr2 ignores them); the returned array
- * holds their leading entries. accumulateQ or applyQ use them afterwards.
+ * subdiagonal are left holding the reflectors (hqr2 ignores them); the returned array holds their
+ * leading entries. Each step: the reflector from column m − 1, f = uᵀ·H/h, rows m..n−1 from both
+ * sides, rows 0..m−1 from the right only (hessenbergTop: no later step reads them, so with a
+ * session the helper thread takes them, see threads/helper.ts).
  */
-function hessenberg(H: Float64Array, n: number): Float64Array {
-  const low = 0;
+function hessenberg(H: Float64Array, n: number, session: Session | null): Float64Array {
   const high = n - 1;
   const ort = new Float64Array(n);
   const f = new Float64Array(n);
-  for (let m = low + 1; m <= high - 1; m++) {
+  for (let m = 1; m <= high - 1; m++) {
     let scale = 0;
     for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
     if (scale === 0) continue;
@@ -456,225 +505,45 @@ function hessenberg(H: Float64Array, n: number): Float64Array {
     if (ort[m] > 0) g = -g;
     h -= ort[m] * g;
     ort[m] -= g;
-    // H := (I − u·uᵀ/h)·H  on rows m..high, columns m..n−1 (row-wise: f = uᵀ·H, then H −= u·f/h,
-    // the latter fused into the right product below); four rows per pass over f
-    f.fill(0, m, n);
-    let i = m;
-    for (; i + 3 <= high; i += 4) {
-      const o0 = ort[i];
-      const o1 = ort[i + 1];
-      const o2 = ort[i + 2];
-      const o3 = ort[i + 3];
-      const b0 = i * n;
-      const b1 = b0 + n;
-      const b2 = b1 + n;
-      const b3 = b2 + n;
-      for (let j = m; j < n; j++) f[j] += o0 * H[b0 + j] + o1 * H[b1 + j] + o2 * H[b2 + j] + o3 * H[b3 + j];
-    }
-    for (; i <= high; i++) {
-      const oi = ort[i];
-      const base = i * n;
-      for (let j = m; j < n; j++) f[j] += oi * H[base + j];
-    }
-    for (let j = m; j < n; j++) f[j] /= h;
-    // H := H·(I − u·uᵀ/h) on rows 0..high, columns m..high, four rows at a time; rows m..high first
-    // take the left update (H −= u·f), fused with the dot product of the right one, so that each
-    // row is read and written twice instead of three times (same operations in the same order)
-    i = 0;
-    for (; i + 3 <= high; i += 4) {
-      const b0 = i * n;
-      const b1 = b0 + n;
-      const b2 = b1 + n;
-      const b3 = b2 + n;
-      let s0 = 0;
-      let s1 = 0;
-      let s2 = 0;
-      let s3 = 0;
-      if (i + 3 < m) {
-        for (let j = m; j <= high; j++) {
-          const oj = ort[j];
-          s0 += oj * H[b0 + j];
-          s1 += oj * H[b1 + j];
-          s2 += oj * H[b2 + j];
-          s3 += oj * H[b3 + j];
-        }
-      } else {
-        // rows below m carry ort = 0 in the left update only when the block straddles m
-        const o0 = i >= m ? ort[i] : 0;
-        const o1 = i + 1 >= m ? ort[i + 1] : 0;
-        const o2 = i + 2 >= m ? ort[i + 2] : 0;
-        const o3 = ort[i + 3];
-        for (let j = m; j <= high; j++) {
-          const oj = ort[j];
-          const fj = f[j];
-          const v0 = H[b0 + j] - o0 * fj;
-          const v1 = H[b1 + j] - o1 * fj;
-          const v2 = H[b2 + j] - o2 * fj;
-          const v3 = H[b3 + j] - o3 * fj;
-          H[b0 + j] = v0;
-          H[b1 + j] = v1;
-          H[b2 + j] = v2;
-          H[b3 + j] = v3;
-          s0 += oj * v0;
-          s1 += oj * v1;
-          s2 += oj * v2;
-          s3 += oj * v3;
-        }
-      }
-      s0 /= h;
-      s1 /= h;
-      s2 /= h;
-      s3 /= h;
-      for (let j = m; j <= high; j++) {
-        const oj = ort[j];
-        H[b0 + j] -= s0 * oj;
-        H[b1 + j] -= s1 * oj;
-        H[b2 + j] -= s2 * oj;
-        H[b3 + j] -= s3 * oj;
-      }
-    }
-    for (; i <= high; i++) {
-      const base = i * n;
-      if (i >= m) {
-        const oi = ort[i];
-        for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
-      }
-      let s0 = 0;
-      for (let j = m; j <= high; j++) s0 += ort[j] * H[base + j];
-      s0 /= h;
-      for (let j = m; j <= high; j++) H[base + j] -= s0 * ort[j];
-    }
+    if (session) session.hessenbergStep(m, ort, h);
+    else hessenbergTop(H, n, m, ort, h, 0, m);
+    hessenbergCols(H, n, m, ort, f, h, m, n);
+    hessenbergRows(H, n, m, ort, f, h, m, n);
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
+  // the helper's rows 0..m−1 must be done before the QR sweeps read H
+  if (session) session.drain();
   return ort;
 }
 
 /**
- * Vt := Qᵀ (row-major), i.e. V = Q column-major, from hessenberg()'s reflectors: the rows of I
- * go through the reflectors last to first (row j is untouched by those of index m > j). The
- * reflectors are first packed contiguously; then four rows at a time meet every reflector (one
- * pass over the reflector serves four dot products and four updates).
+ * Vt := Qᵀ (row-major), i.e. V = Q column-major, from hessenberg()'s reflectors (packed first:
+ * the QR sweeps overwrite them in H), on the helper thread when there is a session.
  */
-function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Array): void {
-  X.fill(0);
-  for (let i = 0; i < n; i++) X[i * n + i] = 1;
+function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Array, session: Session | null): void {
+  const job = session ? session.job : null;
+  const offs = job ? job.offs : new Int32Array(n);
+  const hs = job ? job.hs : new Float64Array(n);
+  const u = job ? job.u : new Float64Array(Math.max((n * (n - 1)) / 2, 1));
+  packReflectors(H, n, ort, u, offs, hs);
+  if (session) session.accumulate();
+  else accumulateRows(hs, n, u, offs, X);
+}
+
+/** Packs reflector m as u_m = (ort[m], H[m+1][m−1], …, H[high][m−1]) at offs[m], and hs[m] = H[m][m−1]. */
+function packReflectors(H: Float64Array, n: number, ort: Float64Array, u: Float64Array, offs: Int32Array, hs: Float64Array): void {
   const high = n - 1;
-  // packed reflector m: u_m = (ort[m], H[m+1][m−1], …, H[high][m−1]) at offs[m]
-  const offs = new Int32Array(n);
   let total = 0;
   for (let m = 1; m <= high - 1; m++) {
     offs[m] = total;
     total += high - m + 1;
   }
-  const u = new Float64Array(total);
   for (let m = 1; m <= high - 1; m++) {
     const o = offs[m] - m;
+    hs[m] = H[m * n + m - 1];
     u[o + m] = ort[m];
     for (let i = m + 1; i <= high; i++) u[o + i] = H[i * n + m - 1];
-  }
-  for (let j0 = 0; j0 < n; j0 += 4) {
-    if (j0 + 4 <= n) accumulateBlock(H, n, u, offs, X, j0);
-    else accumulateTail(H, n, u, offs, X, j0);
-  }
-}
-
-/**
- * Rows j0..j0+3 of X through the reflectors, last to first. The update by reflector m is fused
- * with the dot products of reflector m − 1 (which read exactly the entries the update has just
- * written, plus entry m − 1): one pass over the rows per reflector instead of two, with the same
- * operations in the same order.
- */
-function accumulateBlock(H: Float64Array, n: number, u: Float64Array, offs: Int32Array, X: Float64Array, j0: number): void {
-  const high = n - 1;
-  const b0 = j0 * n;
-  const b1 = b0 + n;
-  const b2 = b1 + n;
-  const b3 = b2 + n;
-  let g0 = 0;
-  let g1 = 0;
-  let g2 = 0;
-  let g3 = 0;
-  let ready = false; // g0..g3 hold reflector m's dot products
-  for (let m = Math.min(high - 1, j0 + 3); m >= 1; m--) {
-    const hm = H[m * n + m - 1];
-    if (hm === 0) {
-      ready = false;
-      continue;
-    }
-    const o = offs[m] - m;
-    if (!ready) {
-      g0 = g1 = g2 = g3 = 0;
-      for (let i = m; i <= high; i++) {
-        const ui = u[o + i];
-        g0 += ui * X[b0 + i];
-        g1 += ui * X[b1 + i];
-        g2 += ui * X[b2 + i];
-        g3 += ui * X[b3 + i];
-      }
-    }
-    // two divisions avoid underflow
-    const den = u[o + m];
-    g0 = g0 / den / hm;
-    g1 = g1 / den / hm;
-    g2 = g2 / den / hm;
-    g3 = g3 / den / hm;
-    const p = m - 1;
-    if (p >= 1 && H[p * n + p - 1] !== 0) {
-      const q = offs[p] - p;
-      const up = u[q + p];
-      let d0 = up * X[b0 + p];
-      let d1 = up * X[b1 + p];
-      let d2 = up * X[b2 + p];
-      let d3 = up * X[b3 + p];
-      for (let i = m; i <= high; i++) {
-        const ui = u[o + i];
-        const wi = u[q + i];
-        const x0 = X[b0 + i] + g0 * ui;
-        const x1 = X[b1 + i] + g1 * ui;
-        const x2 = X[b2 + i] + g2 * ui;
-        const x3 = X[b3 + i] + g3 * ui;
-        X[b0 + i] = x0;
-        X[b1 + i] = x1;
-        X[b2 + i] = x2;
-        X[b3 + i] = x3;
-        d0 += wi * x0;
-        d1 += wi * x1;
-        d2 += wi * x2;
-        d3 += wi * x3;
-      }
-      g0 = d0;
-      g1 = d1;
-      g2 = d2;
-      g3 = d3;
-      ready = true;
-    } else {
-      for (let i = m; i <= high; i++) {
-        const ui = u[o + i];
-        X[b0 + i] += g0 * ui;
-        X[b1 + i] += g1 * ui;
-        X[b2 + i] += g2 * ui;
-        X[b3 + i] += g3 * ui;
-      }
-      ready = false;
-    }
-  }
-}
-
-/** The last rows (fewer than four), one at a time. */
-function accumulateTail(H: Float64Array, n: number, u: Float64Array, offs: Int32Array, X: Float64Array, j0: number): void {
-  const high = n - 1;
-  for (let j = j0; j < n; j++) {
-    const b = j * n;
-    for (let m = Math.min(high - 1, j); m >= 1; m--) {
-      const hm = H[m * n + m - 1];
-      if (hm === 0) continue;
-      const o = offs[m] - m;
-      let g = 0;
-      for (let i = m; i <= high; i++) g += u[o + i] * X[b + i];
-      g = g / u[o + m] / hm;
-      for (let i = m; i <= high; i++) X[b + i] += g * u[o + i];
-    }
   }
 }
 
@@ -742,8 +611,10 @@ function sweepRest(
   rq: Float64Array,
   rr: Float64Array,
   vectors: boolean,
+  pipe: Session | null,
 ): void {
-  if (vectors) {
+  if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
+  else if (vectors) {
     if (n + 1 < nn) applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
     applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
   }
@@ -840,119 +711,6 @@ function slide2(
 }
 
 /**
- * M := P_k·M (transposed: false; P = I − v·uᵀ with v = (x, y, z), u = (1, q, r)) or M := P_kᵀ·M
- * (transposed: true) on rows k..k+2, columns c0..c1, for k = m..n−1 in order. Two consecutive
- * reflectors share one pass over the columns (four rows in registers).
- */
-function applyLeft(
-  M: Float64Array,
-  nn: number,
-  c0: number,
-  c1: number,
-  m: number,
-  n: number,
-  rx: Float64Array,
-  ry: Float64Array,
-  rz: Float64Array,
-  rq: Float64Array,
-  rr: Float64Array,
-  transposed: boolean,
-): void {
-  // the product with (w0, w1, w2) forms the dot, (e0, e1, e2) scale the update
-  let k = m;
-  for (; k + 1 < n - 1; k += 2) {
-    const r0 = k * nn;
-    if (transposed) {
-      reflect4(M, r0, nn, c0, c1, rx[k], ry[k], rz[k], 1, rq[k], rr[k], rx[k + 1], ry[k + 1], rz[k + 1], 1, rq[k + 1], rr[k + 1]);
-    } else {
-      reflect4(M, r0, nn, c0, c1, 1, rq[k], rr[k], rx[k], ry[k], rz[k], 1, rq[k + 1], rr[k + 1], rx[k + 1], ry[k + 1], rz[k + 1]);
-    }
-  }
-  for (; k <= n - 1; k++) {
-    const r0 = k * nn;
-    const rows = k < n - 1 ? 3 : 2;
-    if (transposed) reflect3(M, r0, nn, c0, c1, rows, rx[k], ry[k], rz[k], 1, rq[k], rr[k]);
-    else reflect3(M, r0, nn, c0, c1, rows, 1, rq[k], rr[k], rx[k], ry[k], rz[k]);
-  }
-}
-
-/** Two reflectors on rows r0/nn … r0/nn + 3 (the second one row lower), columns c0..c1. */
-function reflect4(
-  M: Float64Array,
-  r0: number,
-  nn: number,
-  c0: number,
-  c1: number,
-  a0: number,
-  a1: number,
-  a2: number,
-  f0: number,
-  f1: number,
-  f2: number,
-  b0: number,
-  b1: number,
-  b2: number,
-  g0: number,
-  g1: number,
-  g2: number,
-): void {
-  const r1 = r0 + nn;
-  const r2 = r1 + nn;
-  const r3 = r2 + nn;
-  for (let j = c0; j <= c1; j++) {
-    let v0 = M[r0 + j];
-    let v1 = M[r1 + j];
-    let v2 = M[r2 + j];
-    let v3 = M[r3 + j];
-    const p = a0 * v0 + a1 * v1 + a2 * v2;
-    v0 -= p * f0;
-    v1 -= p * f1;
-    v2 -= p * f2;
-    const t = b0 * v1 + b1 * v2 + b2 * v3;
-    v1 -= t * g0;
-    v2 -= t * g1;
-    v3 -= t * g2;
-    M[r0 + j] = v0;
-    M[r1 + j] = v1;
-    M[r2 + j] = v2;
-    M[r3 + j] = v3;
-  }
-}
-
-/** One reflector on three rows (or two: the last reflector of a sweep) from row offset r0, columns c0..c1. */
-function reflect3(
-  M: Float64Array,
-  r0: number,
-  nn: number,
-  c0: number,
-  c1: number,
-  rows: number,
-  a0: number,
-  a1: number,
-  a2: number,
-  f0: number,
-  f1: number,
-  f2: number,
-): void {
-  const r1 = r0 + nn;
-  if (rows === 3) {
-    const r2 = r1 + nn;
-    for (let j = c0; j <= c1; j++) {
-      const p = a0 * M[r0 + j] + a1 * M[r1 + j] + a2 * M[r2 + j];
-      M[r0 + j] -= p * f0;
-      M[r1 + j] -= p * f1;
-      M[r2 + j] -= p * f2;
-    }
-  } else {
-    for (let j = c0; j <= c1; j++) {
-      const p = a0 * M[r0 + j] + a1 * M[r1 + j];
-      M[r0 + j] -= p * f0;
-      M[r1 + j] -= p * f1;
-    }
-  }
-}
-
-/**
  * The bulge chase of one Francis double-shift step on the window l..n starting at row m, with the
  * first reflector's (p, q, r) from the shifts. Records the reflectors in (rx, ry, rz, rq, rr).
  * Kept apart from hqr2 so that the optimizing compiler treats this hot loop on its own.
@@ -1038,7 +796,17 @@ function francisSweep(
  * quasi-triangular form and back-transformation V := V·X. With vectors = false only the
  * eigenvalues (d + j·e): the sweeps then keep just the active window up to date.
  */
-function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e: Float64Array, vectors = true, finish = true, aed = true): void {
+function hqr2(
+  H: Float64Array,
+  nn: number,
+  Vt: Float64Array,
+  d: Float64Array,
+  e: Float64Array,
+  vectors = true,
+  finish = true,
+  aed = true,
+  pipe: Session | null = null,
+): void {
   let n = nn - 1;
   const low = 0;
   const high = nn - 1;
@@ -1116,23 +884,17 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
         r = Math.sqrt(p * p + q * q);
         p /= r;
         q /= r;
-        for (let j = n - 1; j < (vectors ? nn : 0); j++) {
-          z = H[(n - 1) * nn + j];
-          H[(n - 1) * nn + j] = q * z + p * H[n * nn + j];
-          H[n * nn + j] = q * H[n * nn + j] - p * z;
-        }
-        for (let i = 0; i <= (vectors ? n : -1); i++) {
-          const b = i * nn;
-          z = H[b + n - 1];
-          H[b + n - 1] = q * z + p * H[b + n];
-          H[b + n] = q * H[b + n] - p * z;
-        }
-        const c0 = (n - 1) * nn;
-        const c1 = n * nn;
-        for (let i = low; i <= (vectors ? high : -1); i++) {
-          z = Vt[c0 + i];
-          Vt[c0 + i] = q * z + p * Vt[c1 + i];
-          Vt[c1 + i] = q * Vt[c1 + i] - p * z;
+        if (vectors) {
+          // rows n−1, n right of the block and Vt go to the helper when there is one
+          rotatePair(H, (n - 1) * nn, n * nn, n - 1, pipe ? n : nn - 1, p, q);
+          for (let i = 0; i <= n; i++) {
+            const b = i * nn;
+            z = H[b + n - 1];
+            H[b + n - 1] = q * z + p * H[b + n];
+            H[b + n] = q * H[b + n] - p * z;
+          }
+          if (pipe) pipe.rotate(n, p, q);
+          else rotatePair(Vt, (n - 1) * nn, n * nn, low, high, p, q);
         }
       } else {
         // complex pair
@@ -1156,7 +918,7 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
       const size = n - l + 1;
       if (useAed && size >= AED_MIN && shiftNext >= shiftCount) {
         const jw = Math.min(aedWindow(size), Math.floor((size - 1) / 3));
-        const r = aggressiveDeflation(H, nn, l, n, jw, Vt, vectors ? 0 : l, vectors, schurForm, shifts, jw >> 1);
+        const r = aggressiveDeflation(H, nn, l, n, jw, Vt, vectors ? 0 : l, vectors, schurForm, shifts, jw >> 1, pipe);
         if (!r) useAed = false;
         else {
           shiftNext = 0;
@@ -1227,13 +989,15 @@ function hqr2(H: Float64Array, nn: number, Vt: Float64Array, d: Float64Array, e:
       }
       // Double QR step on rows l..n and columns m..n (francisSweep), then the deferred rest
       francisSweep(H, nn, l, m, n, p, q, r, rx, ry, rz, rq, rr);
-      sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors);
+      sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors, pipe);
     }
   }
 
   if (!vectors || !finish) return;
+  if (pipe) pipe.drainHelping();
   backSubstitute(H, nn, d, e, norm);
-  backTransform(H, nn, Vt);
+  if (pipe) pipe.backTransform();
+  else backTransformRange(H, nn, Vt, 0, nn, new Float64Array(4 * nn));
 }
 
 /**
@@ -1427,79 +1191,6 @@ function complexStep(
       xs[4 * j + sl] /= t;
       xs[4 * j + sl + 1] /= t;
     }
-  }
-}
-
-/** V := V·X in the transposed storage (X upper triangular in H, from backSubstitute). */
-function backTransform(H: Float64Array, nn: number, Vt: Float64Array): void {
-  // Back-transformation V := V·X with X the upper triangular eigenvector matrix of the Schur form
-  // (column j of X uses rows 0..j only). In the transposed storage: Vt := Xᵀ·Vt, row j of the
-  // result = Σ_{k ≤ j} X[k][j]·(row k of Vt); going from the last row up, rows k < j are still old.
-  // Four result rows at a time, so each pass over Vt's rows serves four of them (a quarter of the
-  // memory traffic: at n = 1000, Vt does not fit in cache), two rows of Vt per pass.
-  const acc = new Float64Array(4 * nn);
-  let j = nn - 1;
-  for (; j >= 3; j -= 4) {
-    // result rows j − 3 … j in acc[0..3]; k ≤ j − 3 reaches all four
-    acc.fill(0);
-    const r0 = j - 3;
-    let k = 0;
-    for (; k + 1 <= r0; k += 2) {
-      const h0 = k * nn;
-      const h1 = h0 + nn;
-      backTransformPair(acc, Vt, nn, h0, h1, H[h0 + r0], H[h0 + r0 + 1], H[h0 + r0 + 2], H[h0 + j], H[h1 + r0], H[h1 + r0 + 1], H[h1 + r0 + 2], H[h1 + j]);
-    }
-    // the rest of the triangle, one row of Vt and one result row at a time
-    for (; k <= j; k++) {
-      const bk = k * nn;
-      for (let t = Math.max(0, k - r0); t < 4; t++) {
-        const x = H[bk + r0 + t];
-        if (x === 0) continue;
-        const o = t * nn;
-        for (let i = 0; i < nn; i++) acc[o + i] += x * Vt[bk + i];
-      }
-    }
-    Vt.set(acc, r0 * nn);
-  }
-  // the first rows, fewer than four: one at a time
-  for (; j >= 0; j--) {
-    acc.fill(0, 0, nn);
-    for (let k = 0; k <= j; k++) {
-      const x = H[k * nn + j];
-      if (x === 0) continue;
-      const bk = k * nn;
-      for (let i = 0; i < nn; i++) acc[i] += x * Vt[bk + i];
-    }
-    Vt.set(acc.subarray(0, nn), j * nn);
-  }
-}
-
-/** acc row t += a_t·(Vt row at h0) + b_t·(Vt row at h1), t = 0..3. */
-function backTransformPair(
-  acc: Float64Array,
-  Vt: Float64Array,
-  nn: number,
-  h0: number,
-  h1: number,
-  a0: number,
-  a1: number,
-  a2: number,
-  a3: number,
-  b0: number,
-  b1: number,
-  b2: number,
-  b3: number,
-): void {
-  const o1 = nn;
-  const o2 = 2 * nn;
-  const o3 = 3 * nn;
-  for (let i = 0; i < nn; i++) {
-    const v = Vt[h0 + i];
-    const w = Vt[h1 + i];
-    acc[i] += a0 * v + b0 * w;
-    acc[o1 + i] += a1 * v + b1 * w;
-    acc[o2 + i] += a2 * v + b2 * w;
-    acc[o3 + i] += a3 * v + b3 * w;
   }
 }
 

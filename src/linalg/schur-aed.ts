@@ -18,6 +18,9 @@
  * small Schur form, and supplies better shifts (measured: about half the sweeps).
  */
 
+import { leftMultiply } from './threads/kernels.js';
+import { sharedF64, type Session } from './threads/helper.js';
+
 const EPS = 2 ** -52;
 const SAFE_MIN = 2 ** -1022;
 
@@ -69,15 +72,16 @@ export function aggressiveDeflation(
   schur: SchurFn,
   shifts: Float64Array,
   maxPairs: number,
+  pipe: Session | null = null,
 ): AedOutcome | null {
   const kwtop = n - jw + 1;
   const s = kwtop > l ? H[kwtop * nn + kwtop - 1] : 0;
-  const T = new Float64Array(jw * jw);
+  const T = sharedF64(jw * jw);
   for (let i = 0; i < jw; i++) {
     const b = (kwtop + i) * nn + kwtop;
     for (let j = Math.max(i - 1, 0); j < jw; j++) T[i * jw + j] = H[b + j];
   }
-  const Ut = new Float64Array(jw * jw);
+  const Ut = sharedF64(jw * jw);
   for (let i = 0; i < jw; i++) Ut[i * jw + i] = 1;
   const d = new Float64Array(jw);
   const e = new Float64Array(jw);
@@ -134,9 +138,10 @@ export function aggressiveDeflation(
   // the rest of the similarity: rows above the window (H := H·U), columns to its right (H := Uᵀ·H)
   // and the Schur vectors (V := V·U, i.e. Vt := Uᵀ·Vt)
   if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
-  if (vectors) {
-    if (n + 1 < nn) leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw);
-    leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw);
+  if (pipe) pipe.aed(kwtop, n, Ut, jw);
+  else if (vectors) {
+    if (n + 1 < nn) leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, work(jw * (nn - n - 1)));
+    leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, work(jw * nn));
   }
   return { deflated, pairs };
 }
@@ -534,81 +539,5 @@ function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: 
       for (let k = 0; k < jw; k++) acc += row[k] * Ut[u + k];
       M[b + j] = acc;
     }
-  }
-}
-
-/**
- * Rows k0..k0+jw−1 of M, columns c0..c1: M := Uᵀ·M = Ut·M (row j of the result = Σₖ Ut[j][k]·row k),
- * four result rows per pass over two rows of M.
- */
-function leftMultiply(M: Float64Array, nn: number, k0: number, c0: number, c1: number, Ut: Float64Array, jw: number): void {
-  const width = c1 - c0 + 1;
-  const out = work(jw * width).fill(0, 0, jw * width);
-  let j = 0;
-  for (; j + 3 < jw; j += 4) {
-    const o0 = j * width;
-    const o1 = o0 + width;
-    const o2 = o1 + width;
-    const o3 = o2 + width;
-    const u0 = j * jw;
-    const u1 = u0 + jw;
-    const u2 = u1 + jw;
-    const u3 = u2 + jw;
-    let k = 0;
-    for (; k + 1 < jw; k += 2) {
-      const p0 = Ut[u0 + k];
-      const q0 = Ut[u0 + k + 1];
-      const p1 = Ut[u1 + k];
-      const q1 = Ut[u1 + k + 1];
-      const p2 = Ut[u2 + k];
-      const q2 = Ut[u2 + k + 1];
-      const p3 = Ut[u3 + k];
-      const q3 = Ut[u3 + k + 1];
-      const b0 = (k0 + k) * nn + c0;
-      const b1 = b0 + nn;
-      for (let c = 0; c < width; c++) {
-        const m0 = M[b0 + c];
-        const m1 = M[b1 + c];
-        out[o0 + c] += p0 * m0 + q0 * m1;
-        out[o1 + c] += p1 * m0 + q1 * m1;
-        out[o2 + c] += p2 * m0 + q2 * m1;
-        out[o3 + c] += p3 * m0 + q3 * m1;
-      }
-    }
-    for (; k < jw; k++) {
-      const p0 = Ut[u0 + k];
-      const p1 = Ut[u1 + k];
-      const p2 = Ut[u2 + k];
-      const p3 = Ut[u3 + k];
-      const b0 = (k0 + k) * nn + c0;
-      for (let c = 0; c < width; c++) {
-        const m0 = M[b0 + c];
-        out[o0 + c] += p0 * m0;
-        out[o1 + c] += p1 * m0;
-        out[o2 + c] += p2 * m0;
-        out[o3 + c] += p3 * m0;
-      }
-    }
-  }
-  for (; j < jw; j++) {
-    const o = j * width;
-    const u = j * jw;
-    let k = 0;
-    for (; k + 1 < jw; k += 2) {
-      const a0 = Ut[u + k];
-      const a1 = Ut[u + k + 1];
-      const b0 = (k0 + k) * nn + c0;
-      const b1 = b0 + nn;
-      for (let c = 0; c < width; c++) out[o + c] += a0 * M[b0 + c] + a1 * M[b1 + c];
-    }
-    for (; k < jw; k++) {
-      const a0 = Ut[u + k];
-      const b0 = (k0 + k) * nn + c0;
-      for (let c = 0; c < width; c++) out[o + c] += a0 * M[b0 + c];
-    }
-  }
-  for (let r = 0; r < jw; r++) {
-    const b = (k0 + r) * nn + c0;
-    for (let c = 0; c < width; c++) M[b + c] = out[r * width + c];
   }
 }

@@ -1,0 +1,524 @@
+/**
+ * The second thread of the general eigen-solver (eig.ts). The Schur-vector work never feeds back
+ * into the QR sweeps on H, so it runs beside them: the main thread records each sweep's
+ * reflectors, each window transformation of aggressive early deflation and each 2×2 standardizing
+ * rotation in a ring in shared memory; the helper applies them, in the same order, to the Schur
+ * vectors and to the columns of H right of the active window (which the sweeps never read). The
+ * main thread waits only at the end. The Hessenberg reduction and the back-transformation are
+ * split between both threads by columns or rows.
+ *
+ * Every kernel does the same operations in the same order on each entry whichever thread runs it,
+ * so the results are bit-for-bit those of one thread (tested). The helper is started lazily once
+ * per process and unref()ed; when it cannot start or fails, eig.ts falls back to one thread.
+ * RINGDOWN_THREADS=1 forces one thread.
+ *
+ * The helper's source is the text of helperLoop, hessenbergHelper, waitAtLeast and the kernels
+ * (kernels.ts): it works the same from src/ (transformed on the fly under vitest) and from dist/.
+ */
+
+import { Worker, MessageChannel, type MessagePort } from 'node:worker_threads';
+import * as kernels from './kernels.js';
+
+type Kernels = typeof kernels;
+
+/** Indices into the shared control words and operation codes (passed to the helper as data). */
+const L = {
+  JOB: 0, // job counter: the main thread increments it to start a job
+  HEAD: 1, // doubles written to the ring (monotonic within a job)
+  TAIL: 2, // doubles the helper has consumed
+  STATE: 3, // 0 starting, 1 ready, 2 failed
+  SPLIT: 4, // Vt's columns below this are the main thread's from the helper's next QR operation on
+  ACK: 5, // ring position of the first operation the helper ran with the new split (−1: none yet)
+  BT_NEXT: 6, // back-transformation: next chunk to claim
+  BT_DONE: 7, // back-transformation: chunks finished
+  OP_PAD: 0,
+  OP_END: 1,
+  OP_SWEEP: 2,
+  OP_ROT: 3,
+  OP_AED: 4,
+  OP_HSTEP: 5,
+  OP_ACCQ: 6,
+  OP_BT: 7,
+};
+type Layout = typeof L;
+
+/** The buffers of one decomposition, shared with the helper. */
+interface Job {
+  nn: number;
+  H: Float64Array;
+  Vt: Float64Array;
+  /** the packed Hessenberg reflectors (eig.ts packReflectors) */
+  u: Float64Array;
+  offs: Int32Array;
+  hs: Float64Array;
+  ring: Float64Array;
+}
+
+/**
+ * Waits until ctrl[idx] ≥ target: a short spin (the other thread is usually microseconds away),
+ * then blocking waits. False when the helper failed (state 2) or nothing changed for `patience`
+ * tenths of a second.
+ */
+export function waitAtLeast(ctrl: Int32Array, idx: number, target: number, stateIdx: number, patience: number): boolean {
+  for (let spin = 0; spin < 1000; spin++) if (Atomics.load(ctrl, idx) >= target) return true;
+  let idle = 0;
+  for (;;) {
+    const v = Atomics.load(ctrl, idx);
+    if (v >= target) return true;
+    if (Atomics.load(ctrl, stateIdx) === 2) return false;
+    if (Atomics.wait(ctrl, idx, v, 100) === 'timed-out') {
+      if (++idle > patience) return false;
+    } else idle = 0;
+  }
+}
+
+/** Scratch arrays of one thread for vectorOp and the back-transformation. */
+interface Scratch {
+  rx: Float64Array;
+  ry: Float64Array;
+  rz: Float64Array;
+  rq: Float64Array;
+  rr: Float64Array;
+  out: Float64Array;
+  acc: Float64Array;
+}
+
+export function makeScratch(nn: number): Scratch {
+  return {
+    rx: new Float64Array(nn),
+    ry: new Float64Array(nn),
+    rz: new Float64Array(nn),
+    rq: new Float64Array(nn),
+    rr: new Float64Array(nn),
+    out: new Float64Array(0),
+    acc: new Float64Array(4 * nn),
+  };
+}
+
+/**
+ * Applies the QR-phase operation at ring[pos] (a sweep, a 2×2 rotation or an AED window) to Vt's
+ * columns c0..nn−1 … c1 and, when withH, to H right of the active window. Returns its length.
+ */
+export function vectorOp(ring: Float64Array, pos: number, job: Job, c0: number, c1: number, withH: boolean, S: Scratch, K: Kernels, Lay: Layout): number {
+  const { nn, H, Vt } = job;
+  const op = ring[pos];
+  if (op === Lay.OP_SWEEP) {
+    const m = ring[pos + 1];
+    const n = ring[pos + 2];
+    const len = n - m;
+    const b = pos + 3 - m;
+    const { rx, ry, rz, rq, rr } = S;
+    for (let k = m; k < n; k++) {
+      rx[k] = ring[b + k];
+      ry[k] = ring[b + len + k];
+      rz[k] = ring[b + 2 * len + k];
+      rq[k] = ring[b + 3 * len + k];
+      rr[k] = ring[b + 4 * len + k];
+    }
+    if (withH && n + 1 < nn) K.applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
+    if (c0 <= c1) K.applyLeft(Vt, nn, c0, c1, m, n, rx, ry, rz, rq, rr, true);
+    return 3 + 5 * len;
+  }
+  if (op === Lay.OP_ROT) {
+    const n = ring[pos + 1];
+    const p = ring[pos + 2];
+    const q = ring[pos + 3];
+    if (withH && n + 1 < nn) K.rotatePair(H, (n - 1) * nn, n * nn, n + 1, nn - 1, p, q);
+    if (c0 <= c1) K.rotatePair(Vt, (n - 1) * nn, n * nn, c0, c1, p, q);
+    return 4;
+  }
+  // Lay.OP_AED
+  const kwtop = ring[pos + 1];
+  const n = ring[pos + 2];
+  const jw = ring[pos + 3];
+  const Ut = ring.subarray(pos + 4, pos + 4 + jw * jw);
+  if (S.out.length < jw * nn) S.out = new Float64Array(jw * nn);
+  if (withH && n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, S.out);
+  if (c0 <= c1) K.leftMultiply(Vt, nn, kwtop, c0, c1, Ut, jw, S.out);
+  return 4 + jw * jw;
+}
+
+/**
+ * Chunks of the back-transformation's columns, claimed one at a time by both threads (whichever
+ * is free takes the next: the split adapts to how much CPU each thread gets).
+ */
+export function backTransformChunks(job: Job, ctrl: Int32Array, width: number, chunks: number, S: Scratch, K: Kernels, Lay: Layout): void {
+  const nn = job.nn;
+  for (;;) {
+    const c = Atomics.add(ctrl, Lay.BT_NEXT, 1);
+    if (c >= chunks) return;
+    K.backTransformRange(job.H, nn, job.Vt, c * width, Math.min(nn, (c + 1) * width), S.acc);
+    Atomics.add(ctrl, Lay.BT_DONE, 1);
+    Atomics.notify(ctrl, Lay.BT_DONE);
+  }
+}
+
+/** The helper thread: waits for a job, then runs its operations from the ring until OP_END. */
+export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: MessagePort) => { message: Job } | undefined, Lay: Layout, K: Kernels): void {
+  let S = makeScratch(0);
+  let job = 0;
+  Atomics.store(ctrl, Lay.STATE, 1);
+  Atomics.notify(ctrl, Lay.STATE);
+  for (;;) {
+    Atomics.wait(ctrl, Lay.JOB, job);
+    job = Atomics.load(ctrl, Lay.JOB);
+    const msg = receive(port);
+    if (msg === undefined) continue;
+    const d = msg.message;
+    const { nn, H, Vt, ring } = d;
+    const cap = ring.length;
+    if (S.rx.length < nn) S = makeScratch(nn);
+    let tail = 0;
+    let split = 0; // Vt's columns below split are the main thread's (see Session.drain)
+    try {
+      for (;;) {
+        if (Atomics.load(ctrl, Lay.HEAD) <= tail) waitAtLeast(ctrl, Lay.HEAD, tail + 1, Lay.STATE, Infinity);
+        const pos = tail % cap;
+        const op = ring[pos];
+        if (op === Lay.OP_PAD) tail += cap - pos;
+        else if (op === Lay.OP_END) {
+          tail++;
+          Atomics.store(ctrl, Lay.TAIL, tail);
+          Atomics.notify(ctrl, Lay.TAIL);
+          break;
+        } else if (op === Lay.OP_SWEEP || op === Lay.OP_ROT || op === Lay.OP_AED) {
+          const want = Atomics.load(ctrl, Lay.SPLIT);
+          if (want !== split) {
+            split = want;
+            Atomics.store(ctrl, Lay.ACK, tail);
+            Atomics.notify(ctrl, Lay.ACK);
+          }
+          tail += vectorOp(ring, pos, d, split, nn - 1, true, S, K, Lay);
+        } else if (op === Lay.OP_HSTEP) {
+          const m = ring[pos + 1];
+          const h = ring[pos + 2];
+          const b = pos + 3 - m;
+          for (let j = m; j < nn; j++) S.rx[j] = ring[b + j];
+          K.hessenbergTop(H, nn, m, S.rx, h, 0, m);
+          tail += 3 + nn - m;
+        } else if (op === Lay.OP_ACCQ) {
+          K.accumulateRows(d.hs, nn, d.u, d.offs, Vt);
+          tail += 1;
+        } else if (op === Lay.OP_BT) {
+          backTransformChunks(d, ctrl, ring[pos + 1], ring[pos + 2], S, K, Lay);
+          tail += 3;
+        } else throw new Error('helper: unknown operation ' + op);
+        Atomics.store(ctrl, Lay.TAIL, tail);
+        Atomics.notify(ctrl, Lay.TAIL);
+      }
+    } catch {
+      Atomics.store(ctrl, Lay.STATE, 2);
+      Atomics.notify(ctrl, Lay.TAIL);
+      Atomics.notify(ctrl, Lay.BT_DONE);
+      Atomics.notify(ctrl, Lay.ACK);
+      return;
+    }
+  }
+}
+
+/** Thrown on the main thread when the helper failed mid-job; eig.ts then starts over on one thread. */
+export class HelperFailed extends Error {}
+
+// ------------------------------------------------------------------------------------------------
+// main-thread side
+// ------------------------------------------------------------------------------------------------
+
+interface Started {
+  ctrl: Int32Array;
+  port: MessagePort;
+  worker: Worker;
+}
+
+let started: Started | null = null;
+let unavailable = false;
+let jobs = 0;
+let cached: Job | null = null;
+let ringCache: Float64Array | null = null;
+
+/** Counters for tests: jobs run with the helper, and whether it is unavailable. */
+export function helperStats(): { jobs: number; unavailable: boolean } {
+  return { jobs, unavailable };
+}
+
+function source(): string {
+  const fns = [...Object.values(kernels), waitAtLeast, makeScratch, vectorOp, backTransformChunks, helperLoop].map((f) => f.toString());
+  return [
+    "'use strict';",
+    "const { workerData, receiveMessageOnPort } = require('node:worker_threads');",
+    ...fns,
+    `const K = { ${Object.keys(kernels).join(', ')} };`,
+    'helperLoop(workerData.port, workerData.ctrl, receiveMessageOnPort, workerData.L, K);',
+  ].join('\n');
+}
+
+function start(): Started | null {
+  if (started) return started;
+  if (unavailable) return null;
+  try {
+    const ctrl = new Int32Array(new SharedArrayBuffer(16 * 4));
+    const { port1, port2 } = new MessageChannel();
+    const worker = new Worker(source(), { eval: true, workerData: { port: port2, ctrl, L }, transferList: [port2] });
+    worker.unref();
+    port1.unref();
+    const fail = (): void => {
+      Atomics.store(ctrl, L.STATE, 2);
+      unavailable = true;
+      started = null;
+    };
+    worker.on('error', fail);
+    worker.on('exit', fail);
+    started = { ctrl, port: port1, worker };
+    return started;
+  } catch {
+    unavailable = true;
+    return null;
+  }
+}
+
+/** Whether the helper is to be used for an n×n matrix (force: true ignores the size threshold). */
+export function helperWanted(n: number, min: number, force: boolean | undefined): boolean {
+  if (force === false || unavailable) return false;
+  if (process.env.RINGDOWN_THREADS === '1') return false;
+  return force === true || n >= min;
+}
+
+function shared(len: number): Float64Array {
+  return new Float64Array(new SharedArrayBuffer(8 * len));
+}
+
+/**
+ * A zeroed Float64Array in shared memory. The Schur-form path allocates its matrices this way on
+ * one thread too: V8 compiles a loop for the kind of backing store it has seen, and loops fed both
+ * kinds ran about 2× slower (measured on Node 20).
+ */
+export const sharedF64 = shared;
+
+/** A copy of `a` in shared memory. */
+export function sharedCopy(a: Float64Array): Float64Array {
+  const c = shared(a.length);
+  c.set(a);
+  return c;
+}
+
+/**
+ * One decomposition's session with the helper: the shared buffers and the ring. Null when the
+ * helper cannot start.
+ */
+export class Session {
+  readonly job: Job;
+  private readonly ctrl: Int32Array;
+  private head = 0;
+  private ended = false;
+
+  static open(nn: number): Session | null {
+    const s = start();
+    if (!s) return null;
+    if (Atomics.load(s.ctrl, L.STATE) === 2) {
+      unavailable = true;
+      return null;
+    }
+    let job = cached;
+    if (!job || job.nn !== nn) {
+      const need = Math.max(1 << 18, 16 * (5 * nn + 16));
+      if (!ringCache || ringCache.length < need) ringCache = shared(need);
+      job = {
+        nn,
+        H: shared(nn * nn),
+        Vt: shared(nn * nn),
+        u: shared(Math.max((nn * (nn - 1)) / 2, 1)),
+        offs: new Int32Array(new SharedArrayBuffer(4 * nn)),
+        hs: shared(nn),
+        ring: ringCache,
+      };
+      cached = job;
+    }
+    return new Session(s, job);
+  }
+
+  private constructor(s: Started, job: Job) {
+    this.job = job;
+    this.ctrl = s.ctrl;
+    const c = this.ctrl;
+    Atomics.store(c, L.HEAD, 0);
+    Atomics.store(c, L.TAIL, 0);
+    Atomics.store(c, L.SPLIT, 0);
+    Atomics.store(c, L.ACK, -1);
+    s.port.postMessage(job);
+    Atomics.add(c, L.JOB, 1);
+    Atomics.notify(c, L.JOB);
+    jobs++;
+  }
+
+  /** Room for `len` doubles at the head of the ring (a pad fills the end when they would wrap). */
+  private reserve(len: number): number {
+    const ring = this.job.ring;
+    const cap = ring.length;
+    let pos = this.head % cap;
+    if (pos + len > cap) {
+      this.room(cap - pos);
+      ring[pos] = L.OP_PAD;
+      this.head += cap - pos;
+      pos = 0;
+    }
+    this.room(len);
+    return pos;
+  }
+
+  private room(len: number): void {
+    const cap = this.job.ring.length;
+    if (this.head + len - Atomics.load(this.ctrl, L.TAIL) > cap) this.await(L.TAIL, this.head + len - cap);
+  }
+
+  private publish(len: number): void {
+    this.head += len;
+    Atomics.store(this.ctrl, L.HEAD, this.head);
+    Atomics.notify(this.ctrl, L.HEAD);
+  }
+
+  private await(idx: number, target: number): void {
+    if (!waitAtLeast(this.ctrl, idx, target, L.STATE, 300)) {
+      unavailable = true;
+      this.ended = true;
+      throw new HelperFailed('eig: the helper thread failed');
+    }
+  }
+
+  /** The deferred part of one sweep (reflectors k = m..n−1): on H right of column n and on Vt. */
+  sweep(m: number, n: number, rx: Float64Array, ry: Float64Array, rz: Float64Array, rq: Float64Array, rr: Float64Array): void {
+    const len = n - m;
+    const size = 3 + 5 * len;
+    const pos = this.reserve(size);
+    const ring = this.job.ring;
+    ring[pos] = L.OP_SWEEP;
+    ring[pos + 1] = m;
+    ring[pos + 2] = n;
+    ring.set(rx.subarray(m, n), pos + 3);
+    ring.set(ry.subarray(m, n), pos + 3 + len);
+    ring.set(rz.subarray(m, n), pos + 3 + 2 * len);
+    ring.set(rq.subarray(m, n), pos + 3 + 3 * len);
+    ring.set(rr.subarray(m, n), pos + 3 + 4 * len);
+    this.publish(size);
+  }
+
+  /** The 2×2 standardizing rotation of rows n−1, n: on H right of column n and on Vt. */
+  rotate(n: number, p: number, q: number): void {
+    const pos = this.reserve(4);
+    const ring = this.job.ring;
+    ring[pos] = L.OP_ROT;
+    ring[pos + 1] = n;
+    ring[pos + 2] = p;
+    ring[pos + 3] = q;
+    this.publish(4);
+  }
+
+  /** An AED window transformation (Ut, jw×jw, on rows kwtop..kwtop+jw−1): on H right of column n and on Vt. */
+  aed(kwtop: number, n: number, Ut: Float64Array, jw: number): void {
+    const size = 4 + jw * jw;
+    const pos = this.reserve(size);
+    const ring = this.job.ring;
+    ring[pos] = L.OP_AED;
+    ring[pos + 1] = kwtop;
+    ring[pos + 2] = n;
+    ring[pos + 3] = jw;
+    ring.set(Ut.subarray(0, jw * jw), pos + 4);
+    this.publish(size);
+  }
+
+  /** Hessenberg step m (reflector ort[m..nn−1], P = I − u·uᵀ/h): rows 0..m−1 of H from the right, on the helper. */
+  hessenbergStep(m: number, ort: Float64Array, h: number): void {
+    const nn = this.job.nn;
+    const size = 3 + nn - m;
+    const pos = this.reserve(size);
+    const ring = this.job.ring;
+    ring[pos] = L.OP_HSTEP;
+    ring[pos + 1] = m;
+    ring[pos + 2] = h;
+    ring.set(ort.subarray(m, nn), pos + 3);
+    this.publish(size);
+  }
+
+  /** Vt := Qᵀ from the packed reflectors in job.u, job.offs, job.hs, on the helper. */
+  accumulate(): void {
+    const pos = this.reserve(1);
+    this.job.ring[pos] = L.OP_ACCQ;
+    this.publish(1);
+  }
+
+  /** Waits until the helper has applied everything queued so far. */
+  drain(): void {
+    this.await(L.TAIL, this.head);
+  }
+
+  /**
+   * The end of the QR phase: the main thread takes Vt's columns 0..split−1 of the operations the
+   * helper has not started yet (it asks for the split, the helper acknowledges at the start of
+   * its next operation), applies them from the ring, then waits for the helper.
+   */
+  drainHelping(): void {
+    const c = this.ctrl;
+    const { nn, ring } = this.job;
+    const cap = ring.length;
+    // the helper also keeps H's columns right of the window: a little more than half of Vt here
+    const split = Math.round(0.55 * nn);
+    Atomics.store(c, L.SPLIT, split);
+    let from = -1;
+    for (;;) {
+      from = Atomics.load(c, L.ACK);
+      if (from >= 0) break;
+      if (Atomics.load(c, L.TAIL) >= this.head) {
+        // finished: it may have taken the split at its last operations (ACK is stored before TAIL)
+        from = Atomics.load(c, L.ACK);
+        break;
+      }
+      if (Atomics.load(c, L.STATE) === 2) this.await(L.TAIL, this.head);
+      Atomics.wait(c, L.ACK, -1, 1);
+    }
+    if (from >= 0) {
+      const S = this.scratch();
+      const K = kernels;
+      let p = from;
+      while (p < this.head) {
+        const pos = p % cap;
+        if (ring[pos] === L.OP_PAD) p += cap - pos;
+        else p += vectorOp(ring, pos, this.job, 0, split - 1, false, S, K, L);
+      }
+    }
+    this.drain();
+    Atomics.store(c, L.SPLIT, 0);
+  }
+
+  private scratchS: Scratch | null = null;
+  private scratch(): Scratch {
+    if (!this.scratchS || this.scratchS.rx.length < this.job.nn) this.scratchS = makeScratch(this.job.nn);
+    return this.scratchS;
+  }
+
+  /** V := V·X (X in H's upper triangle) by both threads, in chunks of columns. */
+  backTransform(): void {
+    const c = this.ctrl;
+    const nn = this.job.nn;
+    const width = 64;
+    const chunks = Math.ceil(nn / width);
+    Atomics.store(c, L.BT_NEXT, 0);
+    Atomics.store(c, L.BT_DONE, 0);
+    const pos = this.reserve(3);
+    const ring = this.job.ring;
+    ring[pos] = L.OP_BT;
+    ring[pos + 1] = width;
+    ring[pos + 2] = chunks;
+    this.publish(3);
+    backTransformChunks(this.job, c, width, chunks, this.scratch(), kernels, L);
+    this.await(L.BT_DONE, chunks);
+    this.drain();
+  }
+
+  /** Ends the job and waits for the helper (also after an exception on the main thread). */
+  close(): void {
+    if (this.ended) return;
+    this.ended = true;
+    const pos = this.reserve(1);
+    this.job.ring[pos] = L.OP_END;
+    this.publish(1);
+    this.await(L.TAIL, this.head);
+  }
+}
