@@ -59,8 +59,10 @@ export interface EigFlatResult {
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
-import { accumulateRows, applyLeft, backTransformRange, hessenbergCols, hessenbergRows, hessenbergTop, reflect3, rotatePair } from './threads/kernels.js';
+import { arenaClose, arenaI32, arenaOpen, ownedBy, simdInstance } from './simd/simd.js';
+import { reflect3 } from './threads/kernels.js';
 import { HelperFailed, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
+import { mainKernels } from './threads/simd-kernels.js';
 import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 import { tridiagonalVectors } from './tridiagonal-vectors.js';
@@ -100,7 +102,7 @@ export function eig(A: number[][]): EigResult {
 export function eigFlat(
   a: Float64Array,
   n: number,
-  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean; aed?: boolean; threads?: boolean } = {},
+  opts: { balance?: boolean; structured?: boolean; inverseIteration?: boolean; aed?: boolean; threads?: boolean; simd?: boolean } = {},
 ): EigFlatResult {
   if (a.length !== n * n) throw new Error('eigFlat: array length is not n·n');
   for (let k = 0; k < a.length; k++) if (!Number.isFinite(a[k])) throw new Error('eig: matrix has a non-finite entry');
@@ -125,6 +127,32 @@ export function eigFlat(
       return { n, re, im, V };
     }
   }
+  // the dense path's arrays in the WebAssembly kernels' memory (simd/simd.ts): room for the
+  // matrix, its copies and Schur vectors, the packed reflectors, the helper's ring and scratch
+  const arena = opts.simd !== false && arenaOpen(arenaSize(n));
+  try {
+    return denseEig(a, n, opts, order, re, im, V);
+  } finally {
+    if (arena) arenaClose();
+  }
+}
+
+/** Doubles the dense path may take from the arena for an n×n matrix (see arenaOpen). */
+function arenaSize(n: number): number {
+  const rows = Math.ceil(2 * Math.sqrt(n)) + 16;
+  return Math.ceil(3.6 * n * n) + 2 * rows * (n + rows) + 200 * n + (1 << 19);
+}
+
+/** The Schur-form path (dense or ladder-ordered), on one thread or with the helper. */
+function denseEig(
+  a: Float64Array,
+  n: number,
+  opts: { balance?: boolean; inverseIteration?: boolean; aed?: boolean; threads?: boolean; simd?: boolean },
+  order: number[] | null,
+  re: Float64Array,
+  im: Float64Array,
+  V: Float64Array,
+): EigFlatResult {
   if (!order && helperWanted(n, THREADS_MIN, opts.threads)) {
     const session = Session.open(n);
     if (session) {
@@ -133,7 +161,7 @@ export function eigFlat(
       } catch (err) {
         // the helper failed: start over on one thread (a is untouched: the helper works on a copy)
         if (!(err instanceof HelperFailed)) throw err;
-        return eigFlat(a, n, { ...opts, threads: false });
+        return denseEig(a, n, { ...opts, threads: false }, order, re, im, V);
       } finally {
         session.close();
       }
@@ -490,8 +518,9 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
  */
 function hessenberg(H: Float64Array, n: number, session: Session | null): Float64Array {
   const high = n - 1;
-  const ort = new Float64Array(n);
-  const f = new Float64Array(n);
+  const K = mainKernels();
+  const ort = sharedF64(n);
+  const f = sharedF64(n);
   for (let m = 1; m <= high - 1; m++) {
     let scale = 0;
     for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
@@ -506,9 +535,9 @@ function hessenberg(H: Float64Array, n: number, session: Session | null): Float6
     h -= ort[m] * g;
     ort[m] -= g;
     if (session) session.hessenbergStep(m, ort, h);
-    else hessenbergTop(H, n, m, ort, h, 0, m);
-    hessenbergCols(H, n, m, ort, f, h, m, n);
-    hessenbergRows(H, n, m, ort, f, h, m, n);
+    else K.hessenbergTop(H, n, m, ort, h, 0, m);
+    K.hessenbergCols(H, n, m, ort, f, h, m, n);
+    K.hessenbergRows(H, n, m, ort, f, h, m, n);
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
@@ -523,12 +552,12 @@ function hessenberg(H: Float64Array, n: number, session: Session | null): Float6
  */
 function accumulateQ(H: Float64Array, n: number, ort: Float64Array, X: Float64Array, session: Session | null): void {
   const job = session ? session.job : null;
-  const offs = job ? job.offs : new Int32Array(n);
-  const hs = job ? job.hs : new Float64Array(n);
-  const u = job ? job.u : new Float64Array(Math.max((n * (n - 1)) / 2, 1));
+  const offs = job ? job.offs : (arenaI32(n) ?? new Int32Array(n));
+  const hs = job ? job.hs : sharedF64(n);
+  const u = job ? job.u : sharedF64(Math.max((n * (n - 1)) / 2, 1));
   packReflectors(H, n, ort, u, offs, hs);
   if (session) session.accumulate();
-  else accumulateRows(hs, n, u, offs, X);
+  else mainKernels().accumulateRows(hs, n, u, offs, X);
 }
 
 /** Packs reflector m as u_m = (ort[m], H[m+1][m−1], …, H[high][m−1]) at offs[m], and hs[m] = H[m][m−1]. */
@@ -615,8 +644,14 @@ function sweepRest(
 ): void {
   if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
   else if (vectors) {
-    if (n + 1 < nn) applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
-    applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
+    const K = mainKernels();
+    if (n + 1 < nn) K.applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
+    K.applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
+  }
+  const X = simdInstance();
+  if (X && ownedBy(H) && ownedBy(rx) && ownedBy(ry) && ownedBy(rz) && ownedBy(rq) && ownedBy(rr)) {
+    X.slideRows(H.byteOffset, nn, top, m, n, rx.byteOffset, ry.byteOffset, rz.byteOffset, rq.byteOffset, rr.byteOffset);
+    return;
   }
   let i = top;
   if ((n - top) % 2 === 1) {
@@ -830,11 +865,14 @@ function hqr2(
     return;
   }
   // the reflectors of the current sweep: P_k = I − (x, y, z)·(1, q, r)ᵀ on rows/columns k..k+2
-  const rx = new Float64Array(nn);
-  const ry = new Float64Array(nn);
-  const rz = new Float64Array(nn);
-  const rq = new Float64Array(nn);
-  const rr = new Float64Array(nn);
+  const rx = sharedF64(nn);
+  const ry = sharedF64(nn);
+  const rz = sharedF64(nn);
+  const rq = sharedF64(nn);
+  const rr = sharedF64(nn);
+  // the bulge chase as WebAssembly when H and the reflectors are in its memory
+  const X = simdInstance();
+  const chase = X && ownedBy(H) && ownedBy(rx) && ownedBy(ry) && ownedBy(rz) && ownedBy(rq) && ownedBy(rr) ? X : null;
   let iter = 0;
   let totalIter = 0;
   const maxTotal = MAX_ITER_PER_EIGENVALUE * Math.max(nn, 1);
@@ -886,7 +924,7 @@ function hqr2(
         q /= r;
         if (vectors) {
           // rows n−1, n right of the block and Vt go to the helper when there is one
-          rotatePair(H, (n - 1) * nn, n * nn, n - 1, pipe ? n : nn - 1, p, q);
+          mainKernels().rotatePair(H, (n - 1) * nn, n * nn, n - 1, pipe ? n : nn - 1, p, q);
           for (let i = 0; i <= n; i++) {
             const b = i * nn;
             z = H[b + n - 1];
@@ -894,7 +932,7 @@ function hqr2(
             H[b + n] = q * H[b + n] - p * z;
           }
           if (pipe) pipe.rotate(n, p, q);
-          else rotatePair(Vt, (n - 1) * nn, n * nn, low, high, p, q);
+          else mainKernels().rotatePair(Vt, (n - 1) * nn, n * nn, low, high, p, q);
         }
       } else {
         // complex pair
@@ -988,7 +1026,8 @@ function hqr2(
         if (i > m + 2) H[i * nn + i - 3] = 0;
       }
       // Double QR step on rows l..n and columns m..n (francisSweep), then the deferred rest
-      francisSweep(H, nn, l, m, n, p, q, r, rx, ry, rz, rq, rr);
+      if (chase) chase.francisSweep(H.byteOffset, nn, l, m, n, p, q, r, rx.byteOffset, ry.byteOffset, rz.byteOffset, rq.byteOffset, rr.byteOffset);
+      else francisSweep(H, nn, l, m, n, p, q, r, rx, ry, rz, rq, rr);
       sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors, pipe);
     }
   }
@@ -997,7 +1036,7 @@ function hqr2(
   if (pipe) pipe.drainHelping();
   backSubstitute(H, nn, d, e, norm);
   if (pipe) pipe.backTransform();
-  else backTransformRange(H, nn, Vt, 0, nn, new Float64Array(4 * nn));
+  else mainKernels().backTransformRange(H, nn, Vt, 0, nn, sharedF64(4 * nn));
 }
 
 /**
@@ -1011,8 +1050,11 @@ function hqr2(
  * its solved range.
  */
 function backSubstitute(H: Float64Array, nn: number, d: Float64Array, e: Float64Array, norm: number): void {
-  const xs = new Float64Array(4 * nn); // xs[4·j + slot]: entry j of the vector in slot
-  const dots = new Float64Array(4);
+  const xs = sharedF64(4 * nn); // xs[4·j + slot]: entry j of the vector in slot
+  const dots = sharedF64(4);
+  // the dot products as WebAssembly vectors when the arrays are in its memory (same running sums)
+  const X = simdInstance();
+  const k = X && ownedBy(H) && ownedBy(xs) && ownedBy(dots) ? X : null;
   const sz = new Float64Array(4); // per slot: w, r, s saved at the lower row of a 2×2 block
   const sr = new Float64Array(4);
   const ss = new Float64Array(4);
@@ -1044,22 +1086,8 @@ function backSubstitute(H: Float64Array, nn: number, d: Float64Array, e: Float64
     }
     for (let i = hi - 1; i >= 0; i--) {
       const bi = i * nn;
-      let a0 = 0;
-      let a1 = 0;
-      let a2 = 0;
-      let a3 = 0;
-      for (let j = i + 1; j <= hi; j++) {
-        const h = H[bi + j];
-        const o = 4 * j;
-        a0 += h * xs[o];
-        a1 += h * xs[o + 1];
-        a2 += h * xs[o + 2];
-        a3 += h * xs[o + 3];
-      }
-      dots[0] = a0;
-      dots[1] = a1;
-      dots[2] = a2;
-      dots[3] = a3;
+      if (k) k.dots4i(H.byteOffset + 8 * (bi + i + 1), xs.byteOffset + 32 * (i + 1), hi - i, dots.byteOffset);
+      else backDots(H, bi, i, hi, xs, dots);
       for (let c = lo; c <= hi; c++) {
         if (e[c] === 0) {
           if (c > i) realStep(H, nn, d, e, norm, i, c - lo, d[c], hi, xs, dots, sz, ss);
@@ -1085,6 +1113,26 @@ function backSubstitute(H: Float64Array, nn: number, d: Float64Array, e: Float64
 }
 
 /** Row i of the real eigenvector (eigenvalue p) in slot sl, given its dot product dots[sl]. */
+/** dots[t] = Σ_{j = i+1..hi} H[i][j]·xs[4j + t], t = 0..3 (row i at offset bi). */
+function backDots(H: Float64Array, bi: number, i: number, hi: number, xs: Float64Array, dots: Float64Array): void {
+  let a0 = 0;
+  let a1 = 0;
+  let a2 = 0;
+  let a3 = 0;
+  for (let j = i + 1; j <= hi; j++) {
+    const h = H[bi + j];
+    const o = 4 * j;
+    a0 += h * xs[o];
+    a1 += h * xs[o + 1];
+    a2 += h * xs[o + 2];
+    a3 += h * xs[o + 3];
+  }
+  dots[0] = a0;
+  dots[1] = a1;
+  dots[2] = a2;
+  dots[3] = a3;
+}
+
 function realStep(
   H: Float64Array,
   nn: number,

@@ -18,8 +18,9 @@
  * small Schur form, and supplies better shifts (measured: about half the sweeps).
  */
 
-import { leftMultiply } from './threads/kernels.js';
+import { arenaMark, arenaRelease, ownedBy, simdInstance } from './simd/simd.js';
 import { sharedF64, type Session } from './threads/helper.js';
+import { mainKernels } from './threads/simd-kernels.js';
 
 const EPS = 2 ** -52;
 const SAFE_MIN = 2 ** -1022;
@@ -37,6 +38,15 @@ const s4b = new Float64Array(4);
 const s4c = new Float64Array(4);
 const s4d = new Float64Array(4);
 let scratch = new Float64Array(1024);
+
+/** Scratch of `len` for a product into M: from the kernels' arena when M is there (they need both). */
+function scratchFor(M: Float64Array, len: number): Float64Array {
+  if (ownedBy(M)) {
+    const a = sharedF64(len);
+    if (ownedBy(a)) return a;
+  }
+  return work(len);
+}
 
 /** A reused buffer of at least `len` entries (contents undefined). */
 function work(len: number): Float64Array {
@@ -73,6 +83,30 @@ export function aggressiveDeflation(
   shifts: Float64Array,
   maxPairs: number,
   pipe: Session | null = null,
+): AedOutcome | null {
+  // the window's arrays come from the kernels' arena when one is open: given back afterwards
+  // (the helper thread gets Ut through the ring, a copy)
+  const mark = arenaMark();
+  try {
+    return deflate(H, nn, l, n, jw, Vt, top, vectors, schur, shifts, maxPairs, pipe);
+  } finally {
+    arenaRelease(mark);
+  }
+}
+
+function deflate(
+  H: Float64Array,
+  nn: number,
+  l: number,
+  n: number,
+  jw: number,
+  Vt: Float64Array,
+  top: number,
+  vectors: boolean,
+  schur: SchurFn,
+  shifts: Float64Array,
+  maxPairs: number,
+  pipe: Session | null,
 ): AedOutcome | null {
   const kwtop = n - jw + 1;
   const s = kwtop > l ? H[kwtop * nn + kwtop - 1] : 0;
@@ -140,8 +174,9 @@ export function aggressiveDeflation(
   if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
   if (pipe) pipe.aed(kwtop, n, Ut, jw);
   else if (vectors) {
-    if (n + 1 < nn) leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, work(jw * (nn - n - 1)));
-    leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, work(jw * nn));
+    const K = mainKernels();
+    if (n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, scratchFor(H, jw * (nn - n - 1)));
+    K.leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, scratchFor(Vt, jw * nn));
   }
   return { deflated, pairs };
 }
@@ -507,6 +542,17 @@ function rotateColumns(M: Float64Array, n: number, a: number, b: number, r0: num
  * Ut, four at a time: independent sums instead of one running sum waiting on each addition).
  */
 function rightMultiply(M: Float64Array, nn: number, r0: number, r1: number, k0: number, Ut: Float64Array, jw: number): void {
+  const X = simdInstance();
+  if (X && ownedBy(M)) {
+    // the kernel wants U itself (two result columns per vector, each summed in the order below)
+    const U = sharedF64(jw * jw);
+    const row = sharedF64(jw);
+    if (ownedBy(U) && ownedBy(row)) {
+      for (let k = 0; k < jw; k++) for (let j = 0; j < jw; j++) U[k * jw + j] = Ut[j * jw + k];
+      X.rightMultiply(M.byteOffset, nn, r0, r1, k0, U.byteOffset, jw, row.byteOffset);
+      return;
+    }
+  }
   const row = work(jw);
   for (let r = r0; r <= r1; r++) {
     const b = r * nn + k0;

@@ -36,7 +36,7 @@ function flat(A: number[][]): Float64Array {
   return a;
 }
 
-function solve(A: number[][], opts: { aed?: boolean }): { re: number[]; im: number[]; V: number[][] } {
+function solve(A: number[][], opts: { aed?: boolean; simd?: boolean }): { re: number[]; im: number[]; V: number[][] } {
   const n = A.length;
   const r = eigFlat(flat(A), n, { structured: false, ...opts });
   const V = Array.from({ length: n }, (_, i) => Array.from(r.V.subarray(i * n, (i + 1) * n)));
@@ -47,9 +47,10 @@ describe(`eig with aggressive early deflation vs ${golden.source} golden data`, 
   for (const c of golden.cases) {
     const A = randomMatrix(c.n, c.seed);
     if (c.lowerScale > 0) for (let i = 0; i < c.n; i++) for (let j = 0; j < i; j++) A[i][j] *= c.lowerScale;
-    for (const aed of [true, false]) {
-      it(`random ${c.n}×${c.n} (seed ${c.seed}${c.lowerScale > 0 ? ', damped lower part' : ''}), aed ${aed}`, () => {
-        const r = solve(A, { aed });
+    // simd: the WebAssembly kernels (src/linalg/simd) or the JavaScript ones
+    for (const [aed, simd] of [[true, true], [false, true], [true, false], [false, false]]) {
+      it(`random ${c.n}×${c.n} (seed ${c.seed}${c.lowerScale > 0 ? ', damped lower part' : ''}), aed ${aed}, simd ${simd}`, () => {
+        const r = solve(A, { aed, simd });
         const tol = 1e-13 * Math.max(c.condMax, 10) * frob(A);
         expect(matchEigenvalues(pairs(r.re, r.im), pairs(c.re, c.im))).toBeLessThanOrEqual(tol);
         expect(matchEigenvalues(pairs(c.re, c.im), pairs(r.re, r.im))).toBeLessThanOrEqual(tol);

@@ -17,9 +17,13 @@
  */
 
 import { Worker, MessageChannel, type MessagePort } from 'node:worker_threads';
+import { arenaF64, arenaI32, simdShare } from '../simd/simd.js';
 import * as kernels from './kernels.js';
+import { mainKernels, makeSimdKernels } from './simd-kernels.js';
 
 type Kernels = typeof kernels;
+/** The helper's kernels: bindJob tells the WebAssembly wrappers which memory is theirs. */
+type HelperKernels = Kernels & { bindJob?: (job: Job) => void };
 
 /** Indices into the shared control words and operation codes (passed to the helper as data). */
 const L = {
@@ -52,6 +56,8 @@ interface Job {
   offs: Int32Array;
   hs: Float64Array;
   ring: Float64Array;
+  /** the helper's scratch, when it lives in the WebAssembly kernels' memory (see simd/simd.ts) */
+  scratch: Scratch | null;
 }
 
 /**
@@ -93,6 +99,24 @@ export function makeScratch(nn: number): Scratch {
     out: new Float64Array(0),
     acc: new Float64Array(4 * nn),
   };
+}
+
+/**
+ * Scratch for one thread in the kernels' arena (null when none is open): the AED product's
+ * result has room for windows of up to 2·√nn + 16 rows (aggressive early deflation takes about
+ * 1.5·√size).
+ */
+function arenaScratch(nn: number): Scratch | null {
+  const rows = Math.ceil(2 * Math.sqrt(nn)) + 16;
+  const rx = arenaF64(nn);
+  const ry = arenaF64(nn);
+  const rz = arenaF64(nn);
+  const rq = arenaF64(nn);
+  const rr = arenaF64(nn);
+  const out = arenaF64(rows * nn);
+  const acc = arenaF64(4 * nn);
+  if (!rx || !ry || !rz || !rq || !rr || !out || !acc) return null;
+  return { rx, ry, rz, rq, rr, out, acc };
 }
 
 /**
@@ -154,8 +178,9 @@ export function backTransformChunks(job: Job, ctrl: Int32Array, width: number, c
 }
 
 /** The helper thread: waits for a job, then runs its operations from the ring until OP_END. */
-export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: MessagePort) => { message: Job } | undefined, Lay: Layout, K: Kernels): void {
+export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: MessagePort) => { message: Job } | undefined, Lay: Layout, K: HelperKernels): void {
   let S = makeScratch(0);
+  let borrowed = false; // S is a job's (in the kernels' memory, reused by the next call)
   let job = 0;
   Atomics.store(ctrl, Lay.STATE, 1);
   Atomics.notify(ctrl, Lay.STATE);
@@ -167,7 +192,14 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
     const d = msg.message;
     const { nn, H, Vt, ring } = d;
     const cap = ring.length;
-    if (S.rx.length < nn) S = makeScratch(nn);
+    if (K.bindJob) K.bindJob(d);
+    if (d.scratch) {
+      S = d.scratch;
+      borrowed = true;
+    } else if (borrowed || S.rx.length < nn) {
+      S = makeScratch(nn);
+      borrowed = false;
+    }
     let tail = 0;
     let split = 0; // Vt's columns below split are the main thread's (see Session.drain)
     try {
@@ -234,6 +266,8 @@ let unavailable = false;
 let jobs = 0;
 let cached: Job | null = null;
 let ringCache: Float64Array | null = null;
+// the main thread's scratch of the current arena job (null: its own plain arrays)
+let mainScratch: Scratch | null = null;
 
 /** Counters for tests: jobs run with the helper, and whether it is unavailable. */
 export function helperStats(): { jobs: number; unavailable: boolean } {
@@ -241,12 +275,21 @@ export function helperStats(): { jobs: number; unavailable: boolean } {
 }
 
 function source(): string {
-  const fns = [...Object.values(kernels), waitAtLeast, makeScratch, vectorOp, backTransformChunks, helperLoop].map((f) => f.toString());
+  const fns = [...Object.values(kernels), waitAtLeast, makeScratch, vectorOp, backTransformChunks, helperLoop, makeSimdKernels].map((f) => f.toString());
   return [
     "'use strict';",
     "const { workerData, receiveMessageOnPort } = require('node:worker_threads');",
     ...fns,
-    `const K = { ${Object.keys(kernels).join(', ')} };`,
+    `const Kjs = { ${Object.keys(kernels).join(', ')} };`,
+    // the WebAssembly kernels on the main thread's memory; a job's arrays are theirs when they
+    // share the job's buffer
+    'const simd = workerData.simd;',
+    'let X = null;',
+    'try { if (simd) X = new WebAssembly.Instance(simd.module, { env: { memory: simd.memory } }).exports; } catch { X = null; }',
+    'const ctx = { buf: null };',
+    'const K = makeSimdKernels(X, Kjs, (a) => a.buffer === ctx.buf);',
+    // (a job in plain shared buffers, one per array, has none of the kernels' memory)
+    'K.bindJob = (job) => { ctx.buf = job.scratch ? job.H.buffer : null; };',
     'helperLoop(workerData.port, workerData.ctrl, receiveMessageOnPort, workerData.L, K);',
   ].join('\n');
 }
@@ -257,7 +300,7 @@ function start(): Started | null {
   try {
     const ctrl = new Int32Array(new SharedArrayBuffer(16 * 4));
     const { port1, port2 } = new MessageChannel();
-    const worker = new Worker(source(), { eval: true, workerData: { port: port2, ctrl, L }, transferList: [port2] });
+    const worker = new Worker(source(), { eval: true, workerData: { port: port2, ctrl, L, simd: simdShare() }, transferList: [port2] });
     worker.unref();
     port1.unref();
     const fail = (): void => {
@@ -283,7 +326,8 @@ export function helperWanted(n: number, min: number, force: boolean | undefined)
 }
 
 function shared(len: number): Float64Array {
-  return new Float64Array(new SharedArrayBuffer(8 * len));
+  // in the WebAssembly kernels' arena while eig.ts has one open (zeroed there too)
+  return arenaF64(len) ?? new Float64Array(new SharedArrayBuffer(8 * len));
 }
 
 /**
@@ -317,8 +361,15 @@ export class Session {
       unavailable = true;
       return null;
     }
+    const ring = arenaF64(Math.max(1 << 18, 16 * (5 * nn + 16)));
     let job = cached;
-    if (!job || job.nn !== nn) {
+    if (ring) {
+      // an arena is open (simd/simd.ts): this call's arrays are there, for both threads' kernels
+      const scratch = arenaScratch(nn);
+      const offs = arenaI32(nn);
+      job = { nn, H: shared(nn * nn), Vt: shared(nn * nn), u: shared(Math.max((nn * (nn - 1)) / 2, 1)), offs: offs ?? new Int32Array(new SharedArrayBuffer(4 * nn)), hs: shared(nn), ring, scratch };
+      mainScratch = arenaScratch(nn);
+    } else if (!job || job.nn !== nn) {
       const need = Math.max(1 << 18, 16 * (5 * nn + 16));
       if (!ringCache || ringCache.length < need) ringCache = shared(need);
       job = {
@@ -329,9 +380,11 @@ export class Session {
         offs: new Int32Array(new SharedArrayBuffer(4 * nn)),
         hs: shared(nn),
         ring: ringCache,
+        scratch: null,
       };
       cached = job;
     }
+    if (!ring) mainScratch = null;
     return new Session(s, job);
   }
 
@@ -475,7 +528,7 @@ export class Session {
     }
     if (from >= 0) {
       const S = this.scratch();
-      const K = kernels;
+      const K = mainKernels();
       let p = from;
       while (p < this.head) {
         const pos = p % cap;
@@ -489,6 +542,7 @@ export class Session {
 
   private scratchS: Scratch | null = null;
   private scratch(): Scratch {
+    if (mainScratch) return mainScratch;
     if (!this.scratchS || this.scratchS.rx.length < this.job.nn) this.scratchS = makeScratch(this.job.nn);
     return this.scratchS;
   }
@@ -507,7 +561,7 @@ export class Session {
     ring[pos + 1] = width;
     ring[pos + 2] = chunks;
     this.publish(3);
-    backTransformChunks(this.job, c, width, chunks, this.scratch(), kernels, L);
+    backTransformChunks(this.job, c, width, chunks, this.scratch(), mainKernels(), L);
     this.await(L.BT_DONE, chunks);
     this.drain();
   }

@@ -1,0 +1,127 @@
+/**
+ * The eigen-solver's WebAssembly kernels (src/linalg/simd).
+ *
+ * References: the committed module is the compilation of its source (wabt, the WebAssembly Binary
+ * Toolkit); the kernels and the JavaScript ones compute the same decomposition, so both must meet
+ * the defining identity A·V = V·D to round-off and agree on the eigenvalues to within what
+ * rounding allows (ε·cond(λ)·‖A‖, first-order perturbation theory, textbook, from memory).
+ * numpy golden data for the same route with and without the kernels: eig-aed.test.ts.
+ */
+import { execFileSync } from 'node:child_process';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { eigFlat } from '../../src/linalg/eig.js';
+import { KERNELS_WASM_BASE64 } from '../../src/linalg/simd/kernels-wasm.js';
+import { arenaClose, arenaF64, arenaOpen, ownedBy, simdKernels } from '../../src/linalg/simd/simd.js';
+import { frob, matchEigenvalues, pairs, randomMatrix, residual } from './matrices.js';
+
+const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
+
+function flat(A: number[][]): Float64Array {
+  return new Float64Array(A.flat());
+}
+
+function solve(A: number[][], simd: boolean, threads: boolean): { re: number[]; im: number[]; V: number[][] } {
+  const n = A.length;
+  const r = eigFlat(flat(A), n, { structured: false, simd, threads });
+  const V = Array.from({ length: n }, (_, i) => Array.from(r.V.subarray(i * n, (i + 1) * n)));
+  return { re: Array.from(r.re), im: Array.from(r.im), V };
+}
+
+/**
+ * A lossy network's state matrix in the shape the circuits give (capacitor voltages and inductor
+ * currents of a random mesh, nodes to ground through capacitors, branches of R or series R–L):
+ * C·v' = −G·v − Bᵀ·i, L·i' = B·v − R·i. Values spread over decades, as real parts are.
+ */
+function meshMatrix(nodes: number, branches: number, seed: number): number[][] {
+  let s = seed >>> 0;
+  const next = () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 2 ** 32;
+  };
+  const n = nodes + branches;
+  const A = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+  const C = Array.from({ length: nodes }, () => 10 ** (-9 + 3 * next()));
+  for (let k = 0; k < nodes; k++) A[k][k] -= 1e-3 / C[k]; // leakage to ground
+  for (let b = 0; b < branches; b++) {
+    const a = Math.floor(next() * nodes);
+    let c = Math.floor(next() * nodes);
+    if (c === a) c = (a + 1) % nodes;
+    const L = 10 ** (-7 + 3 * next());
+    const R = 10 ** (-1 + 2 * next());
+    const i = nodes + b;
+    // branch current i flows a → c
+    A[a][i] -= 1 / C[a];
+    A[c][i] += 1 / C[c];
+    A[i][a] += 1 / L;
+    A[i][c] -= 1 / L;
+    A[i][i] -= R / L;
+  }
+  return A;
+}
+
+describe('WebAssembly kernels of the eigen-solver', () => {
+  it('are available on this Node.js (otherwise every run silently takes the slower path)', () => {
+    expect(simdKernels()).not.toBeNull();
+  });
+
+  it('the committed module is the compilation of kernels.wat (npm run build:wasm)', () => {
+    const script = `import { compileKernels } from './src/linalg/simd/build-wasm.mjs';
+      process.stdout.write((await compileKernels()).toString('base64'));`;
+    const out = execFileSync(process.execPath, ['--input-type=module', '-e', script], { cwd: ROOT, encoding: 'utf8' });
+    expect(out).toBe(KERNELS_WASM_BASE64);
+  });
+
+  it('hand out zeroed, aligned arrays in their own memory while an arena is open; other arrays are not theirs', () => {
+    expect(arenaOpen(1000)).toBe(true);
+    const a = arenaF64(3)!;
+    a.fill(7);
+    const b = arenaF64(5)!;
+    expect(ownedBy(a) && ownedBy(b)).toBe(true);
+    expect(a.byteOffset % 16).toBe(0);
+    expect(b.byteOffset % 16).toBe(0);
+    expect(b.byteOffset).toBeGreaterThanOrEqual(a.byteOffset + 24);
+    expect(Array.from(b)).toEqual([0, 0, 0, 0, 0]);
+    expect(arenaF64(2 ** 31)).toBeNull(); // beyond the memory
+    expect(ownedBy(new Float64Array(4))).toBe(false);
+    expect(ownedBy(new Float64Array(new SharedArrayBuffer(32)))).toBe(false);
+    arenaClose();
+    expect(arenaF64(1)).toBeNull();
+  });
+
+  it('RINGDOWN_SIMD=0 turns them off', () => {
+    const before = process.env.RINGDOWN_SIMD;
+    process.env.RINGDOWN_SIMD = '0';
+    try {
+      expect(arenaOpen(1000)).toBe(false);
+      expect(arenaF64(1)).toBeNull();
+      expect(simdKernels()).toBeNull();
+    } finally {
+      if (before === undefined) delete process.env.RINGDOWN_SIMD;
+      else process.env.RINGDOWN_SIMD = before;
+    }
+  });
+
+  const cases: [string, number[][]][] = [
+    ['random 37×37 (odd size: the vector loops\u2019 scalar tails)', randomMatrix(37, 11)],
+    ['random 160×160 (aggressive early deflation)', randomMatrix(160, 5)],
+    ['lossy RLC mesh, 90 nodes and 131 branches', meshMatrix(90, 131, 7)],
+  ];
+  for (const [name, A] of cases) {
+    it(`${name}: kernels and JavaScript give the same decomposition, on one thread and with the helper`, () => {
+      const j = solve(A, false, false);
+      expect(residual(A, j)).toBeLessThan(1e-12);
+      const w = solve(A, true, false);
+      expect(residual(A, w)).toBeLessThan(1e-12);
+      const tol = 1e-11 * frob(A);
+      expect(matchEigenvalues(pairs(w.re, w.im), pairs(j.re, j.im))).toBeLessThanOrEqual(tol);
+      expect(matchEigenvalues(pairs(j.re, j.im), pairs(w.re, w.im))).toBeLessThanOrEqual(tol);
+      // the helper thread runs the same kernels on the same memory: the same bits
+      const t = solve(A, true, true);
+      expect(t.re).toEqual(w.re);
+      expect(t.im).toEqual(w.im);
+      expect(t.V).toEqual(w.V);
+    });
+  }
+});
