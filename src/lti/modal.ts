@@ -214,6 +214,12 @@ function blockMatrix(A: Mat, W: Mat, toModal: (M: Mat) => Mat, index: number[], 
 /** D with D⁻¹·A·D symmetric (see linalg/symmetrize.ts), or null. */
 function symmetricScale(A: Mat): Float64Array | null {
   const n = A.length;
+  // symmetrize's own first test, on the rows as they are (no n² copy for an RLC mesh, whose
+  // L–C exchanges have opposite signs)
+  for (let i = 0; i < n; i++) {
+    const row = A[i];
+    for (let j = 0; j < n; j++) if (row[j] !== 0 && j !== i && !(row[j] * A[j][i] > 0)) return null;
+  }
   const flat = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) flat[i * n + j] = A[i][j];
   return symmetrize(flat, n, 1e-12)?.scale ?? null;
