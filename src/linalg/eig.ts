@@ -491,7 +491,7 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 function hessenberg(H: Float64Array, n: number, session: Session | null): Float64Array {
   const high = n - 1;
   const ort = new Float64Array(n);
-  const f = new Float64Array(n);
+  const f = sharedF64(n);
   for (let m = 1; m <= high - 1; m++) {
     let scale = 0;
     for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
@@ -613,10 +613,10 @@ function sweepRest(
   vectors: boolean,
   pipe: Session | null,
 ): void {
-  if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
-  else if (vectors) {
+  if (vectors) {
     if (n + 1 < nn) applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
-    applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
+    if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
+    else applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
   }
   let i = top;
   if ((n - top) % 2 === 1) {
@@ -885,8 +885,7 @@ function hqr2(
         p /= r;
         q /= r;
         if (vectors) {
-          // rows n−1, n right of the block and Vt go to the helper when there is one
-          rotatePair(H, (n - 1) * nn, n * nn, n - 1, pipe ? n : nn - 1, p, q);
+          rotatePair(H, (n - 1) * nn, n * nn, n - 1, nn - 1, p, q);
           for (let i = 0; i <= n; i++) {
             const b = i * nn;
             z = H[b + n - 1];

@@ -138,10 +138,10 @@ export function aggressiveDeflation(
   // the rest of the similarity: rows above the window (H := H·U), columns to its right (H := Uᵀ·H)
   // and the Schur vectors (V := V·U, i.e. Vt := Uᵀ·Vt)
   if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
-  if (pipe) pipe.aed(kwtop, n, Ut, jw);
-  else if (vectors) {
+  if (vectors) {
     if (n + 1 < nn) leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, work(jw * (nn - n - 1)));
-    leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, work(jw * nn));
+    if (pipe) pipe.aed(kwtop, Ut, jw);
+    else leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, work(jw * nn));
   }
   return { deflated, pairs };
 }
