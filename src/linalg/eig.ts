@@ -59,8 +59,19 @@ export interface EigFlatResult {
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
-import { accumulateRows, applyLeft, backTransformRange, hessenbergCols, hessenbergRows, hessenbergTop, reflect3, rotatePair } from './threads/kernels.js';
-import { HelperFailed, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
+import {
+  accumulateRows,
+  applyLeft,
+  backTransformRange,
+  hessenbergCols,
+  hessenbergLeft,
+  hessenbergRight,
+  hessenbergSplit,
+  hessenbergStep,
+  reflect3,
+  rotatePair,
+} from './threads/kernels.js';
+import { HelperFailed, L_LEFT, L_RIGHT, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
 import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
 import { tridiagonalVectors } from './tridiagonal-vectors.js';
@@ -75,6 +86,8 @@ const INVERSE_ITERATION_MIN = 16;
 const SEPARATION = 1e-8;
 // from this size on the dense path uses the helper thread (threads/helper.ts)
 const THREADS_MIN = 120;
+// Hessenberg steps on fewer columns than this stay on the main thread (the waits would dominate)
+const HESSENBERG_SHARED_MIN = 48;
 
 /** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
 export function eig(A: number[][]): EigResult {
@@ -484,14 +497,23 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 /**
  * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place. Entries below the
  * subdiagonal are left holding the reflectors (hqr2 ignores them); the returned array holds their
- * leading entries. Each step: the reflector from column m − 1, f = uᵀ·H/h, rows m..n−1 from both
- * sides, rows 0..m−1 from the right only (hessenbergTop: no later step reads them, so with a
- * session the helper thread takes them, see threads/helper.ts).
+ * leading entries. Each step: the reflector u from column m − 1, f = uᵀ·H/h, the left update on
+ * rows m..n−1, then the right update of every row with its dot product with u formed in two
+ * halves of the columns (kernels.ts hessenbergSplit). With a session the helper thread takes the
+ * second half of the columns of each step (Session.hessenbergStep): two short waits per step,
+ * which cost microseconds when both threads have a core; once the waits exceed a quarter of the
+ * time (a busy machine) or the steps get small, the main thread does both halves, the same way.
  */
 function hessenberg(H: Float64Array, n: number, session: Session | null): Float64Array {
   const high = n - 1;
   const ort = new Float64Array(n);
   const f = sharedF64(n);
+  const sa = session ? session.job.sa : null;
+  const sb = session ? session.job.sb : null;
+  let split = session !== null;
+  let waited = 0;
+  let last = 0; // the last step shared with the helper
+  const t0 = performance.now();
   for (let m = 1; m <= high - 1; m++) {
     let scale = 0;
     for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
@@ -505,15 +527,30 @@ function hessenberg(H: Float64Array, n: number, session: Session | null): Float6
     if (ort[m] > 0) g = -g;
     h -= ort[m] * g;
     ort[m] -= g;
-    if (session) session.hessenbergStep(m, ort, h);
-    else hessenbergTop(H, n, m, ort, h, 0, m);
-    hessenbergCols(H, n, m, ort, f, h, m, n);
-    hessenbergRows(H, n, m, ort, f, h, m, n);
+    const c = hessenbergSplit(n, m);
+    if (split && n - m < HESSENBERG_SHARED_MIN) split = false;
+    if (split) {
+      session!.hessenbergStep(m, ort, h, c);
+      // the helper's right update of the previous step (its columns may become ours)
+      if (last) waited += session!.hessenbergWait(L_RIGHT, last);
+      hessenbergLeft(H, n, m, ort, f, h, m, c, sa!);
+      session!.hessenbergMark(m);
+      waited += session!.hessenbergWait(L_LEFT, m);
+      hessenbergRight(H, n, ort, sa!, sb!, h, m, c);
+      last = m;
+      if (waited > 1 && waited > 0.25 * (performance.now() - t0)) split = false;
+    } else {
+      if (last) {
+        session!.hessenbergWait(L_RIGHT, last);
+        last = 0;
+      }
+      hessenbergCols(H, n, m, ort, f, h, m, n);
+      hessenbergStep(H, n, m, ort, f, h, c, 0, n);
+    }
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
-  // the helper's rows 0..m−1 must be done before the QR sweeps read H
-  if (session) session.drain();
+  if (last) session!.hessenbergWait(L_RIGHT, last);
   return ort;
 }
 

@@ -32,6 +32,9 @@ const L = {
   BT_NEXT: 6, // back-transformation: next chunk to claim
   BT_DONE: 7, // back-transformation: chunks finished
   ASLEEP: 8, // 1 while the helper waits for operations
+  HW_LEFT: 9, // Hessenberg: the last step whose left half the helper has done
+  HM_LEFT: 10, // Hessenberg: the same for the main thread
+  HW_RIGHT: 11, // Hessenberg: the last step whose right update the helper has done
   OP_PAD: 0,
   OP_END: 1,
   OP_SWEEP: 2,
@@ -48,6 +51,9 @@ interface Job {
   nn: number;
   H: Float64Array;
   Vt: Float64Array;
+  /** the Hessenberg step's dot products of each row with u over the first and second half of the columns */
+  sa: Float64Array;
+  sb: Float64Array;
   /** the packed Hessenberg reflectors (eig.ts packReflectors) */
   u: Float64Array;
   offs: Int32Array;
@@ -56,12 +62,12 @@ interface Job {
 }
 
 /**
- * Waits until ctrl[idx] ≥ target: a short spin (the other thread is usually microseconds away),
- * then blocking waits. False when the helper failed (state 2) or nothing changed for `patience`
+ * Waits until ctrl[idx] ≥ target: a spin (the other thread is usually microseconds away; longer
+ * in the Hessenberg lock step), then blocking waits. False when the helper failed (state 2) or nothing changed for `patience`
  * tenths of a second.
  */
-export function waitAtLeast(ctrl: Int32Array, idx: number, target: number, stateIdx: number, patience: number): boolean {
-  for (let spin = 0; spin < 1000; spin++) if (Atomics.load(ctrl, idx) >= target) return true;
+export function waitAtLeast(ctrl: Int32Array, idx: number, target: number, stateIdx: number, patience: number, spins = 1000): boolean {
+  for (let spin = 0; spin < spins; spin++) if (Atomics.load(ctrl, idx) >= target) return true;
   let idle = 0;
   for (;;) {
     const v = Atomics.load(ctrl, idx);
@@ -165,10 +171,11 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
     if (S.rx.length < nn) S = makeScratch(nn);
     let tail = 0;
     let split = 0; // Vt's columns below split are the main thread's (see Session.drain)
+    let spins = 1000;
     try {
       for (;;) {
         if (Atomics.load(ctrl, Lay.HEAD) <= tail) {
-          for (let spin = 0; spin < 1000 && Atomics.load(ctrl, Lay.HEAD) <= tail; spin++);
+          for (let spin = 0; spin < spins && Atomics.load(ctrl, Lay.HEAD) <= tail; spin++);
           // asleep: the main thread wakes it only every few operations (a wake-up is a system call)
           for (let h = Atomics.load(ctrl, Lay.HEAD); h <= tail; h = Atomics.load(ctrl, Lay.HEAD)) {
             Atomics.store(ctrl, Lay.ASLEEP, 1);
@@ -178,6 +185,7 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
         }
         const pos = tail % cap;
         const op = ring[pos];
+        spins = 1000;
         if (op === Lay.OP_PAD) tail += cap - pos;
         else if (op === Lay.OP_END) {
           tail++;
@@ -193,13 +201,22 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
           }
           tail += vectorOp(ring, pos, d, split, nn - 1, S, K, Lay);
         } else if (op === Lay.OP_HSTEP) {
+          // the second half of Hessenberg step m's columns, in lock step with eig.ts hessenberg()
           const m = ring[pos + 1] | 0;
           const h = ring[pos + 2];
-          const b = pos + 3 - m;
+          const c = ring[pos + 3] | 0;
+          const b = pos + 4 - m;
           const u = S.rx;
           for (let j = m; j < nn; j++) u[j] = ring[b + j];
-          K.hessenbergTop(H, nn, m, u, h, 0, m);
-          tail += 3 + nn - m;
+          K.hessenbergLeft(H, nn, m, u, S.ry, h, c, nn, d.sb);
+          Atomics.store(ctrl, Lay.HW_LEFT, m);
+          Atomics.notify(ctrl, Lay.HW_LEFT);
+          waitAtLeast(ctrl, Lay.HM_LEFT, m, Lay.STATE, Infinity, 50000);
+          K.hessenbergRight(H, nn, u, d.sa, d.sb, h, c, nn);
+          Atomics.store(ctrl, Lay.HW_RIGHT, m);
+          Atomics.notify(ctrl, Lay.HW_RIGHT);
+          tail += 4 + nn - m;
+          spins = 50000; // the next step follows within microseconds
         } else if (op === Lay.OP_ACCQ) {
           K.accumulateRows(d.hs, nn, d.u, d.offs, Vt);
           tail += 1;
@@ -219,6 +236,9 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
     }
   }
 }
+
+export const L_LEFT = 0;
+export const L_RIGHT = 1;
 
 /** Thrown on the main thread when the helper failed mid-job; eig.ts then starts over on one thread. */
 export class HelperFailed extends Error {}
@@ -331,6 +351,8 @@ export class Session {
         nn,
         H: shared(nn * nn),
         Vt: shared(nn * nn),
+        sa: shared(nn),
+        sb: shared(nn),
         u: shared(Math.max((nn * (nn - 1)) / 2, 1)),
         offs: new Int32Array(new SharedArrayBuffer(4 * nn)),
         hs: shared(nn),
@@ -350,6 +372,9 @@ export class Session {
     Atomics.store(c, L.TAIL, 0);
     Atomics.store(c, L.SPLIT, 0);
     Atomics.store(c, L.ACK, -1);
+    Atomics.store(c, L.HW_LEFT, 0);
+    Atomics.store(c, L.HM_LEFT, 0);
+    Atomics.store(c, L.HW_RIGHT, 0);
     s.port.postMessage(job);
     Atomics.add(c, L.JOB, 1);
     Atomics.notify(c, L.JOB);
@@ -438,20 +463,34 @@ export class Session {
     this.publish(size);
   }
 
-  /**
-   * Hessenberg step m (reflector ort[m..nn−1], P = I − u·uᵀ/h) for the helper: rows 0..m−1 of H
-   * from the right (no later step reads them).
-   */
-  hessenbergStep(m: number, ort: Float64Array, h: number): void {
+  /** Hessenberg step m (reflector ort[m..nn−1], P = I − u·uᵀ/h): the helper takes columns c..nn−1. */
+  hessenbergStep(m: number, ort: Float64Array, h: number, c: number): void {
     const nn = this.job.nn;
-    const size = 3 + nn - m;
+    const size = 4 + nn - m;
     const pos = this.reserve(size);
     const ring = this.job.ring;
     ring[pos] = L.OP_HSTEP;
     ring[pos + 1] = m;
     ring[pos + 2] = h;
-    ring.set(ort.subarray(m, nn), pos + 3);
+    ring[pos + 3] = c;
+    ring.set(ort.subarray(m, nn), pos + 4);
     this.publish(size);
+    this.wake();
+  }
+
+  /** The main thread's left half of step m is done (job.sa holds its dot products). */
+  hessenbergMark(m: number): void {
+    Atomics.store(this.ctrl, L.HM_LEFT, m);
+    Atomics.notify(this.ctrl, L.HM_LEFT);
+  }
+
+  /** Waits until the helper has done step m's left half (L_LEFT) or right update (L_RIGHT); returns the wait in ms. */
+  hessenbergWait(which: number, m: number): number {
+    const idx = which === L_LEFT ? L.HW_LEFT : L.HW_RIGHT;
+    if (Atomics.load(this.ctrl, idx) >= m) return 0;
+    const t0 = performance.now();
+    if (!waitAtLeast(this.ctrl, idx, m, L.STATE, 300, 50000)) this.await(idx, m);
+    return performance.now() - t0;
   }
 
   /** Vt := Qᵀ from the packed reflectors in job.u, job.offs, job.hs, on the helper. */
