@@ -4,7 +4,7 @@ import { MAX_STATES } from './circuit/limits.js';
 import { describeStructure } from './circuit/structure.js';
 import { InputError } from './diagnostics.js';
 import { computeMetrics } from './measure/metrics.js';
-import { releaseTables } from './measure/sweep.js';
+import { releaseTables, shareTables } from './measure/sweep.js';
 import { ReductionError } from './model/build.js';
 import type { RunResult } from './simulate/result.js';
 import { simulate } from './simulate/run.js';
@@ -43,6 +43,8 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     throw e;
   }
   const events = eventTimes(circuit, sim.span);
+  // the watches' measurements share their power tables (measure/sweep.ts) for this call
+  shareTables(sim.times);
   const traces = sim.signals.map((s) => ({
     label: s.watch.label,
     unit: s.watch.unit,
@@ -51,7 +53,6 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     paths: s.paths,
     metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold, events),
   }));
-  // (the watches' measurements shared their power tables through the sample times)
   releaseTables(sim.times);
   return {
     circuit,

@@ -60,8 +60,8 @@ import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.j
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
 import { arenaClose, arenaI32, arenaOpen, ownedBy, simdInstance } from './simd/simd.js';
-import { reflect3 } from './threads/kernels.js';
-import { HelperFailed, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
+import { hessenbergSplit, reflect3 } from './threads/kernels.js';
+import { HelperFailed, L_LEFT, L_RIGHT, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
 import { mainKernels } from './threads/simd-kernels.js';
 import { pathOrder, symmetricEntry, symmetrize } from './symmetrize.js';
 import { eigTridiagonal, tridiagonalQL } from './tridiagonal.js';
@@ -77,6 +77,8 @@ const INVERSE_ITERATION_MIN = 16;
 const SEPARATION = 1e-8;
 // from this size on the dense path uses the helper thread (threads/helper.ts)
 const THREADS_MIN = 120;
+// Hessenberg steps on fewer columns than this stay on the main thread (the waits would dominate)
+const HESSENBERG_SHARED_MIN = 48;
 
 /** Eigen-decomposition of a real (nonsymmetric) square matrix; see the module comment for conventions. */
 export function eig(A: number[][]): EigResult {
@@ -512,15 +514,24 @@ export function balance(a: Float64Array, n: number, scale: Float64Array): void {
 /**
  * Householder reduction to upper Hessenberg form H = Qᵀ·A·Q, in place. Entries below the
  * subdiagonal are left holding the reflectors (hqr2 ignores them); the returned array holds their
- * leading entries. Each step: the reflector from column m − 1, f = uᵀ·H/h, rows m..n−1 from both
- * sides, rows 0..m−1 from the right only (hessenbergTop: no later step reads them, so with a
- * session the helper thread takes them, see threads/helper.ts).
+ * leading entries. Each step: the reflector u from column m − 1, f = uᵀ·H/h, the left update on
+ * rows m..n−1, then the right update of every row with its dot product with u formed in two
+ * halves of the columns (kernels.ts hessenbergSplit). With a session the helper thread takes the
+ * second half of the columns of each step (Session.hessenbergStep): two short waits per step,
+ * which cost microseconds when both threads have a core; once the waits exceed a quarter of the
+ * time (a busy machine) or the steps get small, the main thread does both halves, the same way.
  */
 function hessenberg(H: Float64Array, n: number, session: Session | null): Float64Array {
   const high = n - 1;
   const K = mainKernels();
   const ort = sharedF64(n);
   const f = sharedF64(n);
+  const sa = session ? session.job.sa : null;
+  const sb = session ? session.job.sb : null;
+  let split = session !== null;
+  let waited = 0;
+  let last = 0; // the last step shared with the helper
+  const t0 = performance.now();
   for (let m = 1; m <= high - 1; m++) {
     let scale = 0;
     for (let i = m; i <= high; i++) scale += Math.abs(H[i * n + m - 1]);
@@ -534,15 +545,30 @@ function hessenberg(H: Float64Array, n: number, session: Session | null): Float6
     if (ort[m] > 0) g = -g;
     h -= ort[m] * g;
     ort[m] -= g;
-    if (session) session.hessenbergStep(m, ort, h);
-    else K.hessenbergTop(H, n, m, ort, h, 0, m);
-    K.hessenbergCols(H, n, m, ort, f, h, m, n);
-    K.hessenbergRows(H, n, m, ort, f, h, m, n);
+    const c = hessenbergSplit(n, m);
+    if (split && n - m < HESSENBERG_SHARED_MIN) split = false;
+    if (split) {
+      session!.hessenbergStep(m, ort, h, c);
+      // the helper's right update of the previous step (its columns may become ours)
+      if (last) waited += session!.hessenbergWait(L_RIGHT, last);
+      K.hessenbergLeft(H, n, m, ort, f, h, m, c, sa!);
+      session!.hessenbergMark(m);
+      waited += session!.hessenbergWait(L_LEFT, m);
+      K.hessenbergRight(H, n, ort, sa!, sb!, h, m, c);
+      last = m;
+      if (waited > 1 && waited > 0.25 * (performance.now() - t0)) split = false;
+    } else {
+      if (last) {
+        session!.hessenbergWait(L_RIGHT, last);
+        last = 0;
+      }
+      K.hessenbergCols(H, n, m, ort, f, h, m, n);
+      K.hessenbergStep(H, n, m, ort, f, h, c, 0, n);
+    }
     ort[m] *= scale;
     H[m * n + m - 1] = scale * g;
   }
-  // the helper's rows 0..m−1 must be done before the QR sweeps read H
-  if (session) session.drain();
+  if (last) session!.hessenbergWait(L_RIGHT, last);
   return ort;
 }
 
@@ -642,11 +668,11 @@ function sweepRest(
   vectors: boolean,
   pipe: Session | null,
 ): void {
-  if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
-  else if (vectors) {
+  if (vectors) {
     const K = mainKernels();
     if (n + 1 < nn) K.applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
-    K.applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
+    if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
+    else K.applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
   }
   const X = simdInstance();
   if (X && ownedBy(H) && ownedBy(rx) && ownedBy(ry) && ownedBy(rz) && ownedBy(rq) && ownedBy(rr)) {
@@ -923,8 +949,7 @@ function hqr2(
         p /= r;
         q /= r;
         if (vectors) {
-          // rows n−1, n right of the block and Vt go to the helper when there is one
-          mainKernels().rotatePair(H, (n - 1) * nn, n * nn, n - 1, pipe ? n : nn - 1, p, q);
+          mainKernels().rotatePair(H, (n - 1) * nn, n * nn, n - 1, nn - 1, p, q);
           for (let i = 0; i <= n; i++) {
             const b = i * nn;
             z = H[b + n - 1];

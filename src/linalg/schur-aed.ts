@@ -172,11 +172,11 @@ function deflate(
   // the rest of the similarity: rows above the window (H := H·U), columns to its right (H := Uᵀ·H)
   // and the Schur vectors (V := V·U, i.e. Vt := Uᵀ·Vt)
   if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
-  if (pipe) pipe.aed(kwtop, n, Ut, jw);
-  else if (vectors) {
+  if (vectors) {
     const K = mainKernels();
     if (n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, scratchFor(H, jw * (nn - n - 1)));
-    K.leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, scratchFor(Vt, jw * nn));
+    if (pipe) pipe.aed(kwtop, Ut, jw);
+    else K.leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, scratchFor(Vt, jw * nn));
   }
   return { deflated, pairs };
 }

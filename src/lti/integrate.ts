@@ -89,18 +89,33 @@ function put(m: Monos, n: number, re: number, im: number, k: number, kr: number,
 let outRe = 0;
 let outIm = 0;
 
+// The series below with its divisions looked up: 1/m, and T/(j + 1) and T^(k+1) for the T of the
+// last call (the pairs of one piece share it). The same numbers the divisions and powers give, so
+// the same sums; the short pieces of a pulse train on a large circuit run millions of series.
+const RECIP = Float64Array.from({ length: 256 }, (_, m) => 1 / m);
+const SERIES = 60;
+let tableT = NaN;
+const stepOfT = new Float64Array(SERIES);
+const powOfT = new Float64Array(64);
+
 /** ∫0^T τ^k·e^(κτ) dτ into (outRe, outIm). */
 function powerExpIntegralInto(k: number, kr: number, ki: number, T: number): void {
   const zr = kr * T;
   const zi = ki * T;
   if (zr * zr + zi * zi < 1) {
+    if (T !== tableT) {
+      tableT = T;
+      for (let j = 0; j < SERIES; j++) stepOfT[j] = T / (j + 1);
+      powOfT.fill(NaN);
+    }
     // Σ_j κ^j·T^(k+j+1)/(j!·(k+j+1))
     let sr = 0;
     let si = 0;
-    let tr = T ** (k + 1);
+    let tr = k < 64 ? powOfT[k] : T ** (k + 1);
+    if (Number.isNaN(tr)) tr = powOfT[k] = T ** (k + 1);
     let ti = 0;
-    for (let j = 0; j < 60; j++) {
-      const f = 1 / (k + j + 1);
+    for (let j = 0; j < SERIES; j++) {
+      const f = k + j + 1 < 256 ? RECIP[k + j + 1] : 1 / (k + j + 1);
       const ar = tr * f;
       const ai = ti * f;
       sr += ar;
@@ -108,8 +123,8 @@ function powerExpIntegralInto(k: number, kr: number, ki: number, T: number): voi
       // |a| ≤ 1e-18·|s| (with the 1-norm, cheaper than hypot on this hot path)
       if (Math.abs(ar) + Math.abs(ai) <= 1e-18 * (Math.abs(sr) + Math.abs(si))) break;
       // term *= κ·T/(j+1)
-      const nr = (tr * kr - ti * ki) * (T / (j + 1));
-      const ni = (tr * ki + ti * kr) * (T / (j + 1));
+      const nr = (tr * kr - ti * ki) * stepOfT[j];
+      const ni = (tr * ki + ti * kr) * stepOfT[j];
       tr = nr;
       ti = ni;
     }

@@ -51,19 +51,22 @@ export class PowerTables {
 }
 
 // A table depends on (κ, h) alone, and the measurements of one run search the same modes on the
-// same grids (every watch's track and slope search, over the same sample times): they share
-// their tables through the sample-time array, until the run lets go of them (releaseTables)
+// same grids (every watch's track and slope search, over the same sample times): within a scope
+// opened by the run (shareTables … releaseTables) they share their tables through the sample-time
+// array; other callers keep tables of their own (nothing retained behind a result)
 const sharedByKey = new WeakMap<object, PowerTables>();
 
-/** The power tables shared by the measurements keyed by `key` (the run's sample times). */
-export function sharedTables(key: object | undefined): PowerTables {
-  if (!key) return new PowerTables();
-  let t = sharedByKey.get(key);
-  if (!t) sharedByKey.set(key, (t = new PowerTables()));
-  return t;
+/** Lets the measurements keyed by `key` (a run's sample times) share their power tables. */
+export function shareTables(key: object): void {
+  if (!sharedByKey.has(key)) sharedByKey.set(key, new PowerTables());
 }
 
-/** Drops the tables shared under `key` (their memory: a 1000-state run holds about 10 MB). */
+/** The tables shared under `key` when shareTables opened them, else new ones. */
+export function sharedTables(key: object | undefined): PowerTables {
+  return (key && sharedByKey.get(key)) || new PowerTables();
+}
+
+/** Ends the sharing under `key` (its tables: about 10 MB for a 1000-state run). */
 export function releaseTables(key: object): void {
   sharedByKey.delete(key);
 }

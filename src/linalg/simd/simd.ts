@@ -22,8 +22,9 @@ import { KERNELS_WASM_BASE64 } from './kernels-wasm.js';
 /** The module's exports; pointers are byte offsets into its memory, counts are in doubles. */
 export interface SimdExports {
   hessCols(H: number, n: number, m: number, ort: number, f: number, h: number, j0: number, j1: number): void;
-  hessRows(H: number, n: number, m: number, ort: number, f: number, h: number, i0: number, i1: number): void;
-  hessTop(H: number, n: number, m: number, ort: number, h: number, i0: number, i1: number): void;
+  hessStep(H: number, n: number, m: number, ort: number, f: number, h: number, c: number, i0: number, i1: number): void;
+  hessLeft(H: number, n: number, m: number, ort: number, f: number, h: number, j0: number, j1: number, sp: number): void;
+  hessRight(H: number, n: number, ort: number, sa: number, sb: number, h: number, j0: number, j1: number): void;
   accumulateRows(hs: number, n: number, u: number, offs: number, X: number): void;
   applyLeft(M: number, nn: number, c0: number, c1: number, m: number, n: number, rx: number, ry: number, rz: number, rq: number, rr: number, transposed: number): void;
   slideRows(H: number, nn: number, top: number, m: number, n: number, rx: number, ry: number, rz: number, rq: number, rr: number): void;

@@ -35,6 +35,10 @@ const L = {
   ACK: 5, // ring position of the first operation the helper ran with the new split (−1: none yet)
   BT_NEXT: 6, // back-transformation: next chunk to claim
   BT_DONE: 7, // back-transformation: chunks finished
+  ASLEEP: 8, // 1 while the helper waits for operations
+  HW_LEFT: 9, // Hessenberg: the last step whose left half the helper has done
+  HM_LEFT: 10, // Hessenberg: the same for the main thread
+  HW_RIGHT: 11, // Hessenberg: the last step whose right update the helper has done
   OP_PAD: 0,
   OP_END: 1,
   OP_SWEEP: 2,
@@ -51,6 +55,9 @@ interface Job {
   nn: number;
   H: Float64Array;
   Vt: Float64Array;
+  /** the Hessenberg step's dot products of each row with u over the first and second half of the columns */
+  sa: Float64Array;
+  sb: Float64Array;
   /** the packed Hessenberg reflectors (eig.ts packReflectors) */
   u: Float64Array;
   offs: Int32Array;
@@ -61,12 +68,12 @@ interface Job {
 }
 
 /**
- * Waits until ctrl[idx] ≥ target: a short spin (the other thread is usually microseconds away),
- * then blocking waits. False when the helper failed (state 2) or nothing changed for `patience`
+ * Waits until ctrl[idx] ≥ target: a spin (the other thread is usually microseconds away; longer
+ * in the Hessenberg lock step), then blocking waits. False when the helper failed (state 2) or nothing changed for `patience`
  * tenths of a second.
  */
-export function waitAtLeast(ctrl: Int32Array, idx: number, target: number, stateIdx: number, patience: number): boolean {
-  for (let spin = 0; spin < 1000; spin++) if (Atomics.load(ctrl, idx) >= target) return true;
+export function waitAtLeast(ctrl: Int32Array, idx: number, target: number, stateIdx: number, patience: number, spins = 1000): boolean {
+  for (let spin = 0; spin < spins; spin++) if (Atomics.load(ctrl, idx) >= target) return true;
   let idle = 0;
   for (;;) {
     const v = Atomics.load(ctrl, idx);
@@ -121,14 +128,14 @@ function arenaScratch(nn: number): Scratch | null {
 
 /**
  * Applies the QR-phase operation at ring[pos] (a sweep, a 2×2 rotation or an AED window) to Vt's
- * columns c0..nn−1 … c1 and, when withH, to H right of the active window. Returns its length.
+ * columns c0..c1. Returns its length in the ring.
  */
-export function vectorOp(ring: Float64Array, pos: number, job: Job, c0: number, c1: number, withH: boolean, S: Scratch, K: Kernels, Lay: Layout): number {
-  const { nn, H, Vt } = job;
+export function vectorOp(ring: Float64Array, pos: number, job: Job, c0: number, c1: number, S: Scratch, K: Kernels, Lay: Layout): number {
+  const { nn, Vt } = job;
   const op = ring[pos];
   if (op === Lay.OP_SWEEP) {
-    const m = ring[pos + 1];
-    const n = ring[pos + 2];
+    const m = ring[pos + 1] | 0; // an int32 index (a double here would deoptimize the kernels)
+    const n = ring[pos + 2] | 0;
     const len = n - m;
     const b = pos + 3 - m;
     const { rx, ry, rz, rq, rr } = S;
@@ -139,27 +146,21 @@ export function vectorOp(ring: Float64Array, pos: number, job: Job, c0: number, 
       rq[k] = ring[b + 3 * len + k];
       rr[k] = ring[b + 4 * len + k];
     }
-    if (withH && n + 1 < nn) K.applyLeft(H, nn, n + 1, nn - 1, m, n, rx, ry, rz, rq, rr, false);
     if (c0 <= c1) K.applyLeft(Vt, nn, c0, c1, m, n, rx, ry, rz, rq, rr, true);
     return 3 + 5 * len;
   }
   if (op === Lay.OP_ROT) {
-    const n = ring[pos + 1];
-    const p = ring[pos + 2];
-    const q = ring[pos + 3];
-    if (withH && n + 1 < nn) K.rotatePair(H, (n - 1) * nn, n * nn, n + 1, nn - 1, p, q);
-    if (c0 <= c1) K.rotatePair(Vt, (n - 1) * nn, n * nn, c0, c1, p, q);
+    const n = ring[pos + 1] | 0;
+    if (c0 <= c1) K.rotatePair(Vt, (n - 1) * nn, n * nn, c0, c1, ring[pos + 2], ring[pos + 3]);
     return 4;
   }
   // Lay.OP_AED
-  const kwtop = ring[pos + 1];
-  const n = ring[pos + 2];
-  const jw = ring[pos + 3];
-  const Ut = ring.subarray(pos + 4, pos + 4 + jw * jw);
+  const kwtop = ring[pos + 1] | 0;
+  const jw = ring[pos + 2] | 0;
+  const Ut = ring.subarray(pos + 3, pos + 3 + jw * jw);
   if (S.out.length < jw * nn) S.out = new Float64Array(jw * nn);
-  if (withH && n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, S.out);
   if (c0 <= c1) K.leftMultiply(Vt, nn, kwtop, c0, c1, Ut, jw, S.out);
-  return 4 + jw * jw;
+  return 3 + jw * jw;
 }
 
 /**
@@ -202,11 +203,21 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
     }
     let tail = 0;
     let split = 0; // Vt's columns below split are the main thread's (see Session.drain)
+    let spins = 1000;
     try {
       for (;;) {
-        if (Atomics.load(ctrl, Lay.HEAD) <= tail) waitAtLeast(ctrl, Lay.HEAD, tail + 1, Lay.STATE, Infinity);
+        if (Atomics.load(ctrl, Lay.HEAD) <= tail) {
+          for (let spin = 0; spin < spins && Atomics.load(ctrl, Lay.HEAD) <= tail; spin++);
+          // asleep: the main thread wakes it only every few operations (a wake-up is a system call)
+          for (let h = Atomics.load(ctrl, Lay.HEAD); h <= tail; h = Atomics.load(ctrl, Lay.HEAD)) {
+            Atomics.store(ctrl, Lay.ASLEEP, 1);
+            if (Atomics.load(ctrl, Lay.HEAD) === h) Atomics.wait(ctrl, Lay.HEAD, h);
+            Atomics.store(ctrl, Lay.ASLEEP, 0);
+          }
+        }
         const pos = tail % cap;
         const op = ring[pos];
+        spins = 1000;
         if (op === Lay.OP_PAD) tail += cap - pos;
         else if (op === Lay.OP_END) {
           tail++;
@@ -220,19 +231,29 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
             Atomics.store(ctrl, Lay.ACK, tail);
             Atomics.notify(ctrl, Lay.ACK);
           }
-          tail += vectorOp(ring, pos, d, split, nn - 1, true, S, K, Lay);
+          tail += vectorOp(ring, pos, d, split, nn - 1, S, K, Lay);
         } else if (op === Lay.OP_HSTEP) {
-          const m = ring[pos + 1];
+          // the second half of Hessenberg step m's columns, in lock step with eig.ts hessenberg()
+          const m = ring[pos + 1] | 0;
           const h = ring[pos + 2];
-          const b = pos + 3 - m;
-          for (let j = m; j < nn; j++) S.rx[j] = ring[b + j];
-          K.hessenbergTop(H, nn, m, S.rx, h, 0, m);
-          tail += 3 + nn - m;
+          const c = ring[pos + 3] | 0;
+          const b = pos + 4 - m;
+          const u = S.rx;
+          for (let j = m; j < nn; j++) u[j] = ring[b + j];
+          K.hessenbergLeft(H, nn, m, u, S.ry, h, c, nn, d.sb);
+          Atomics.store(ctrl, Lay.HW_LEFT, m);
+          Atomics.notify(ctrl, Lay.HW_LEFT);
+          waitAtLeast(ctrl, Lay.HM_LEFT, m, Lay.STATE, Infinity, 50000);
+          K.hessenbergRight(H, nn, u, d.sa, d.sb, h, c, nn);
+          Atomics.store(ctrl, Lay.HW_RIGHT, m);
+          Atomics.notify(ctrl, Lay.HW_RIGHT);
+          tail += 4 + nn - m;
+          spins = 50000; // the next step follows within microseconds
         } else if (op === Lay.OP_ACCQ) {
           K.accumulateRows(d.hs, nn, d.u, d.offs, Vt);
           tail += 1;
         } else if (op === Lay.OP_BT) {
-          backTransformChunks(d, ctrl, ring[pos + 1], ring[pos + 2], S, K, Lay);
+          backTransformChunks(d, ctrl, ring[pos + 1] | 0, ring[pos + 2] | 0, S, K, Lay);
           tail += 3;
         } else throw new Error('helper: unknown operation ' + op);
         Atomics.store(ctrl, Lay.TAIL, tail);
@@ -247,6 +268,9 @@ export function helperLoop(port: MessagePort, ctrl: Int32Array, receive: (p: Mes
     }
   }
 }
+
+export const L_LEFT = 0;
+export const L_RIGHT = 1;
 
 /** Thrown on the main thread when the helper failed mid-job; eig.ts then starts over on one thread. */
 export class HelperFailed extends Error {}
@@ -352,6 +376,8 @@ export class Session {
   readonly job: Job;
   private readonly ctrl: Int32Array;
   private head = 0;
+  private woken = 0;
+  private readonly batch: number;
   private ended = false;
 
   static open(nn: number): Session | null {
@@ -362,12 +388,23 @@ export class Session {
       return null;
     }
     const ring = arenaF64(Math.max(1 << 18, 16 * (5 * nn + 16)));
-    let job = cached;
+    let job: Job | null = cached;
     if (ring) {
       // an arena is open (simd/simd.ts): this call's arrays are there, for both threads' kernels
       const scratch = arenaScratch(nn);
       const offs = arenaI32(nn);
-      job = { nn, H: shared(nn * nn), Vt: shared(nn * nn), u: shared(Math.max((nn * (nn - 1)) / 2, 1)), offs: offs ?? new Int32Array(new SharedArrayBuffer(4 * nn)), hs: shared(nn), ring, scratch };
+      job = {
+        nn,
+        H: shared(nn * nn),
+        Vt: shared(nn * nn),
+        sa: shared(nn),
+        sb: shared(nn),
+        u: shared(Math.max((nn * (nn - 1)) / 2, 1)),
+        offs: offs ?? new Int32Array(new SharedArrayBuffer(4 * nn)),
+        hs: shared(nn),
+        ring,
+        scratch,
+      };
       mainScratch = arenaScratch(nn);
     } else if (!job || job.nn !== nn) {
       const need = Math.max(1 << 18, 16 * (5 * nn + 16));
@@ -376,6 +413,8 @@ export class Session {
         nn,
         H: shared(nn * nn),
         Vt: shared(nn * nn),
+        sa: shared(nn),
+        sb: shared(nn),
         u: shared(Math.max((nn * (nn - 1)) / 2, 1)),
         offs: new Int32Array(new SharedArrayBuffer(4 * nn)),
         hs: shared(nn),
@@ -391,11 +430,15 @@ export class Session {
   private constructor(s: Started, job: Job) {
     this.job = job;
     this.ctrl = s.ctrl;
+    this.batch = 16 * job.nn;
     const c = this.ctrl;
     Atomics.store(c, L.HEAD, 0);
     Atomics.store(c, L.TAIL, 0);
     Atomics.store(c, L.SPLIT, 0);
     Atomics.store(c, L.ACK, -1);
+    Atomics.store(c, L.HW_LEFT, 0);
+    Atomics.store(c, L.HM_LEFT, 0);
+    Atomics.store(c, L.HW_RIGHT, 0);
     s.port.postMessage(job);
     Atomics.add(c, L.JOB, 1);
     Atomics.notify(c, L.JOB);
@@ -425,10 +468,18 @@ export class Session {
   private publish(len: number): void {
     this.head += len;
     Atomics.store(this.ctrl, L.HEAD, this.head);
+    // a sleeping helper is woken once a few operations are waiting (each wake-up is a system call;
+    // notifying on every sweep took 14 % of the main thread's time, measured)
+    if (this.head - this.woken >= this.batch && Atomics.load(this.ctrl, L.ASLEEP) === 1) this.wake();
+  }
+
+  private wake(): void {
+    this.woken = this.head;
     Atomics.notify(this.ctrl, L.HEAD);
   }
 
   private await(idx: number, target: number): void {
+    this.wake();
     if (!waitAtLeast(this.ctrl, idx, target, L.STATE, 300)) {
       unavailable = true;
       this.ended = true;
@@ -436,7 +487,7 @@ export class Session {
     }
   }
 
-  /** The deferred part of one sweep (reflectors k = m..n−1): on H right of column n and on Vt. */
+  /** The Schur-vector part of one sweep (reflectors k = m..n−1): Vt := Pᵀ·Vt on rows m..n. */
   sweep(m: number, n: number, rx: Float64Array, ry: Float64Array, rz: Float64Array, rq: Float64Array, rr: Float64Array): void {
     const len = n - m;
     const size = 3 + 5 * len;
@@ -453,7 +504,7 @@ export class Session {
     this.publish(size);
   }
 
-  /** The 2×2 standardizing rotation of rows n−1, n: on H right of column n and on Vt. */
+  /** The 2×2 standardizing rotation of rows n−1, n of Vt. */
   rotate(n: number, p: number, q: number): void {
     const pos = this.reserve(4);
     const ring = this.job.ring;
@@ -464,30 +515,46 @@ export class Session {
     this.publish(4);
   }
 
-  /** An AED window transformation (Ut, jw×jw, on rows kwtop..kwtop+jw−1): on H right of column n and on Vt. */
-  aed(kwtop: number, n: number, Ut: Float64Array, jw: number): void {
-    const size = 4 + jw * jw;
+  /** An AED window transformation (Ut, jw×jw, on rows kwtop..kwtop+jw−1) on Vt. */
+  aed(kwtop: number, Ut: Float64Array, jw: number): void {
+    const size = 3 + jw * jw;
     const pos = this.reserve(size);
     const ring = this.job.ring;
     ring[pos] = L.OP_AED;
     ring[pos + 1] = kwtop;
-    ring[pos + 2] = n;
-    ring[pos + 3] = jw;
-    ring.set(Ut.subarray(0, jw * jw), pos + 4);
+    ring[pos + 2] = jw;
+    ring.set(Ut.subarray(0, jw * jw), pos + 3);
     this.publish(size);
   }
 
-  /** Hessenberg step m (reflector ort[m..nn−1], P = I − u·uᵀ/h): rows 0..m−1 of H from the right, on the helper. */
-  hessenbergStep(m: number, ort: Float64Array, h: number): void {
+  /** Hessenberg step m (reflector ort[m..nn−1], P = I − u·uᵀ/h): the helper takes columns c..nn−1. */
+  hessenbergStep(m: number, ort: Float64Array, h: number, c: number): void {
     const nn = this.job.nn;
-    const size = 3 + nn - m;
+    const size = 4 + nn - m;
     const pos = this.reserve(size);
     const ring = this.job.ring;
     ring[pos] = L.OP_HSTEP;
     ring[pos + 1] = m;
     ring[pos + 2] = h;
-    ring.set(ort.subarray(m, nn), pos + 3);
+    ring[pos + 3] = c;
+    ring.set(ort.subarray(m, nn), pos + 4);
     this.publish(size);
+    this.wake();
+  }
+
+  /** The main thread's left half of step m is done (job.sa holds its dot products). */
+  hessenbergMark(m: number): void {
+    Atomics.store(this.ctrl, L.HM_LEFT, m);
+    Atomics.notify(this.ctrl, L.HM_LEFT);
+  }
+
+  /** Waits until the helper has done step m's left half (L_LEFT) or right update (L_RIGHT); returns the wait in ms. */
+  hessenbergWait(which: number, m: number): number {
+    const idx = which === L_LEFT ? L.HW_LEFT : L.HW_RIGHT;
+    if (Atomics.load(this.ctrl, idx) >= m) return 0;
+    const t0 = performance.now();
+    if (!waitAtLeast(this.ctrl, idx, m, L.STATE, 300, 50000)) this.await(idx, m);
+    return performance.now() - t0;
   }
 
   /** Vt := Qᵀ from the packed reflectors in job.u, job.offs, job.hs, on the helper. */
@@ -495,6 +562,7 @@ export class Session {
     const pos = this.reserve(1);
     this.job.ring[pos] = L.OP_ACCQ;
     this.publish(1);
+    this.wake();
   }
 
   /** Waits until the helper has applied everything queued so far. */
@@ -511,9 +579,9 @@ export class Session {
     const c = this.ctrl;
     const { nn, ring } = this.job;
     const cap = ring.length;
-    // the helper also keeps H's columns right of the window: a little more than half of Vt here
-    const split = Math.round(0.55 * nn);
+    const split = nn >> 1;
     Atomics.store(c, L.SPLIT, split);
+    this.wake();
     let from = -1;
     for (;;) {
       from = Atomics.load(c, L.ACK);
@@ -533,7 +601,7 @@ export class Session {
       while (p < this.head) {
         const pos = p % cap;
         if (ring[pos] === L.OP_PAD) p += cap - pos;
-        else p += vectorOp(ring, pos, this.job, 0, split - 1, false, S, K, L);
+        else p += vectorOp(ring, pos, this.job, 0, split - 1, S, K, L);
       }
     }
     this.drain();
@@ -561,6 +629,7 @@ export class Session {
     ring[pos + 1] = width;
     ring[pos + 2] = chunks;
     this.publish(3);
+    this.wake();
     backTransformChunks(this.job, c, width, chunks, this.scratch(), mainKernels(), L);
     this.await(L.BT_DONE, chunks);
     this.drain();

@@ -37,27 +37,181 @@ export function hessenbergCols(H: Float64Array, n: number, m: number, ort: Float
 }
 
 /**
- * The rest of Hessenberg step m on rows i0..i1−1 (i0 ≥ m): the left update (H −= u·f), fused with
- * the dot product of the right one, then H := H·(I − u·uᵀ/h) on columns m..n−1. Four rows at a
- * time: each row is read and written twice instead of three times.
+ * The split point of Hessenberg step m's columns m..n−1 into two parts. Each row's dot product
+ * with the reflector is formed as (sum over m..c−1) + (sum over c..n−1), on one thread as on two
+ * (hessenbergStep, or hessenbergLeft/Right on each thread's half), so both give the same bits.
  */
-export function hessenbergRows(H: Float64Array, n: number, m: number, ort: Float64Array, f: Float64Array, h: number, i0: number, i1: number): void {
-  const high = n - 1;
+export function hessenbergSplit(n: number, m: number): number {
+  // on a multiple of 8 (a 64-byte cache line when rows are aligned): the threads then never write
+  // to the same line of a row (one shared line per row and step made the split slower than one
+  // thread, measured)
+  const c = (m + ((n - m + 1) >> 1) + 7) & ~7;
+  return c < n ? c : n - 1;
+}
+
+/**
+ * Hessenberg step m on one thread, rows i0..i1−1 (f = uᵀ·H/h already formed): the left update
+ * H −= u·fᵀ on rows m..n−1, then H := H·(I − u·uᵀ/h) on every row, the dot product in two halves
+ * split at c. Four rows at a time: each row is read and written twice.
+ */
+export function hessenbergStep(H: Float64Array, n: number, m: number, ort: Float64Array, f: Float64Array, h: number, c: number, i0: number, i1: number): void {
   let i = i0;
   for (; i + 3 < i1; i += 4) {
     const b0 = i * n;
     const b1 = b0 + n;
     const b2 = b1 + n;
     const b3 = b2 + n;
+    let a0 = 0;
+    let a1 = 0;
+    let a2 = 0;
+    let a3 = 0;
     let s0 = 0;
     let s1 = 0;
     let s2 = 0;
     let s3 = 0;
+    if (i + 3 < m) {
+      for (let j = m; j < c; j++) {
+        const oj = ort[j];
+        a0 += oj * H[b0 + j];
+        a1 += oj * H[b1 + j];
+        a2 += oj * H[b2 + j];
+        a3 += oj * H[b3 + j];
+      }
+      for (let j = c; j < n; j++) {
+        const oj = ort[j];
+        s0 += oj * H[b0 + j];
+        s1 += oj * H[b1 + j];
+        s2 += oj * H[b2 + j];
+        s3 += oj * H[b3 + j];
+      }
+    } else if (i >= m) {
+      const o0 = ort[i];
+      const o1 = ort[i + 1];
+      const o2 = ort[i + 2];
+      const o3 = ort[i + 3];
+      for (let j = m; j < c; j++) {
+        const oj = ort[j];
+        const fj = f[j];
+        const v0 = H[b0 + j] - o0 * fj;
+        const v1 = H[b1 + j] - o1 * fj;
+        const v2 = H[b2 + j] - o2 * fj;
+        const v3 = H[b3 + j] - o3 * fj;
+        H[b0 + j] = v0;
+        H[b1 + j] = v1;
+        H[b2 + j] = v2;
+        H[b3 + j] = v3;
+        a0 += oj * v0;
+        a1 += oj * v1;
+        a2 += oj * v2;
+        a3 += oj * v3;
+      }
+      for (let j = c; j < n; j++) {
+        const oj = ort[j];
+        const fj = f[j];
+        const v0 = H[b0 + j] - o0 * fj;
+        const v1 = H[b1 + j] - o1 * fj;
+        const v2 = H[b2 + j] - o2 * fj;
+        const v3 = H[b3 + j] - o3 * fj;
+        H[b0 + j] = v0;
+        H[b1 + j] = v1;
+        H[b2 + j] = v2;
+        H[b3 + j] = v3;
+        s0 += oj * v0;
+        s1 += oj * v1;
+        s2 += oj * v2;
+        s3 += oj * v3;
+      }
+    } else {
+      // a block straddling row m: one row at a time
+      for (let r = i; r < i + 4; r++) hessenbergRow(H, n, m, ort, f, h, c, r);
+      continue;
+    }
+    const t0 = (a0 + s0) / h;
+    const t1 = (a1 + s1) / h;
+    const t2 = (a2 + s2) / h;
+    const t3 = (a3 + s3) / h;
+    for (let j = m; j < n; j++) {
+      const oj = ort[j];
+      H[b0 + j] -= t0 * oj;
+      H[b1 + j] -= t1 * oj;
+      H[b2 + j] -= t2 * oj;
+      H[b3 + j] -= t3 * oj;
+    }
+  }
+  for (; i < i1; i++) hessenbergRow(H, n, m, ort, f, h, c, i);
+}
+
+/** Row i of hessenbergStep alone. */
+export function hessenbergRow(H: Float64Array, n: number, m: number, ort: Float64Array, f: Float64Array, h: number, c: number, i: number): void {
+  const b = i * n;
+  let a = 0;
+  let s = 0;
+  if (i >= m) {
+    const oi = ort[i];
+    for (let j = m; j < n; j++) {
+      const v = H[b + j] - oi * f[j];
+      H[b + j] = v;
+      if (j < c) a += ort[j] * v;
+      else s += ort[j] * v;
+    }
+  } else {
+    for (let j = m; j < c; j++) a += ort[j] * H[b + j];
+    for (let j = c; j < n; j++) s += ort[j] * H[b + j];
+  }
+  const t = (a + s) / h;
+  for (let j = m; j < n; j++) H[b + j] -= t * ort[j];
+}
+
+/**
+ * One thread's half of Hessenberg step m, columns j0..j1−1 (the other half on the other thread):
+ * f there, the left update on rows m..n−1, and each row's partial dot product into sp.
+ */
+export function hessenbergLeft(H: Float64Array, n: number, m: number, ort: Float64Array, f: Float64Array, h: number, j0: number, j1: number, sp: Float64Array): void {
+  hessenbergCols(H, n, m, ort, f, h, j0, j1);
+  let i = 0;
+  // rows above m: dot products only, four rows at a time
+  for (; i + 3 < m; i += 4) {
+    const b0 = i * n;
+    const b1 = b0 + n;
+    const b2 = b1 + n;
+    const b3 = b2 + n;
+    let a0 = 0;
+    let a1 = 0;
+    let a2 = 0;
+    let a3 = 0;
+    for (let j = j0; j < j1; j++) {
+      const oj = ort[j];
+      a0 += oj * H[b0 + j];
+      a1 += oj * H[b1 + j];
+      a2 += oj * H[b2 + j];
+      a3 += oj * H[b3 + j];
+    }
+    sp[i] = a0;
+    sp[i + 1] = a1;
+    sp[i + 2] = a2;
+    sp[i + 3] = a3;
+  }
+  for (; i < m; i++) {
+    const b = i * n;
+    let a = 0;
+    for (let j = j0; j < j1; j++) a += ort[j] * H[b + j];
+    sp[i] = a;
+  }
+  // rows m..n−1: the left update, then the dot product of the updated row
+  for (; i + 3 < n; i += 4) {
+    const b0 = i * n;
+    const b1 = b0 + n;
+    const b2 = b1 + n;
+    const b3 = b2 + n;
     const o0 = ort[i];
     const o1 = ort[i + 1];
     const o2 = ort[i + 2];
     const o3 = ort[i + 3];
-    for (let j = m; j <= high; j++) {
+    let a0 = 0;
+    let a1 = 0;
+    let a2 = 0;
+    let a3 = 0;
+    for (let j = j0; j < j1; j++) {
       const oj = ort[j];
       const fj = f[j];
       const v0 = H[b0 + j] - o0 * fj;
@@ -68,75 +222,47 @@ export function hessenbergRows(H: Float64Array, n: number, m: number, ort: Float
       H[b1 + j] = v1;
       H[b2 + j] = v2;
       H[b3 + j] = v3;
-      s0 += oj * v0;
-      s1 += oj * v1;
-      s2 += oj * v2;
-      s3 += oj * v3;
+      a0 += oj * v0;
+      a1 += oj * v1;
+      a2 += oj * v2;
+      a3 += oj * v3;
     }
-    s0 /= h;
-    s1 /= h;
-    s2 /= h;
-    s3 /= h;
-    for (let j = m; j <= high; j++) {
-      const oj = ort[j];
-      H[b0 + j] -= s0 * oj;
-      H[b1 + j] -= s1 * oj;
-      H[b2 + j] -= s2 * oj;
-      H[b3 + j] -= s3 * oj;
-    }
+    sp[i] = a0;
+    sp[i + 1] = a1;
+    sp[i + 2] = a2;
+    sp[i + 3] = a3;
   }
-  for (; i < i1; i++) {
-    const base = i * n;
+  for (; i < n; i++) {
+    const b = i * n;
     const oi = ort[i];
-    for (let j = m; j < n; j++) H[base + j] -= oi * f[j];
-    let s0 = 0;
-    for (let j = m; j <= high; j++) s0 += ort[j] * H[base + j];
-    s0 /= h;
-    for (let j = m; j <= high; j++) H[base + j] -= s0 * ort[j];
+    let a = 0;
+    for (let j = j0; j < j1; j++) {
+      const v = H[b + j] - oi * f[j];
+      H[b + j] = v;
+      a += ort[j] * v;
+    }
+    sp[i] = a;
   }
 }
 
-/**
- * Rows 0..m−1 of Hessenberg step m, rows i0..i1−1 (all above row m): H := H·(I − u·uᵀ/h) on columns
- * m..n−1, four rows per pass. These rows are never read by the later steps, only updated by them.
- */
-export function hessenbergTop(H: Float64Array, n: number, m: number, ort: Float64Array, h: number, i0: number, i1: number): void {
-  const high = n - 1;
-  let i = i0;
-  for (; i + 3 < i1; i += 4) {
+/** The right update of Hessenberg step m on columns j0..j1−1 of every row, with the two halves' dot products. */
+export function hessenbergRight(H: Float64Array, n: number, ort: Float64Array, sa: Float64Array, sb: Float64Array, h: number, j0: number, j1: number): void {
+  let i = 0;
+  for (; i + 1 < n; i += 2) {
     const b0 = i * n;
     const b1 = b0 + n;
-    const b2 = b1 + n;
-    const b3 = b2 + n;
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    for (let j = m; j <= high; j++) {
+    const t0 = (sa[i] + sb[i]) / h;
+    const t1 = (sa[i + 1] + sb[i + 1]) / h;
+    for (let j = j0; j < j1; j++) {
       const oj = ort[j];
-      s0 += oj * H[b0 + j];
-      s1 += oj * H[b1 + j];
-      s2 += oj * H[b2 + j];
-      s3 += oj * H[b3 + j];
-    }
-    s0 /= h;
-    s1 /= h;
-    s2 /= h;
-    s3 /= h;
-    for (let j = m; j <= high; j++) {
-      const oj = ort[j];
-      H[b0 + j] -= s0 * oj;
-      H[b1 + j] -= s1 * oj;
-      H[b2 + j] -= s2 * oj;
-      H[b3 + j] -= s3 * oj;
+      H[b0 + j] -= t0 * oj;
+      H[b1 + j] -= t1 * oj;
     }
   }
-  for (; i < i1; i++) {
-    const base = i * n;
-    let s0 = 0;
-    for (let j = m; j <= high; j++) s0 += ort[j] * H[base + j];
-    s0 /= h;
-    for (let j = m; j <= high; j++) H[base + j] -= s0 * ort[j];
+  for (; i < n; i++) {
+    const b = i * n;
+    const t = (sa[i] + sb[i]) / h;
+    for (let j = j0; j < j1; j++) H[b + j] -= t * ort[j];
   }
 }
 

@@ -21,13 +21,17 @@ export function makeSimdKernels(X: SimdExports | null, jsK: Kernels, owns: (a: A
       if (owns(H) && owns(ort) && owns(f)) X.hessCols(H.byteOffset, n, m, ort.byteOffset, f.byteOffset, h, j0, j1);
       else jsK.hessenbergCols(H, n, m, ort, f, h, j0, j1);
     },
-    hessenbergRows(H, n, m, ort, f, h, i0, i1) {
-      if (owns(H) && owns(ort) && owns(f)) X.hessRows(H.byteOffset, n, m, ort.byteOffset, f.byteOffset, h, i0, i1);
-      else jsK.hessenbergRows(H, n, m, ort, f, h, i0, i1);
+    hessenbergStep(H, n, m, ort, f, h, c, i0, i1) {
+      if (owns(H) && owns(ort) && owns(f)) X.hessStep(H.byteOffset, n, m, ort.byteOffset, f.byteOffset, h, c, i0, i1);
+      else jsK.hessenbergStep(H, n, m, ort, f, h, c, i0, i1);
     },
-    hessenbergTop(H, n, m, ort, h, i0, i1) {
-      if (owns(H) && owns(ort)) X.hessTop(H.byteOffset, n, m, ort.byteOffset, h, i0, i1);
-      else jsK.hessenbergTop(H, n, m, ort, h, i0, i1);
+    hessenbergLeft(H, n, m, ort, f, h, j0, j1, sp) {
+      if (owns(H) && owns(ort) && owns(f) && owns(sp)) X.hessLeft(H.byteOffset, n, m, ort.byteOffset, f.byteOffset, h, j0, j1, sp.byteOffset);
+      else jsK.hessenbergLeft(H, n, m, ort, f, h, j0, j1, sp);
+    },
+    hessenbergRight(H, n, ort, sa, sb, h, j0, j1) {
+      if (owns(H) && owns(ort) && owns(sa) && owns(sb)) X.hessRight(H.byteOffset, n, ort.byteOffset, sa.byteOffset, sb.byteOffset, h, j0, j1);
+      else jsK.hessenbergRight(H, n, ort, sa, sb, h, j0, j1);
     },
     accumulateRows(hs, n, u, offs, Xm) {
       if (owns(hs) && owns(u) && owns(offs) && owns(Xm)) X.accumulateRows(hs.byteOffset, n, u.byteOffset, offs.byteOffset, Xm.byteOffset);
