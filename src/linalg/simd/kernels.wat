@@ -90,178 +90,8 @@
       (then (f64.store (local.get $d) (f64.div (f64.load (local.get $d)) (local.get $h)))))
   )
 
-  ;; Σ u[j]·s[j], j < cnt, one running sum in index order (as the JavaScript)
-  (func $dot (param $u i32) (param $s i32) (param $cnt i32) (result f64)
-    (local $end i32) (local $r f64)
-    (local.set $end (i32.add (local.get $u) (i32.shl (local.get $cnt) (i32.const 3))))
-    (block $done (loop $l
-      (br_if $done (i32.ge_u (local.get $u) (local.get $end)))
-      (local.set $r (f64.add (local.get $r) (f64.mul (f64.load (local.get $u)) (f64.load (local.get $s)))))
-      (local.set $u (i32.add (local.get $u) (i32.const 8)))
-      (local.set $s (i32.add (local.get $s) (i32.const 8)))
-      (br $l)))
-    (local.get $r)
-  )
 
-  ;; Four rows r = 0..3 (row r at s + r·ld bytes), columns j < cnt, with u = the reflector and
-  ;; f = uᵀ·H/h: when $left, first row_r −= o_r·f (the left product's share of the row); then
-  ;; s_r = (u·row_r)/h and row_r −= s_r·u (the right product). The dot products keep one running
-  ;; sum per row in index order, as the JavaScript does: rows (0, 1) and (2, 3) share a vector.
-  (func $rows4 (param $s i32) (param $ld i32) (param $cnt i32) (param $u i32) (param $f i32) (param $left i32)
-      (param $o0 f64) (param $o1 f64) (param $o2 f64) (param $o3 f64) (param $h f64)
-    (local $p0 i32) (local $p1 i32) (local $p2 i32) (local $p3 i32) (local $pu i32) (local $pf i32) (local $end i32)
-    (local $O01 v128) (local $O23 v128) (local $A01 v128) (local $A23 v128)
-    (local $V01 v128) (local $V23 v128) (local $uj v128) (local $fj v128)
-    (local.set $p0 (local.get $s))
-    (local.set $p1 (i32.add (local.get $p0) (local.get $ld)))
-    (local.set $p2 (i32.add (local.get $p1) (local.get $ld)))
-    (local.set $p3 (i32.add (local.get $p2) (local.get $ld)))
-    (local.set $pu (local.get $u))
-    (local.set $pf (local.get $f))
-    (local.set $end (i32.add (local.get $u) (i32.shl (local.get $cnt) (i32.const 3))))
-    (if (local.get $left)
-      (then
-        (local.set $O01 (f64x2.replace_lane 1 (f64x2.splat (local.get $o0)) (local.get $o1)))
-        (local.set $O23 (f64x2.replace_lane 1 (f64x2.splat (local.get $o2)) (local.get $o3)))
-        (block $done (loop $l
-          (br_if $done (i32.ge_u (local.get $pu) (local.get $end)))
-          (local.set $uj (v128.load64_splat (local.get $pu)))
-          (local.set $fj (v128.load64_splat (local.get $pf)))
-          (local.set $V01 (f64x2.sub (v128.load64_lane 1 (local.get $p1) (v128.load64_zero (local.get $p0))) (f64x2.mul (local.get $O01) (local.get $fj))))
-          (local.set $V23 (f64x2.sub (v128.load64_lane 1 (local.get $p3) (v128.load64_zero (local.get $p2))) (f64x2.mul (local.get $O23) (local.get $fj))))
-          (v128.store64_lane 0 (local.get $p0) (local.get $V01))
-          (v128.store64_lane 1 (local.get $p1) (local.get $V01))
-          (v128.store64_lane 0 (local.get $p2) (local.get $V23))
-          (v128.store64_lane 1 (local.get $p3) (local.get $V23))
-          (local.set $A01 (f64x2.add (local.get $A01) (f64x2.mul (local.get $uj) (local.get $V01))))
-          (local.set $A23 (f64x2.add (local.get $A23) (f64x2.mul (local.get $uj) (local.get $V23))))
-          (local.set $pu (i32.add (local.get $pu) (i32.const 8)))
-          (local.set $pf (i32.add (local.get $pf) (i32.const 8)))
-          (local.set $p0 (i32.add (local.get $p0) (i32.const 8)))
-          (local.set $p1 (i32.add (local.get $p1) (i32.const 8)))
-          (local.set $p2 (i32.add (local.get $p2) (i32.const 8)))
-          (local.set $p3 (i32.add (local.get $p3) (i32.const 8)))
-          (br $l))))
-      (else
-        (block $done (loop $l
-          (br_if $done (i32.ge_u (local.get $pu) (local.get $end)))
-          (local.set $uj (v128.load64_splat (local.get $pu)))
-          (local.set $A01 (f64x2.add (local.get $A01) (f64x2.mul (local.get $uj) (v128.load64_lane 1 (local.get $p1) (v128.load64_zero (local.get $p0))))))
-          (local.set $A23 (f64x2.add (local.get $A23) (f64x2.mul (local.get $uj) (v128.load64_lane 1 (local.get $p3) (v128.load64_zero (local.get $p2))))))
-          (local.set $pu (i32.add (local.get $pu) (i32.const 8)))
-          (local.set $p0 (i32.add (local.get $p0) (i32.const 8)))
-          (local.set $p1 (i32.add (local.get $p1) (i32.const 8)))
-          (local.set $p2 (i32.add (local.get $p2) (i32.const 8)))
-          (local.set $p3 (i32.add (local.get $p3) (i32.const 8)))
-          (br $l)))))
-    ;; the right product: row_r −= (s_r/h)·u
-    (call $axmy1 (local.get $s) (local.get $u) (local.get $cnt) (f64.div (f64x2.extract_lane 0 (local.get $A01)) (local.get $h)))
-    (call $axmy1 (i32.add (local.get $s) (local.get $ld)) (local.get $u) (local.get $cnt) (f64.div (f64x2.extract_lane 1 (local.get $A01)) (local.get $h)))
-    (call $axmy1 (i32.add (local.get $s) (i32.shl (local.get $ld) (i32.const 1))) (local.get $u) (local.get $cnt) (f64.div (f64x2.extract_lane 0 (local.get $A23)) (local.get $h)))
-    (call $axmy1 (i32.add (local.get $s) (i32.mul (local.get $ld) (i32.const 3))) (local.get $u) (local.get $cnt) (f64.div (f64x2.extract_lane 1 (local.get $A23)) (local.get $h)))
-  )
 
-  ;; Householder reduction to upper Hessenberg form, in place (eig.ts hessenberg(): same steps,
-  ;; same storage). H: n×n row-major at $H; ort (n doubles) receives the reflectors' leading
-  ;; entries; f (n doubles) is scratch.
-  (func (export "hessenberg") (param $H i32) (param $n i32) (param $ort i32) (param $f i32)
-    (local $m i32) (local $high i32) (local $i i32) (local $nb i32) (local $p i32) (local $cnt i32) (local $rowm i32)
-    (local $scale f64) (local $h f64) (local $g f64) (local $x f64) (local $om f64)
-    (local.set $high (i32.sub (local.get $n) (i32.const 1)))
-    (local.set $nb (i32.shl (local.get $n) (i32.const 3)))
-    (local.set $m (i32.const 1))
-    (block $mdone (loop $mloop
-      (br_if $mdone (i32.gt_s (local.get $m) (i32.sub (local.get $high) (i32.const 1))))
-      (block $next
-        ;; scale = Σ |H[i][m−1]|, i = m..high
-        (local.set $scale (f64.const 0))
-        (local.set $p (i32.add (local.get $H) (i32.shl (i32.sub (i32.add (i32.mul (local.get $m) (local.get $n)) (local.get $m)) (i32.const 1)) (i32.const 3))))
-        (local.set $i (local.get $m))
-        (block $d1 (loop $l1
-          (br_if $d1 (i32.gt_s (local.get $i) (local.get $high)))
-          (local.set $scale (f64.add (local.get $scale) (f64.abs (f64.load (local.get $p)))))
-          (local.set $p (i32.add (local.get $p) (local.get $nb)))
-          (local.set $i (i32.add (local.get $i) (i32.const 1)))
-          (br $l1)))
-        (br_if $next (f64.eq (local.get $scale) (f64.const 0)))
-        ;; ort[i] = H[i][m−1]/scale and h = Σ ort², i = high down to m
-        (local.set $h (f64.const 0))
-        (local.set $i (local.get $high))
-        (block $d2 (loop $l2
-          (br_if $d2 (i32.lt_s (local.get $i) (local.get $m)))
-          (local.set $x (f64.div
-            (f64.load (i32.add (local.get $H) (i32.shl (i32.sub (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 1)) (i32.const 3))))
-            (local.get $scale)))
-          (f64.store (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3))) (local.get $x))
-          (local.set $h (f64.add (local.get $h) (f64.mul (local.get $x) (local.get $x))))
-          (local.set $i (i32.sub (local.get $i) (i32.const 1)))
-          (br $l2)))
-        (local.set $g (f64.sqrt (local.get $h)))
-        (local.set $om (f64.load (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3)))))
-        (if (f64.gt (local.get $om) (f64.const 0)) (then (local.set $g (f64.neg (local.get $g)))))
-        (local.set $h (f64.sub (local.get $h) (f64.mul (local.get $om) (local.get $g))))
-        (f64.store (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3))) (f64.sub (local.get $om) (local.get $g)))
-        ;; f = uᵀ·H on rows m..high, columns m..n−1, four rows at a time; then f /= h
-        (local.set $cnt (i32.sub (local.get $n) (local.get $m)))
-        (memory.fill (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3))) (i32.const 0) (i32.shl (local.get $cnt) (i32.const 3)))
-        (local.set $i (local.get $m))
-        (block $d3 (loop $l3
-          (br_if $d3 (i32.gt_s (i32.add (local.get $i) (i32.const 3)) (local.get $high)))
-          (local.set $p (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3))))
-          (call $axpy4
-            (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3)))
-            (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3)))
-            (local.get $nb) (local.get $cnt)
-            (f64.load (local.get $p)) (f64.load offset=8 (local.get $p)) (f64.load offset=16 (local.get $p)) (f64.load offset=24 (local.get $p)))
-          (local.set $i (i32.add (local.get $i) (i32.const 4)))
-          (br $l3)))
-        (block $d4 (loop $l4
-          (br_if $d4 (i32.gt_s (local.get $i) (local.get $high)))
-          (call $axpy1
-            (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3)))
-            (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3)))
-            (local.get $cnt)
-            (f64.load (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3)))))
-          (local.set $i (i32.add (local.get $i) (i32.const 1)))
-          (br $l4)))
-        (call $divide (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3))) (local.get $cnt) (local.get $h))
-        ;; H := H·(I − u·uᵀ/h) on rows 0..high, columns m..high, four rows at a time; rows ≥ m take
-        ;; the left update (row −= ort_row·f) first, fused
-        (local.set $i (i32.const 0))
-        (block $d5 (loop $l5
-          (br_if $d5 (i32.gt_s (i32.add (local.get $i) (i32.const 3)) (local.get $high)))
-          (local.set $p (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3))))
-          (call $rows4
-            (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3)))
-            (local.get $nb) (local.get $cnt)
-            (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3)))
-            (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3)))
-            (i32.ge_s (i32.add (local.get $i) (i32.const 3)) (local.get $m))
-            (select (f64.load (local.get $p)) (f64.const 0) (i32.ge_s (local.get $i) (local.get $m)))
-            (select (f64.load offset=8 (local.get $p)) (f64.const 0) (i32.ge_s (i32.add (local.get $i) (i32.const 1)) (local.get $m)))
-            (select (f64.load offset=16 (local.get $p)) (f64.const 0) (i32.ge_s (i32.add (local.get $i) (i32.const 2)) (local.get $m)))
-            (f64.load offset=24 (local.get $p))
-            (local.get $h))
-          (local.set $i (i32.add (local.get $i) (i32.const 4)))
-          (br $l5)))
-        (block $d6 (loop $l6
-          (br_if $d6 (i32.gt_s (local.get $i) (local.get $high)))
-          (local.set $rowm (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3))))
-          (if (i32.ge_s (local.get $i) (local.get $m))
-            (then (call $axmy1 (local.get $rowm) (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3))) (local.get $cnt)
-              (f64.load (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3)))))))
-          (call $axmy1 (local.get $rowm) (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3))) (local.get $cnt)
-            (f64.div (call $dot (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3))) (local.get $rowm) (local.get $cnt)) (local.get $h)))
-          (local.set $i (i32.add (local.get $i) (i32.const 1)))
-          (br $l6)))
-        (f64.store (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3)))
-          (f64.mul (f64.load (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3)))) (local.get $scale)))
-        (f64.store (i32.add (local.get $H) (i32.shl (i32.sub (i32.add (i32.mul (local.get $m) (local.get $n)) (local.get $m)) (i32.const 1)) (i32.const 3)))
-          (f64.mul (local.get $scale) (local.get $g)))
-      )
-      (local.set $m (i32.add (local.get $m) (i32.const 1)))
-      (br $mloop)))
-  )
 
   ;; Two reflectors on rows r0..r0+3 (byte pointer $p0 to row r0, column c0; $ld the row stride in
   ;; bytes), $cnt columns: the first (dot with a, update along f) on rows 0..2, then the second
@@ -581,65 +411,18 @@
         (f64.store (local.get $p3) (f64.add (f64.load (local.get $p3)) (f64.add (f64.mul (local.get $a3) (f64.load (local.get $v))) (f64.mul (local.get $b3) (f64.load (local.get $w))))))))
   )
 
-  ;; eig.ts backTransform: Vt := Xᵀ·Vt with X upper triangular in H (both nn×nn row-major);
-  ;; $acc is scratch of 4·nn doubles. Same operations per entry as the JavaScript.
-  (func (export "backTransform") (param $H i32) (param $nn i32) (param $Vt i32) (param $acc i32)
-    (local $j i32) (local $k i32) (local $r0 i32) (local $t i32) (local $ld i32) (local $h0 i32) (local $h1 i32) (local $x f64) (local $bk i32)
-    (local.set $ld (i32.shl (local.get $nn) (i32.const 3)))
-    (local.set $j (i32.sub (local.get $nn) (i32.const 1)))
-    (block $dj (loop $lj
-      (br_if $dj (i32.lt_s (local.get $j) (i32.const 3)))
-      (memory.fill (local.get $acc) (i32.const 0) (i32.shl (local.get $ld) (i32.const 2)))
-      (local.set $r0 (i32.sub (local.get $j) (i32.const 3)))
-      (local.set $k (i32.const 0))
-      (block $dk (loop $lk
-        (br_if $dk (i32.gt_s (i32.add (local.get $k) (i32.const 1)) (local.get $r0)))
-        (local.set $h0 (i32.add (local.get $H) (i32.mul (local.get $k) (local.get $ld))))
-        (local.set $h1 (i32.add (local.get $h0) (local.get $ld)))
-        (call $pair4 (local.get $acc) (local.get $ld)
-          (i32.add (local.get $Vt) (i32.mul (local.get $k) (local.get $ld)))
-          (i32.add (local.get $Vt) (i32.mul (i32.add (local.get $k) (i32.const 1)) (local.get $ld)))
-          (local.get $nn)
-          (f64.load (i32.add (local.get $h0) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load offset=8 (i32.add (local.get $h0) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load offset=16 (i32.add (local.get $h0) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load (i32.add (local.get $h0) (i32.shl (local.get $j) (i32.const 3))))
-          (f64.load (i32.add (local.get $h1) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load offset=8 (i32.add (local.get $h1) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load offset=16 (i32.add (local.get $h1) (i32.shl (local.get $r0) (i32.const 3))))
-          (f64.load (i32.add (local.get $h1) (i32.shl (local.get $j) (i32.const 3)))))
-        (local.set $k (i32.add (local.get $k) (i32.const 2)))
-        (br $lk)))
-      (block $dk2 (loop $lk2
-        (br_if $dk2 (i32.gt_s (local.get $k) (local.get $j)))
-        (local.set $bk (i32.mul (local.get $k) (local.get $ld)))
-        (local.set $t (select (i32.sub (local.get $k) (local.get $r0)) (i32.const 0) (i32.gt_s (local.get $k) (local.get $r0))))
-        (block $dt (loop $lt
-          (br_if $dt (i32.ge_s (local.get $t) (i32.const 4)))
-          (local.set $x (f64.load (i32.add (i32.add (local.get $H) (local.get $bk)) (i32.shl (i32.add (local.get $r0) (local.get $t)) (i32.const 3)))))
-          (if (f64.ne (local.get $x) (f64.const 0))
-            (then (call $axpy1 (i32.add (local.get $acc) (i32.mul (local.get $t) (local.get $ld))) (i32.add (local.get $Vt) (local.get $bk)) (local.get $nn) (local.get $x))))
-          (local.set $t (i32.add (local.get $t) (i32.const 1)))
-          (br $lt)))
-        (local.set $k (i32.add (local.get $k) (i32.const 1)))
-        (br $lk2)))
-      (memory.copy (i32.add (local.get $Vt) (i32.mul (local.get $r0) (local.get $ld))) (local.get $acc) (i32.shl (local.get $ld) (i32.const 2)))
-      (local.set $j (i32.sub (local.get $j) (i32.const 4)))
-      (br $lj)))
-    (block $dj2 (loop $lj2
-      (br_if $dj2 (i32.lt_s (local.get $j) (i32.const 0)))
-      (memory.fill (local.get $acc) (i32.const 0) (local.get $ld))
-      (local.set $k (i32.const 0))
-      (block $dk3 (loop $lk3
-        (br_if $dk3 (i32.gt_s (local.get $k) (local.get $j)))
-        (local.set $x (f64.load (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $k) (local.get $nn)) (local.get $j)) (i32.const 3)))))
-        (if (f64.ne (local.get $x) (f64.const 0))
-          (then (call $axpy1 (local.get $acc) (i32.add (local.get $Vt) (i32.mul (local.get $k) (local.get $ld))) (local.get $nn) (local.get $x))))
-        (local.set $k (i32.add (local.get $k) (i32.const 1)))
-        (br $lk3)))
-      (memory.copy (i32.add (local.get $Vt) (i32.mul (local.get $j) (local.get $ld))) (local.get $acc) (local.get $ld))
-      (local.set $j (i32.sub (local.get $j) (i32.const 1)))
-      (br $lj2)))
+
+  ;; Σ u[j]·s[j], j < cnt, one running sum in index order (as the JavaScript)
+  (func $dot (param $u i32) (param $s i32) (param $cnt i32) (result f64)
+    (local $end i32) (local $r f64)
+    (local.set $end (i32.add (local.get $u) (i32.shl (local.get $cnt) (i32.const 3))))
+    (block $done (loop $l
+      (br_if $done (i32.ge_u (local.get $u) (local.get $end)))
+      (local.set $r (f64.add (local.get $r) (f64.mul (f64.load (local.get $u)) (f64.load (local.get $s)))))
+      (local.set $u (i32.add (local.get $u) (i32.const 8)))
+      (local.set $s (i32.add (local.get $s) (i32.const 8)))
+      (br $l)))
+    (local.get $r)
   )
 
   ;; Four dot products Σ u[i]·row_r[i], i < cnt (rows at $x + r·ld bytes), into globals g0..g3:
@@ -1083,43 +866,6 @@
     (call $divide (local.get $fj) (local.get $cnt) (local.get $h))
   )
 
-  ;; threads/kernels.ts hessenbergRows ($left = 1: rows i0..i1−1 take row −= ort[row]·f, then the
-  ;; right product) and hessenbergTop ($left = 0: the right product only), columns m..n−1.
-  (func $hessRowsAny (param $H i32) (param $n i32) (param $m i32) (param $ort i32) (param $f i32) (param $h f64) (param $i0 i32) (param $i1 i32) (param $left i32)
-    (local $i i32) (local $nb i32) (local $cnt i32) (local $p i32) (local $row i32) (local $um i32) (local $fm i32)
-    (local.set $nb (i32.shl (local.get $n) (i32.const 3)))
-    (local.set $cnt (i32.sub (local.get $n) (local.get $m)))
-    (local.set $um (i32.add (local.get $ort) (i32.shl (local.get $m) (i32.const 3))))
-    (local.set $fm (i32.add (local.get $f) (i32.shl (local.get $m) (i32.const 3))))
-    (local.set $i (local.get $i0))
-    (block $d5 (loop $l5
-      (br_if $d5 (i32.ge_s (i32.add (local.get $i) (i32.const 3)) (local.get $i1)))
-      (local.set $p (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3))))
-      (call $rows4
-        (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3)))
-        (local.get $nb) (local.get $cnt) (local.get $um) (local.get $fm) (local.get $left)
-        (select (f64.load (local.get $p)) (f64.const 0) (local.get $left))
-        (select (f64.load offset=8 (local.get $p)) (f64.const 0) (local.get $left))
-        (select (f64.load offset=16 (local.get $p)) (f64.const 0) (local.get $left))
-        (select (f64.load offset=24 (local.get $p)) (f64.const 0) (local.get $left))
-        (local.get $h))
-      (local.set $i (i32.add (local.get $i) (i32.const 4)))
-      (br $l5)))
-    (block $d6 (loop $l6
-      (br_if $d6 (i32.ge_s (local.get $i) (local.get $i1)))
-      (local.set $row (i32.add (local.get $H) (i32.shl (i32.add (i32.mul (local.get $i) (local.get $n)) (local.get $m)) (i32.const 3))))
-      (if (local.get $left)
-        (then (call $axmy1 (local.get $row) (local.get $fm) (local.get $cnt)
-          (f64.load (i32.add (local.get $ort) (i32.shl (local.get $i) (i32.const 3)))))))
-      (call $axmy1 (local.get $row) (local.get $um) (local.get $cnt)
-        (f64.div (call $dot (local.get $um) (local.get $row) (local.get $cnt)) (local.get $h)))
-      (local.set $i (i32.add (local.get $i) (i32.const 1)))
-      (br $l6)))
-  )
-  (func (export "hessRows") (param $H i32) (param $n i32) (param $m i32) (param $ort i32) (param $f i32) (param $h f64) (param $i0 i32) (param $i1 i32)
-    (call $hessRowsAny (local.get $H) (local.get $n) (local.get $m) (local.get $ort) (local.get $f) (local.get $h) (local.get $i0) (local.get $i1) (i32.const 1)))
-  (func (export "hessTop") (param $H i32) (param $n i32) (param $m i32) (param $ort i32) (param $h f64) (param $i0 i32) (param $i1 i32)
-    (call $hessRowsAny (local.get $H) (local.get $n) (local.get $m) (local.get $ort) (local.get $ort) (local.get $h) (local.get $i0) (local.get $i1) (i32.const 0)))
 
   ;; threads/kernels.ts rotatePair: rows at element offsets ra, rb, columns c0..c1:
   ;; (a, b) := (q·a + p·b, q·b − p·a).
