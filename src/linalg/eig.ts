@@ -35,7 +35,9 @@
  *  - anything else: the Schur-form path above. Its sweeps chase the bulge inside the active
  *    window and apply the rest of each sweep afterwards in contiguous passes (sweepRest). Active
  *    blocks of AED_MIN rows or more first try aggressive early deflation (schur-aed.ts), whose
- *    undeflated eigenvalues then serve as the shifts of the next sweeps.
+ *    undeflated eigenvalues then serve as the shifts of the next sweeps. From THREADS_MIN rows
+ *    on, a second thread (threads/helper.ts) takes the Schur-vector work and half of the
+ *    Hessenberg reduction and of the back-transformation, with bit-for-bit the same results.
  *
  * Storage: eig works row-major (a[i·n + j]); eigSymmetric works column-major internally (the
  * rotations of the QL sweep then run along contiguous memory). Both accept and return number[][].

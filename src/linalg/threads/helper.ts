@@ -3,17 +3,21 @@
  * into the QR sweeps on H, so it runs beside them: the main thread records each sweep's
  * reflectors, each window transformation of aggressive early deflation and each 2×2 standardizing
  * rotation in a ring in shared memory; the helper applies them, in the same order, to the Schur
- * vectors and to the columns of H right of the active window (which the sweeps never read). The
- * main thread waits only at the end. The Hessenberg reduction and the back-transformation are
- * split between both threads by columns or rows.
+ * vectors (after forming them from the Hessenberg reflectors), while the main thread goes on with
+ * the next sweeps. At the end of the QR iteration the main thread takes half of Vt's columns of
+ * whatever the helper has not started yet (Session.drainHelping). The Hessenberg reduction is
+ * split by columns in lock step (eig.ts hessenberg), the back-transformation by chunks of columns
+ * claimed by whichever thread is free.
  *
  * Every kernel does the same operations in the same order on each entry whichever thread runs it,
  * so the results are bit-for-bit those of one thread (tested). The helper is started lazily once
- * per process and unref()ed; when it cannot start or fails, eig.ts falls back to one thread.
+ * per process and unref()ed; when it cannot start or fails, eig.ts starts over on one thread.
  * RINGDOWN_THREADS=1 forces one thread.
  *
- * The helper's source is the text of helperLoop, hessenbergHelper, waitAtLeast and the kernels
- * (kernels.ts): it works the same from src/ (transformed on the fly under vitest) and from dist/.
+ * The helper's source is the text of helperLoop, vectorOp, backTransformChunks, waitAtLeast and
+ * the kernels (kernels.ts), which call only each other: it works the same from src/ (transformed
+ * on the fly under vitest) and from dist/. Integers read from the ring go through `| 0`: a double
+ * index deoptimizes the kernels (also the main thread's, which share their type feedback).
  */
 
 import { Worker, MessageChannel, type MessagePort } from 'node:worker_threads';
