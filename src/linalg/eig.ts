@@ -141,7 +141,7 @@ export function eigFlat(
     }
   }
   if (!order && helperWanted(n, THREADS_MIN, opts.threads)) {
-    const session = Session.open(n);
+    const session = Session.open(n, opts.threads === true);
     if (session) {
       try {
         return eigWithHelper(a, n, opts, session);

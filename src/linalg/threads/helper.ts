@@ -330,7 +330,7 @@ export function sharedCopy(a: Float64Array): Float64Array {
 
 /**
  * One decomposition's session with the helper: the shared buffers and the ring. Null when the
- * helper cannot start.
+ * helper cannot start or is still starting (not forced).
  */
 export class Session {
   readonly job: Job;
@@ -340,10 +340,16 @@ export class Session {
   private readonly batch: number;
   private ended = false;
 
-  static open(nn: number): Session | null {
+  static open(nn: number, force: boolean): Session | null {
     const s = start();
     if (!s) return null;
-    if (Atomics.load(s.ctrl, L.STATE) === 2) {
+    // a helper still starting would join late with its loops not compiled yet: the first call
+    // runs on one thread (unless forced, as by the tests), later ones get the helper
+    if (Atomics.load(s.ctrl, L.STATE) === 0) {
+      if (!force) return null;
+      waitAtLeast(s.ctrl, L.STATE, 1, L.STATE, 100);
+    }
+    if (Atomics.load(s.ctrl, L.STATE) !== 1) {
       unavailable = true;
       return null;
     }
