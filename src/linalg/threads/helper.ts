@@ -583,10 +583,14 @@ export class Session {
   /** Ends the job and waits for the helper (also after an exception on the main thread). */
   close(): void {
     if (this.ended) return;
+    try {
+      const pos = this.reserve(1);
+      this.job.ring[pos] = L.OP_END;
+      this.publish(1);
+      this.await(L.TAIL, this.head);
+    } catch {
+      // a failed helper is already marked unavailable; an error of the main thread stays the one reported
+    }
     this.ended = true;
-    const pos = this.reserve(1);
-    this.job.ring[pos] = L.OP_END;
-    this.publish(1);
-    this.await(L.TAIL, this.head);
   }
 }
