@@ -77,8 +77,10 @@ const SYMMETRIC_TOL = 1e-13;
 const INVERSE_ITERATION_MIN = 16;
 // eigenvalues closer than this fraction of ‖H‖ count as repeated (see wellSeparated)
 const SEPARATION = 1e-8;
-// from this size on the dense path uses the helper thread (threads/helper.ts)
-const THREADS_MIN = 120;
+// from this size on the dense path uses the helper thread (threads/helper.ts); measured on random
+// matrices (medians, both cores free): slower with the helper at 120–170, about even at 200,
+// faster from 250 on
+const THREADS_MIN = 200;
 // Hessenberg steps on fewer columns than this stay on the main thread (the waits would dominate)
 const HESSENBERG_SHARED_MIN = 48;
 
@@ -158,7 +160,7 @@ function denseEig(
   V: Float64Array,
 ): EigFlatResult {
   if (!order && helperWanted(n, THREADS_MIN, opts.threads)) {
-    const session = Session.open(n);
+    const session = Session.open(n, opts.threads === true);
     if (session) {
       try {
         return eigWithHelper(a, n, opts, session);

@@ -374,7 +374,7 @@ export function sharedCopy(a: Float64Array): Float64Array {
 
 /**
  * One decomposition's session with the helper: the shared buffers and the ring. Null when the
- * helper cannot start.
+ * helper cannot start or is still starting (not forced).
  */
 export class Session {
   readonly job: Job;
@@ -384,10 +384,16 @@ export class Session {
   private readonly batch: number;
   private ended = false;
 
-  static open(nn: number): Session | null {
+  static open(nn: number, force: boolean): Session | null {
     const s = start();
     if (!s) return null;
-    if (Atomics.load(s.ctrl, L.STATE) === 2) {
+    // a helper still starting would join late with its loops not compiled yet: the first call
+    // runs on one thread (unless forced, as by the tests), later ones get the helper
+    if (Atomics.load(s.ctrl, L.STATE) === 0) {
+      if (!force) return null;
+      waitAtLeast(s.ctrl, L.STATE, 1, L.STATE, 100);
+    }
+    if (Atomics.load(s.ctrl, L.STATE) !== 1) {
       unavailable = true;
       return null;
     }
@@ -642,10 +648,14 @@ export class Session {
   /** Ends the job and waits for the helper (also after an exception on the main thread). */
   close(): void {
     if (this.ended) return;
+    try {
+      const pos = this.reserve(1);
+      this.job.ring[pos] = L.OP_END;
+      this.publish(1);
+      this.await(L.TAIL, this.head);
+    } catch {
+      // a failed helper is already marked unavailable; an error of the main thread stays the one reported
+    }
     this.ended = true;
-    const pos = this.reserve(1);
-    this.job.ring[pos] = L.OP_END;
-    this.publish(1);
-    this.await(L.TAIL, this.head);
   }
 }
