@@ -12,6 +12,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { eigFlat } from '../../src/linalg/eig.js';
+import { analyzeText } from '../../src/pipeline.js';
 import { KERNELS_WASM_BASE64 } from '../../src/linalg/simd/kernels-wasm.js';
 import { arenaClose, arenaF64, arenaOpen, ownedBy, simdKernels } from '../../src/linalg/simd/simd.js';
 import { randomMatrix, residual } from './matrices.js';
@@ -120,4 +121,45 @@ describe('WebAssembly kernels of the eigen-solver', () => {
       }
     });
   }
+
+  it('when the memory cannot grow, the call takes the JavaScript path (no arena)', () => {
+    expect(arenaOpen(2 ** 33)).toBe(false); // 64 GiB: beyond a WebAssembly memory
+    expect(arenaF64(1)).toBeNull();
+  });
+
+  it('a whole run of a 250-state lossy mesh gives the same samples and cross-check figure with and without them', () => {
+    // an RLC mesh written as a circuit (invented values, as in the benchmark's generator): nodes
+    // with capacitors to ground on a random tree plus chords, some edges R–L branches
+    let seed = 99;
+    const r = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 2 ** 32);
+    const M = 150;
+    const lines = ['voltage-source V1 in -> gnd step to 1V at 1u', 'resistor Rin in -> n1 10'];
+    for (let k = 1; k <= M; k++) lines.push(`capacitor C${k} n${k} -> gnd ${(1 + 99 * r()).toFixed(3)}e-8`);
+    const edges: [number, number][] = [];
+    for (let k = 2; k <= M; k++) edges.push([1 + Math.floor(r() * (k - 1)), k]);
+    for (let e = 0; e < M / 3; e++) edges.push([1 + Math.floor(r() * M), 1 + Math.floor(r() * M)]);
+    edges.forEach(([a, b], e) => {
+      if (a === b) return;
+      if (e < 100) {
+        lines.push(`resistor Re${e} n${a} -> x${e} ${(1 + 99 * r()).toFixed(3)}`);
+        lines.push(`inductor Le${e} x${e} -> n${b} ${(1 + 99 * r()).toFixed(3)}e-6`);
+      } else lines.push(`resistor Re${e} n${a} -> n${b} ${(10 + 990 * r()).toFixed(3)}`);
+    });
+    lines.push(`resistor Rload n${M} -> gnd 100`, 'watch node n1', `watch node n${M}`, 'samples 400');
+    const text = lines.join('\n') + '\n';
+    const before = process.env.RINGDOWN_SIMD;
+    try {
+      process.env.RINGDOWN_SIMD = '0';
+      const js = analyzeText(text, 'mesh.rdn', { partSignals: false });
+      delete process.env.RINGDOWN_SIMD;
+      const w = analyzeText(text, 'mesh.rdn', { partSignals: false });
+      expect(w.traces.length).toBe(2);
+      for (let k = 0; k < w.traces.length; k++) expect(Array.from(w.traces[k].values)).toEqual(Array.from(js.traces[k].values));
+      expect(w.crossCheck.maxRelError).toBe(js.crossCheck.maxRelError);
+      expect(w.crossCheck.passed).toBe(true);
+    } finally {
+      if (before === undefined) delete process.env.RINGDOWN_SIMD;
+      else process.env.RINGDOWN_SIMD = before;
+    }
+  });
 });
