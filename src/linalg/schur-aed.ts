@@ -88,97 +88,80 @@ export function aggressiveDeflation(
   // (the helper thread gets Ut through the ring, a copy)
   const mark = arenaMark();
   try {
-    return deflate(H, nn, l, n, jw, Vt, top, vectors, schur, shifts, maxPairs, pipe);
+    const kwtop = n - jw + 1;
+    const s = kwtop > l ? H[kwtop * nn + kwtop - 1] : 0;
+    const T = sharedF64(jw * jw);
+    for (let i = 0; i < jw; i++) {
+      const b = (kwtop + i) * nn + kwtop;
+      for (let j = Math.max(i - 1, 0); j < jw; j++) T[i * jw + j] = H[b + j];
+    }
+    const Ut = sharedF64(jw * jw);
+    for (let i = 0; i < jw; i++) Ut[i * jw + i] = 1;
+    const d = new Float64Array(jw);
+    const e = new Float64Array(jw);
+    try {
+      schur(T, jw, Ut, d, e);
+    } catch {
+      return null;
+    }
+    // the exact quasi-triangular form: the QR iteration leaves negligible subdiagonal entries where it
+    // deflated and stale bulge entries below; a 2×2 block is a complex pair (e > 0 at its top row)
+    for (let i = 1; i < jw; i++) {
+      const b = i * jw;
+      for (let j = 0; j < i - 1; j++) T[b + j] = 0;
+      if (!(e[i - 1] > 0)) T[b + i - 1] = 0;
+    }
+
+    // deflation test from the bottom; undeflatable blocks move up to position ilst
+    const small = SAFE_MIN * (jw / EPS);
+    let ns = jw;
+    let ilst = 0;
+    while (ilst < ns) {
+      const k = ns - 1;
+      const pair = k > ilst && T[k * jw + k - 1] !== 0;
+      if (!pair) {
+        let foo = Math.abs(T[k * jw + k]);
+        if (foo === 0) foo = Math.abs(s);
+        if (Math.abs(s * Ut[k * jw]) <= Math.max(small, EPS * foo)) {
+          ns--;
+          continue;
+        }
+        if (!moveUp(T, Ut, jw, k, 1, ilst)) break;
+        ilst++;
+      } else {
+        let foo = Math.abs(T[k * jw + k]) + Math.sqrt(Math.abs(T[k * jw + k - 1])) * Math.sqrt(Math.abs(T[(k - 1) * jw + k]));
+        if (foo === 0) foo = Math.abs(s);
+        if (Math.max(Math.abs(s * Ut[k * jw]), Math.abs(s * Ut[(k - 1) * jw])) <= Math.max(small, EPS * foo)) {
+          ns -= 2;
+          continue;
+        }
+        if (!moveUp(T, Ut, jw, k - 1, 2, ilst)) break;
+        ilst += 2;
+      }
+    }
+    const pairs = shiftPairs(T, jw, ns, shifts, maxPairs);
+    const deflated = jw - ns;
+    if (deflated === 0 && s !== 0) return { deflated: 0, pairs };
+
+    if (ns > 1 && s !== 0) restoreHessenberg(T, Ut, jw, ns);
+    if (kwtop > l) H[kwtop * nn + kwtop - 1] = s * Ut[0];
+    for (let i = 0; i < jw; i++) {
+      const b = (kwtop + i) * nn + kwtop;
+      for (let j = 0; j < jw; j++) H[b + j] = j >= i - 1 ? T[i * jw + j] : 0;
+    }
+    // the rest of the similarity: rows above the window (H := H·U), columns to its right (H := Uᵀ·H)
+    // and the Schur vectors (V := V·U, i.e. Vt := Uᵀ·Vt)
+    if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
+    if (vectors) {
+      const K = mainKernels();
+      if (n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, scratchFor(H, jw * (nn - n - 1)));
+      if (pipe) pipe.aed(kwtop, Ut, jw);
+      else K.leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, scratchFor(Vt, jw * nn));
+    }
+    return { deflated, pairs };
   } finally {
     arenaRelease(mark);
   }
-}
-
-function deflate(
-  H: Float64Array,
-  nn: number,
-  l: number,
-  n: number,
-  jw: number,
-  Vt: Float64Array,
-  top: number,
-  vectors: boolean,
-  schur: SchurFn,
-  shifts: Float64Array,
-  maxPairs: number,
-  pipe: Session | null,
-): AedOutcome | null {
-  const kwtop = n - jw + 1;
-  const s = kwtop > l ? H[kwtop * nn + kwtop - 1] : 0;
-  const T = sharedF64(jw * jw);
-  for (let i = 0; i < jw; i++) {
-    const b = (kwtop + i) * nn + kwtop;
-    for (let j = Math.max(i - 1, 0); j < jw; j++) T[i * jw + j] = H[b + j];
-  }
-  const Ut = sharedF64(jw * jw);
-  for (let i = 0; i < jw; i++) Ut[i * jw + i] = 1;
-  const d = new Float64Array(jw);
-  const e = new Float64Array(jw);
-  try {
-    schur(T, jw, Ut, d, e);
-  } catch {
-    return null;
-  }
-  // the exact quasi-triangular form: the QR iteration leaves negligible subdiagonal entries where it
-  // deflated and stale bulge entries below; a 2×2 block is a complex pair (e > 0 at its top row)
-  for (let i = 1; i < jw; i++) {
-    const b = i * jw;
-    for (let j = 0; j < i - 1; j++) T[b + j] = 0;
-    if (!(e[i - 1] > 0)) T[b + i - 1] = 0;
-  }
-
-  // deflation test from the bottom; undeflatable blocks move up to position ilst
-  const small = SAFE_MIN * (jw / EPS);
-  let ns = jw;
-  let ilst = 0;
-  while (ilst < ns) {
-    const k = ns - 1;
-    const pair = k > ilst && T[k * jw + k - 1] !== 0;
-    if (!pair) {
-      let foo = Math.abs(T[k * jw + k]);
-      if (foo === 0) foo = Math.abs(s);
-      if (Math.abs(s * Ut[k * jw]) <= Math.max(small, EPS * foo)) {
-        ns--;
-        continue;
-      }
-      if (!moveUp(T, Ut, jw, k, 1, ilst)) break;
-      ilst++;
-    } else {
-      let foo = Math.abs(T[k * jw + k]) + Math.sqrt(Math.abs(T[k * jw + k - 1])) * Math.sqrt(Math.abs(T[(k - 1) * jw + k]));
-      if (foo === 0) foo = Math.abs(s);
-      if (Math.max(Math.abs(s * Ut[k * jw]), Math.abs(s * Ut[(k - 1) * jw])) <= Math.max(small, EPS * foo)) {
-        ns -= 2;
-        continue;
-      }
-      if (!moveUp(T, Ut, jw, k - 1, 2, ilst)) break;
-      ilst += 2;
-    }
-  }
-  const pairs = shiftPairs(T, jw, ns, shifts, maxPairs);
-  const deflated = jw - ns;
-  if (deflated === 0 && s !== 0) return { deflated: 0, pairs };
-
-  if (ns > 1 && s !== 0) restoreHessenberg(T, Ut, jw, ns);
-  if (kwtop > l) H[kwtop * nn + kwtop - 1] = s * Ut[0];
-  for (let i = 0; i < jw; i++) {
-    const b = (kwtop + i) * nn + kwtop;
-    for (let j = 0; j < jw; j++) H[b + j] = j >= i - 1 ? T[i * jw + j] : 0;
-  }
-  // the rest of the similarity: rows above the window (H := H·U), columns to its right (H := Uᵀ·H)
-  // and the Schur vectors (V := V·U, i.e. Vt := Uᵀ·Vt)
-  if (top < kwtop) rightMultiply(H, nn, top, kwtop - 1, kwtop, Ut, jw);
-  if (vectors) {
-    const K = mainKernels();
-    if (n + 1 < nn) K.leftMultiply(H, nn, kwtop, n + 1, nn - 1, Ut, jw, scratchFor(H, jw * (nn - n - 1)));
-    if (pipe) pipe.aed(kwtop, Ut, jw);
-    else K.leftMultiply(Vt, nn, kwtop, 0, nn - 1, Ut, jw, scratchFor(Vt, jw * nn));
-  }
-  return { deflated, pairs };
 }
 
 /**
