@@ -263,10 +263,13 @@ class LineParser {
     st.rated = { keyLoc: key.loc, values } satisfies RatedNode;
   }
 
-  /** A word left at the end of a part line that is a near miss of `rated`. */
+  /**
+   * A word left at the end of a part line that is a near miss of `rated`, or another form of the
+   * word (rating, ratings, rate: what an engineer writes first)
+   */
   private nearRated(): void {
     const next = this.peek();
-    if (next?.kind === 'word' && next.text !== RATED && didYouMean(next.text, [RATED])) {
+    if (next?.kind === 'word' && next.text !== RATED && (didYouMean(next.text, [RATED]) || /^ratings?$/i.test(next.text))) {
       this.fail(next.loc, `unknown keyword '${next.text}'`, { hint: `did you mean '${RATED}'?`, expected: RATED_EXAMPLE });
     }
   }

@@ -119,6 +119,9 @@ describe('rated', () => {
     const sw = 'switch S1 out -> gnd on 1ohm rated 30V closse 1ms';
     expect(errors(circuit(sw))[0]).toMatchObject({ message: "unknown keyword 'closse'", hint: "did you mean 'closes'?", loc: { line: 5, col: col(sw, 'closse') } });
     expect(errors(circuit('current-source I2 gnd -> out 1mA rted 30V'))[0]).toMatchObject({ hint: "did you mean 'rated'?" });
+    const cap = 'capacitor C2 out -> gnd 10uF rating 6.3V';
+    expect(errors(circuit(cap))[0]).toMatchObject({ message: "unknown keyword 'rating'", hint: "did you mean 'rated'?", loc: { line: 5, col: col(cap, 'rating') } });
+    expect(errors(circuit('inductor L2 out -> gnd 1uH ratings 3A'))[0]).toMatchObject({ hint: "did you mean 'rated'?" });
   });
 
   it('reports rating errors together with the part’s other errors', () => {
