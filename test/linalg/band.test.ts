@@ -75,7 +75,8 @@ describe('band LU', () => {
   });
 
   it('rows stop at their last nonzero: the same bits as updating the whole band, for rows half empty within it', () => {
-    // the reference is the textbook band elimination (every row update runs to the band's edge);
+    // the reference is the textbook band elimination (Golub & Van Loan, Matrix Computations, §4.3,
+    // from memory: every row update runs to the band's edge);
     // skipping the entries that are zero in the pivot row subtracts f·0, which changes nothing
     for (const [n, kl, ku] of [
       [90, 6, 9],
