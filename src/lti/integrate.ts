@@ -315,6 +315,10 @@ export class RepeatedIntegrals {
   private readonly byLength = new Map<number, Layout[]>();
   private readonly scratch: Monos = { cre: [], cim: [], k: [], kre: [], kim: [] };
   private layouts = 0;
+  /** pair integrals held by the large layouts (per array) */
+  private entries = 0;
+  /** lengths integrated directly so far (a large layout is built for a length seen again) */
+  private readonly lengths: number[] = [];
 
   // the periods of a steady tail share their term arrays: the same array and length, the same integrals
   private readonly seen = new Map<Term[], { T: number; sum: number; square: number }>();
@@ -335,12 +339,16 @@ export class RepeatedIntegrals {
     const m = this.scratch;
     const M = monomialsInto(terms, m);
     if (M > MAX_LAYOUT || this.layouts >= MAX_LAYOUTS) {
-      this.sum = integrateTerms(terms, T);
-      this.square = integrateProduct(terms, terms, T);
+      this.direct(terms, T);
       return;
     }
-    let list = this.byLength.get(T);
-    if (!list) this.byLength.set(T, (list = []));
+    // the cycles of a pulse train have lengths that differ in their last bits (each is a difference
+    // of two breakpoints): a layout of a length within a few ulps serves, and the piece's own range
+    // [0, T] differs from the layout's [0, T0] by f(T0)·(T − T0) and f(T0)²·(T − T0) to first order
+    // (the next term, f·f'·(T − T0)², is far below rounding)
+    const T0 = this.nearLength(T);
+    let list = this.byLength.get(T0);
+    if (!list) this.byLength.set(T0, (list = []));
     let L: Layout | undefined;
     for (const l of list) {
       if (sameLayout(l, m, M)) {
@@ -349,7 +357,18 @@ export class RepeatedIntegrals {
       }
     }
     if (!L) {
-      L = makeLayout(m, M, T);
+      // a large layout (hundreds of states under a pulse train) costs two direct integrations and
+      // 4·M² numbers to build: only for a length seen before, within a memory budget
+      if (M > SMALL_LAYOUT) {
+        const seen = this.lengths.some((t) => sameLength(t, T));
+        if (!seen || this.entries + M * M > MAX_ENTRIES) {
+          if (!seen) this.lengths.push(T);
+          this.direct(terms, T);
+          return;
+        }
+        this.entries += M * M;
+      }
+      L = makeLayout(m, M, T0);
       list.push(L);
       this.layouts++;
     }
@@ -384,14 +403,61 @@ export class RepeatedIntegrals {
         sq += 0.5 * (pr * L.G1re[at]! - pi * L.G1im[at]! + qr * L.G2re[at]! - qi * L.G2im[at]!);
       }
     }
+    if (T !== T0) {
+      const f = valueAt(m, M, T0);
+      if (!Number.isFinite(f)) {
+        this.direct(terms, T); // a growing term out of range at T0: no first-order step
+        return;
+      }
+      sum += f * (T - T0);
+      sq += f * f * (T - T0);
+    }
     this.sum = sum;
     this.square = sq;
   }
+
+  private direct(terms: Term[], T: number): void {
+    this.sum = integrateTerms(terms, T);
+    this.square = integrateProduct(terms, terms, T);
+  }
+
+  /** A length already keyed within a few ulps of T, or T itself. */
+  private nearLength(T: number): number {
+    if (this.byLength.has(T)) return T;
+    for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
+    return T;
+  }
 }
 
-/** Largest layout (monomials) worth caching, and most layouts kept per measurement. */
-const MAX_LAYOUT = 32;
+/** Two piece lengths within 8 ulps of each other (the rounding of two breakpoint differences). */
+function sameLength(a: number, b: number): boolean {
+  return Math.abs(a - b) <= 8 * Number.EPSILON * Math.max(Math.abs(a), Math.abs(b));
+}
+
+/** Re Σ c·τ^k·e^(κτ) at τ = t over the first M monomials. */
+function valueAt(m: Monos, M: number, t: number): number {
+  let y = 0;
+  for (let x = 0; x < M; x++) {
+    const e = Math.exp(m.kre[x] * t);
+    if (e === 0) continue;
+    const w = m.kim[x] * t;
+    const p = m.k[x] === 0 ? e : e * t ** m.k[x];
+    y += p * (m.cre[x] * Math.cos(w) - m.cim[x] * Math.sin(w));
+  }
+  return y;
+}
+
+/**
+ * Largest layout (monomials) worth caching, and most layouts kept per measurement. Above
+ * SMALL_LAYOUT a layout is built only for a length seen before, and the large ones together hold
+ * at most MAX_ENTRIES pair integrals per array (4 arrays of 12 MB): a mesh of a few hundred
+ * states under a pulse train then integrates each cycle's pieces as quadratic forms instead of
+ * M²/2 pair integrals each.
+ */
+const MAX_LAYOUT = 1024;
+const SMALL_LAYOUT = 32;
 const MAX_LAYOUTS = 4096;
+const MAX_ENTRIES = 3 * 2 ** 20;
 
 interface Layout {
   k: number[];
@@ -434,15 +500,18 @@ function makeLayout(m: Monos, M: number, T: number): Layout {
   const G1im = new Float64Array(M * M);
   const G2re = new Float64Array(M * M);
   const G2im = new Float64Array(M * M);
-  for (let x = 0; x < M; x++) {
-    for (let y = 0; y < M; y++) {
-      const k = m.k[x] + m.k[y];
-      powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] + m.kim[y], T);
-      G1re[x * M + y] = outRe;
-      G1im[x * M + y] = outIm;
-      powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] - m.kim[y], T);
-      G2re[x * M + y] = outRe;
-      G2im[x * M + y] = outIm;
+  if (M > SMALL_LAYOUT) largePairs(m, M, T, G1re, G1im, G2re, G2im);
+  else {
+    for (let x = 0; x < M; x++) {
+      for (let y = 0; y < M; y++) {
+        const k = m.k[x] + m.k[y];
+        powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] + m.kim[y], T);
+        G1re[x * M + y] = outRe;
+        G1im[x * M + y] = outIm;
+        powerExpIntegralInto(k, m.kre[x] + m.kre[y], m.kim[x] - m.kim[y], T);
+        G2re[x * M + y] = outRe;
+        G2im[x * M + y] = outIm;
+      }
     }
   }
   const L: Layout = {
@@ -466,6 +535,45 @@ function makeLayout(m: Monos, M: number, T: number): Layout {
   };
   fixedPart(L);
   return L;
+}
+
+/**
+ * The pair integrals of a large layout the way squareOf takes them: each unordered pair once
+ * (G1 is symmetric, G2[y][x] is the conjugate of G2[x][y], exactly: κy + conj κx = conj(κx + conj κy)),
+ * with e^((κx ± κy)T) as products of the monomials' own e^(κT) instead of an exp, a cos and a sin
+ * per pair (powerExpIntegralWith).
+ */
+function largePairs(m: Monos, M: number, T: number, G1re: Float64Array, G1im: Float64Array, G2re: Float64Array, G2im: Float64Array): void {
+  const er = new Float64Array(M);
+  const ei = new Float64Array(M);
+  for (let x = 0; x < M; x++) {
+    const zr = m.kre[x] * T;
+    if (!(zr <= 0)) {
+      er[x] = NaN;
+      continue;
+    }
+    if (zr < -745) continue;
+    const e = Math.exp(zr);
+    er[x] = e * Math.cos(m.kim[x] * T);
+    ei[x] = e * Math.sin(m.kim[x] * T);
+  }
+  for (let x = 0; x < M; x++) {
+    const xr = er[x];
+    const xi = ei[x];
+    for (let y = x; y < M; y++) {
+      const k = m.k[x] + m.k[y];
+      const kr = m.kre[x] + m.kre[y];
+      const yr = er[y];
+      const yi = ei[y];
+      powerExpIntegralWith(k, kr, m.kim[x] + m.kim[y], T, xr * yr - xi * yi, xr * yi + xi * yr);
+      G1re[x * M + y] = G1re[y * M + x] = outRe;
+      G1im[x * M + y] = G1im[y * M + x] = outIm;
+      powerExpIntegralWith(k, kr, m.kim[x] - m.kim[y], T, xr * yr + xi * yi, xi * yr - xr * yi);
+      G2re[x * M + y] = G2re[y * M + x] = outRe;
+      G2im[x * M + y] = outIm;
+      G2im[y * M + x] = -outIm;
+    }
+  }
 }
 
 /** ∫F, ∫F² and w for the fixed part F of a layout (c0 off the varying set). */

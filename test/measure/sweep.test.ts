@@ -219,6 +219,60 @@ describe('integrals of many pieces of one layout (RepeatedIntegrals)', () => {
   });
 });
 
+describe('large layouts (a circuit of hundreds of states under a pulse train)', () => {
+  // 40 real exponentials and 20 damped oscillations (80 monomials: above the small-layout size),
+  // their coefficients changing from piece to piece as a free response's do; the lengths of the
+  // pieces differ in their last bits, as differences of breakpoints do. Reference: the direct
+  // integrals of each piece (integrateTerms / integrateProduct, the closed forms term by term).
+  const piece = (k: number): Term[] => {
+    const t: Term[] = [{ kind: 'exp', lambda: 0, coef: 1 + 0.1 * k }];
+    for (let i = 0; i < 40; i++) t.push({ kind: 'exp', lambda: -1e3 * (1 + i) ** 1.5, coef: Math.sin(7 * i + k) });
+    for (let i = 0; i < 20; i++) t.push({ kind: 'osc', sigma: -5e3 * (1 + i), omega: 2e4 * (1 + i), cosCoef: Math.cos(3 * i + k), sinCoef: 0.5 * Math.sin(i - k) });
+    return t;
+  };
+  const T0 = 7e-5;
+  const lengths = [T0, T0 * (1 + 2 * Number.EPSILON), T0 * (1 - 3 * Number.EPSILON), T0, T0 * (1 + 6 * Number.EPSILON), 2e-5, T0 * (1 - Number.EPSILON)];
+
+  it('each piece matches its direct integrals, whichever layout (and length within a few ulps) serves it', () => {
+    const r = new RepeatedIntegrals();
+    lengths.forEach((T, k) => {
+      const t = piece(k);
+      r.integrate(t, T);
+      const sq = integrateProduct(t, t, T);
+      const sum = integrateTerms(t, T);
+      expect(rel(r.square, sq)).toBeLessThan(1e-13);
+      expect(Math.abs(r.sum - sum)).toBeLessThan(1e-13 * Math.abs(sum) + 1e-18);
+    });
+  });
+
+  it('a length a few ulps off is carried by f(T0)·(T − T0) and f(T0)²·(T − T0): a term that ends far above its mean', () => {
+    // c·e^(λτ) with λT = 300: f(T)² is 600 times the mean of f² over [0, T], so 8 ulps of T
+    // change ∫f² by about 1e-12 of itself, which the step carries (without it this fails)
+    const T = 1e-4;
+    const grow = (k: number): Term[] => {
+      const t: Term[] = [{ kind: 'exp', lambda: 300 / T, coef: 1e-130 * (1 + 0.01 * k) }];
+      for (let i = 0; i < 40; i++) t.push({ kind: 'exp', lambda: -1e3 * (1 + i), coef: 1e-3 * Math.sin(i + k) });
+      return t;
+    };
+    const r = new RepeatedIntegrals();
+    [T, T, T * (1 + 8 * Number.EPSILON), T * (1 - 8 * Number.EPSILON)].forEach((L, k) => {
+      const t = grow(k);
+      r.integrate(t, L);
+      expect(rel(r.square, integrateProduct(t, t, L))).toBeLessThan(2e-13);
+      expect(rel(r.sum, integrateTerms(t, L))).toBeLessThan(2e-13);
+    });
+  });
+
+  it('a length 1e-9 away is not the same length (its own integrals)', () => {
+    const r = new RepeatedIntegrals();
+    for (const T of [T0, T0, T0 + 1e-9 * T0, T0 + 1e-9 * T0]) {
+      const t = piece(3);
+      r.integrate(t, T);
+      expect(rel(r.square, integrateProduct(t, t, T))).toBeLessThan(1e-13);
+    }
+  });
+});
+
 describe('pieces sharing a term array (the periods of a steady tail)', () => {
   it('the same array over the same length gives the same integrals, over another length its own', () => {
     const r = new RepeatedIntegrals();
