@@ -317,8 +317,6 @@ export class RepeatedIntegrals {
   private layouts = 0;
   /** pair integrals held by the large layouts (per array) */
   private entries = 0;
-  /** lengths integrated directly so far (a large layout is built for a length seen again) */
-  private readonly lengths: number[] = [];
 
   // the periods of a steady tail share their term arrays: the same array and length, the same integrals
   private readonly seen = new Map<Term[], { T: number; sum: number; square: number }>();
@@ -357,12 +355,10 @@ export class RepeatedIntegrals {
       }
     }
     if (!L) {
-      // a large layout (hundreds of states under a pulse train) costs two direct integrations and
-      // 4·M² numbers to build: only for a length seen before, within a memory budget
+      // a large layout (hundreds of states under a pulse train) costs about one direct
+      // integration (each pair once) and 4·M² numbers: within a memory budget
       if (M > SMALL_LAYOUT) {
-        const seen = this.lengths.some((t) => sameLength(t, T));
-        if (!seen || this.entries + M * M > MAX_ENTRIES) {
-          if (!seen) this.lengths.push(T);
+        if (this.entries + M * M > MAX_ENTRIES) {
           this.direct(terms, T);
           return;
         }
@@ -448,16 +444,15 @@ function valueAt(m: Monos, M: number, t: number): number {
 }
 
 /**
- * Largest layout (monomials) worth caching, and most layouts kept per measurement. Above
- * SMALL_LAYOUT a layout is built only for a length seen before, and the large ones together hold
- * at most MAX_ENTRIES pair integrals per array (4 arrays of 12 MB): a mesh of a few hundred
- * states under a pulse train then integrates each cycle's pieces as quadratic forms instead of
- * M²/2 pair integrals each.
+ * Largest layout (monomials) worth caching, and most layouts kept per measurement. The layouts
+ * above SMALL_LAYOUT monomials together hold at most MAX_ENTRIES pair integrals per array (4 arrays
+ * of 32 MB): a mesh of a few hundred states under a pulse train then integrates each cycle's
+ * pieces as quadratic forms instead of M²/2 pair integrals each.
  */
-const MAX_LAYOUT = 1024;
+const MAX_LAYOUT = 2048;
 const SMALL_LAYOUT = 32;
 const MAX_LAYOUTS = 4096;
-const MAX_ENTRIES = 3 * 2 ** 20;
+const MAX_ENTRIES = 4 * 2 ** 20;
 
 interface Layout {
   k: number[];
