@@ -446,13 +446,13 @@ function valueAt(m: Monos, M: number, t: number): number {
 /**
  * Largest layout (monomials) worth caching, and most layouts kept per measurement. The layouts
  * above SMALL_LAYOUT monomials together hold at most MAX_ENTRIES pair integrals per array (4 arrays
- * of 32 MB): a mesh of a few hundred states under a pulse train then integrates each cycle's
+ * of 48 MB): a mesh of a few hundred states under a pulse train then integrates each cycle's
  * pieces as quadratic forms instead of M²/2 pair integrals each.
  */
 const MAX_LAYOUT = 2048;
 const SMALL_LAYOUT = 32;
 const MAX_LAYOUTS = 4096;
-const MAX_ENTRIES = 4 * 2 ** 20;
+const MAX_ENTRIES = 6 * 2 ** 20;
 
 interface Layout {
   k: number[];
