@@ -61,7 +61,7 @@ export interface EigFlatResult {
 import { tridiagonalEigenvaluesComplex } from './complex-symmetric-tridiagonal.js';
 import { hessenbergEigenvectors } from './hessenberg-vectors.js';
 import { aggressiveDeflation, type SchurFn } from './schur-aed.js';
-import { arenaClose, arenaI32, arenaOpen, ownedBy, simdInstance } from './simd/simd.js';
+import { arenaClose, arenaI32, arenaOpen, ownedBy, simdInstance, type SimdExports } from './simd/simd.js';
 import { hessenbergSplit, reflect3 } from './threads/kernels.js';
 import { HelperFailed, L_LEFT, L_RIGHT, Session, helperWanted, sharedCopy, sharedF64 } from './threads/helper.js';
 import { mainKernels } from './threads/simd-kernels.js';
@@ -655,7 +655,8 @@ const schurForm: SchurFn = (T, n, Ut, d, e) => hqr2(T, n, Ut, d, e, true, false)
  *
  * The loops over memory live in small kernels (slide1, slide2, reflect*): the optimizing compiler
  * then compiles each on its own, instead of compiling a long first loop on the fly and stalling
- * on the code after it, which has not run yet (measured: first calls 2× slower).
+ * on the code after it, which has not run yet (measured: first calls 2× slower). X: the
+ * WebAssembly kernels when H and the reflectors are in their memory (hqr2 decides once).
  */
 function sweepRest(
   H: Float64Array,
@@ -671,6 +672,7 @@ function sweepRest(
   rr: Float64Array,
   vectors: boolean,
   pipe: Session | null,
+  X: SimdExports | null,
 ): void {
   if (vectors) {
     const K = mainKernels();
@@ -678,8 +680,7 @@ function sweepRest(
     if (pipe) pipe.sweep(m, n, rx, ry, rz, rq, rr);
     else K.applyLeft(Vt, nn, 0, nn - 1, m, n, rx, ry, rz, rq, rr, true);
   }
-  const X = simdInstance();
-  if (X && ownedBy(H) && ownedBy(rx) && ownedBy(ry) && ownedBy(rz) && ownedBy(rq) && ownedBy(rr)) {
+  if (X) {
     X.slideRows(H.byteOffset, nn, top, m, n, rx.byteOffset, ry.byteOffset, rz.byteOffset, rq.byteOffset, rr.byteOffset);
     return;
   }
@@ -1057,7 +1058,7 @@ function hqr2(
       // Double QR step on rows l..n and columns m..n (francisSweep), then the deferred rest
       if (chase) chase.francisSweep(H.byteOffset, nn, l, m, n, p, q, r, rx.byteOffset, ry.byteOffset, rz.byteOffset, rq.byteOffset, rr.byteOffset);
       else francisSweep(H, nn, l, m, n, p, q, r, rx, ry, rz, rq, rr);
-      sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors, pipe);
+      sweepRest(H, Vt, nn, vectors ? 0 : l, m, n, rx, ry, rz, rq, rr, vectors, pipe, chase);
     }
   }
 

@@ -228,11 +228,10 @@ function squareOf(a: Monos, T: number): number {
  * exactly 0 (below e^(−745), as is every pair's sum with it); a growing one is NaN, and its pairs
  * are computed directly (a product could leave the range of doubles where the sum does not).
  */
-function growths(a: Monos, T: number): { er: Float64Array; ei: Float64Array } {
-  const n = a.k.length;
-  const er = new Float64Array(n);
-  const ei = new Float64Array(n);
-  for (let x = 0; x < n; x++) {
+function growths(a: Monos, T: number, M = a.k.length): { er: Float64Array; ei: Float64Array } {
+  const er = new Float64Array(M);
+  const ei = new Float64Array(M);
+  for (let x = 0; x < M; x++) {
     const zr = a.kre[x] * T;
     if (!(zr <= 0)) {
       er[x] = NaN;
@@ -539,19 +538,8 @@ function makeLayout(m: Monos, M: number, T: number): Layout {
  * per pair (powerExpIntegralWith).
  */
 function largePairs(m: Monos, M: number, T: number, G1re: Float64Array, G1im: Float64Array, G2re: Float64Array, G2im: Float64Array): void {
-  const er = new Float64Array(M);
-  const ei = new Float64Array(M);
-  for (let x = 0; x < M; x++) {
-    const zr = m.kre[x] * T;
-    if (!(zr <= 0)) {
-      er[x] = NaN;
-      continue;
-    }
-    if (zr < -745) continue;
-    const e = Math.exp(zr);
-    er[x] = e * Math.cos(m.kim[x] * T);
-    ei[x] = e * Math.sin(m.kim[x] * T);
-  }
+  // (the first M monomials: the scratch holds stale entries past them)
+  const { er, ei } = growths(m, T, M);
   for (let x = 0; x < M; x++) {
     const xr = er[x];
     const xi = ei[x];
