@@ -354,10 +354,12 @@ export class RepeatedIntegrals {
       }
     }
     if (!L) {
-      // a large layout (hundreds of states under a pulse train) costs about one direct
-      // integration (each pair once) and 4·M² numbers: within a memory budget
+      // a large layout (hundreds of states under a pulse train) costs several direct integrations
+      // (each pair once, then two passes for the fixed part) and 4·M² numbers: built only for a
+      // shape seen before at this length (a step response's one piece never repeats), within a
+      // memory budget
       if (M > SMALL_LAYOUT) {
-        if (this.entries + M * M > MAX_ENTRIES) {
+        if (!this.seenBefore(m, M, T0) || this.entries + M * M > MAX_ENTRIES) {
           this.direct(terms, T);
           return;
         }
@@ -422,6 +424,22 @@ export class RepeatedIntegrals {
     for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
     return T;
   }
+
+  // the shapes of large pieces integrated directly once, by length (a second one builds the layout)
+  private readonly firstSeen = new Map<number, Shape[]>();
+  private firstSeenCount = 0;
+
+  /** Whether a large piece of this shape and length came before; remembers it when not. */
+  private seenBefore(m: Monos, M: number, T0: number): boolean {
+    let list = this.firstSeen.get(T0);
+    if (list?.some((l) => sameLayout(l, m, M))) return true;
+    if (this.firstSeenCount < MAX_LAYOUTS) {
+      if (!list) this.firstSeen.set(T0, (list = []));
+      list.push({ k: m.k.slice(0, M), kre: m.kre.slice(0, M), kim: m.kim.slice(0, M) });
+      this.firstSeenCount++;
+    }
+    return false;
+  }
 }
 
 /** Two piece lengths within 8 ulps of each other (the rounding of two breakpoint differences). */
@@ -453,10 +471,14 @@ const SMALL_LAYOUT = 32;
 const MAX_LAYOUTS = 4096;
 const MAX_ENTRIES = 6 * 2 ** 20;
 
-interface Layout {
+/** A layout's shape: per monomial its power and exponent. */
+interface Shape {
   k: number[];
   kre: number[];
   kim: number[];
+}
+
+interface Layout extends Shape {
   /** ∫ τ^k·e^(κτ) per monomial */
   Ire: Float64Array;
   Iim: Float64Array;
@@ -476,7 +498,7 @@ interface Layout {
   wim: Float64Array;
 }
 
-function sameLayout(l: Layout, m: Monos, M: number): boolean {
+function sameLayout(l: Shape, m: Monos, M: number): boolean {
   if (l.k.length !== M) return false;
   for (let x = 0; x < M; x++) if (l.k[x] !== m.k[x] || l.kre[x] !== m.kre[x] || l.kim[x] !== m.kim[x]) return false;
   return true;
