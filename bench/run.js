@@ -24,6 +24,46 @@ import { fileURLToPath } from 'node:url';
 const HERE = dirname(fileURLToPath(import.meta.url));
 const ROOT = join(HERE, '..');
 const argv = process.argv.slice(2);
+const USAGE = `usage: npm run bench [-- options]
+
+Times ringdown's whole pipeline against scipy.signal.lsim on the same models and grids, a long PWM
+run against lsim and exact references, and the dense eigen-solver against numpy.linalg.eig.
+
+options:
+  --json               rows as a JSON array on stdout (notes go to stderr)
+  --states 100,400     state counts for the circuit cases (default 100,400,1000)
+  --eig 100,400,800    matrix sizes for the eig rows (default 100,400,800)
+  --timeout 180        seconds per circuit case before it is skipped (default 180)
+  --runs 5             timed repetitions after the first call; medians are reported (default 5)
+  --no-pwm             skip the PWM case
+  --no-ml              skip the ml-matrix column of the eig rows
+  --help               this text
+
+examples:
+  npm run bench
+  npm run bench -- --states 100,400 --eig 400 --no-pwm
+  npm run bench -- --json > bench.json`;
+const VALUED = ['--states', '--eig', '--timeout', '--runs'];
+const FLAGS = ['--json', '--no-pwm', '--no-ml', '--help', '-h'];
+for (let i = 0; i < argv.length; i++) {
+  const a = argv[i];
+  if (VALUED.includes(a)) {
+    const v = argv[++i];
+    const list = a === '--states' || a === '--eig';
+    const ok = v !== undefined && (list ? /^\d+(,\d+)*$/.test(v) : /^\d+(\.\d+)?$/.test(v) && Number(v) > 0);
+    if (!ok) {
+      console.error(`bench: ${a} needs ${list ? 'a comma-separated list of sizes, e.g. 100,400' : 'a positive number'}${v === undefined ? '' : `, got '${v}'`}`);
+      process.exit(2);
+    }
+  } else if (!FLAGS.includes(a)) {
+    console.error(`bench: unknown option '${a}'\n\n${USAGE}`);
+    process.exit(2);
+  }
+}
+if (argv.includes('--help') || argv.includes('-h')) {
+  console.log(USAGE);
+  process.exit(0);
+}
 const flag = (name) => argv.includes(name);
 const opt = (name, dflt) => {
   const i = argv.indexOf(name);
