@@ -120,6 +120,10 @@ export function modalDecomposition(A: Mat): Modal {
       for (const i of G) for (const j of H) dist = Math.min(dist, Math.hypot(re[i] - re[j], im[i] - im[j]));
       // (a verified slow mode is not round-off of zero: it merges only with its equals)
       const equal = dist <= 1e-9 * big + (G.some((i) => slow.has(i)) || H.some((j) => slow.has(j)) ? 0 : tiny);
+      // Equal ringing pairs with independent eigenvectors (identical underdamped or lossless
+      // sections) stay two pairs: a cluster's series around its real mean cannot carry the
+      // ringing (N = T − μI is then not nilpotent; its series needs ω·span terms and overflows).
+      if (equal && G.length === 2 && H.length === 2 && im[G[0]] !== 0 && im[H[0]] !== 0 && independentColumns(unit, [...G, ...H])) continue;
       if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
@@ -375,6 +379,18 @@ function refinedSolve(W: Mat, P: (X: Mat) => Mat, M: Mat): Mat {
     if (dMax.every((d, j) => d <= 4 * Number.EPSILON * xMax[j])) break;
   }
   return X;
+}
+
+/**
+ * Whether the unit columns span as many dimensions as there are of them, with room to spare:
+ * their smallest singular value is at least PARALLEL (two equal ringing pairs whose Re v, Im v
+ * are four independent directions, or two directions of one eigenspace nearly the same).
+ */
+function independentColumns(unit: (j: number) => Float64Array, cols: number[]): boolean {
+  const M = new Matrix(unit(cols[0]).length, cols.length);
+  cols.forEach((c, k) => unit(c).forEach((x, r) => M.set(r, k, x)));
+  const sv = new SingularValueDecomposition(M, { computeLeftSingularVectors: false, computeRightSingularVectors: false, autoTranspose: true }).diagonal;
+  return Math.min(...sv) >= PARALLEL;
 }
 
 /** Sine of the largest principal angle between span(V[:,a]) and span(V[:,b]), roughly. */
