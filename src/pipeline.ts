@@ -5,6 +5,7 @@ import { describeStructure } from './circuit/structure.js';
 import { InputError } from './diagnostics.js';
 import { computeMetrics } from './measure/metrics.js';
 import { releaseTables, shareTables } from './measure/sweep.js';
+import { releaseGrams, shareGrams } from './lti/integrate.js';
 import { ReductionError } from './model/build.js';
 import type { RunResult } from './simulate/result.js';
 import { simulate } from './simulate/run.js';
@@ -43,8 +44,10 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     throw e;
   }
   const events = eventTimes(circuit, sim.span);
-  // the watches' measurements share their power tables (measure/sweep.ts) for this call
+  // the watches' measurements share their power tables (measure/sweep.ts) and the Gram matrices of
+  // their RMS integrals (lti/integrate.ts) for this call
   shareTables(sim.times);
+  shareGrams(sim.times);
   const traces = sim.signals.map((s) => ({
     label: s.watch.label,
     unit: s.watch.unit,
@@ -54,6 +57,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     metrics: computeMetrics(sim.times, s.values, s.pieces, circuit.analysis.settle, s.watch.threshold, events),
   }));
   releaseTables(sim.times);
+  releaseGrams(sim.times);
   return {
     circuit,
     states: sim.states,

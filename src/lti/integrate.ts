@@ -299,10 +299,11 @@ function powerExpIntegralWith(k: number, kr: number, ki: number, T: number, er: 
  * ∫0^T f and ∫0^T f² for many pieces of a few shapes (the cycles of a long pulse train). Pieces
  * of one length whose terms have the same exponents and powers (one "layout") differ only in
  * coefficients, mostly only in those of the free response: ∫f² is a quadratic form in the
- * coefficient vector c, ∫f a linear one, with matrices of monomial integrals fixed by the layout.
- * The layout keeps its first piece's coefficients c0 and the set V of monomials seen to differ from
- * them; with F = c0 off V and d = c on V, ∫f² = Q(F) + 2·B(F, d) + Q(d), where Q(F) and the vector
- * of B(F, ·) are computed once: a piece then costs |V|² pair terms instead of all pairs. The
+ * coefficient vector c, ∫f a linear one, with matrices of monomial integrals fixed by the layout
+ * (its Gram matrices, `Gram`, shared by every measurement that uses the same store). Per layout,
+ * a measurement keeps its first piece's coefficients c0 and the set V of monomials seen to differ
+ * from them; with F = c0 off V and d = c on V, ∫f² = Q(F) + 2·B(F, d) + Q(d), where Q(F) and the
+ * vector of B(F, ·) are computed once: a piece then costs |V|² pair terms instead of all pairs. The
  * same sum as integrateProduct, regrouped (so equal to rounding). A term array seen before over
  * the same length gives its integrals again: term arrays are taken as unchanging (pieces share
  * them, see simulate/solve.ts).
@@ -311,14 +312,15 @@ export class RepeatedIntegrals {
   /** results of the last `integrate` call */
   sum = 0;
   square = 0;
-  private readonly byLength = new Map<number, Layout[]>();
   private readonly scratch: Monos = { cre: [], cim: [], k: [], kre: [], kim: [] };
-  private layouts = 0;
-  /** pair integrals held by the large layouts (per array) */
-  private entries = 0;
+  /** this measurement's coefficients per Gram matrix it used */
+  private readonly layouts = new Map<Gram, Layout>();
 
   // the periods of a steady tail share their term arrays: the same array and length, the same integrals
   private readonly seen = new Map<Term[], { T: number; sum: number; square: number }>();
+
+  /** `grams`: the store of Gram matrices, shared with the other measurements of a run (sharedGrams) */
+  constructor(private readonly grams: GramStore = new GramStore()) {}
 
   /** ∫0^T f dτ into `sum` and ∫0^T f² dτ into `square`. */
   integrate(terms: Term[], T: number): void {
@@ -335,40 +337,18 @@ export class RepeatedIntegrals {
   private integrateNew(terms: Term[], T: number): void {
     const m = this.scratch;
     const M = monomialsInto(terms, m);
-    if (M > MAX_LAYOUT || this.layouts >= MAX_LAYOUTS) {
-      this.direct(terms, T);
-      return;
-    }
     // the cycles of a pulse train have lengths that differ in their last bits (each is a difference
     // of two breakpoints): a layout of a length within a few ulps serves, and the piece's own range
     // [0, T] differs from the layout's [0, T0] by f(T0)·(T − T0) and f(T0)²·(T − T0) to first order
     // (the next term, f·f'·(T − T0)², is far below rounding)
-    const T0 = this.nearLength(T);
-    let list = this.byLength.get(T0);
-    if (!list) this.byLength.set(T0, (list = []));
-    let L: Layout | undefined;
-    for (const l of list) {
-      if (sameLayout(l, m, M)) {
-        L = l;
-        break;
-      }
+    const T0 = this.grams.nearLength(T);
+    const G = M > MAX_LAYOUT || this.layouts.size >= MAX_LAYOUTS ? null : this.grams.get(m, M, T0);
+    if (!G) {
+      this.direct(terms, T);
+      return;
     }
-    if (!L) {
-      // a large layout (hundreds of states under a pulse train) costs several direct integrations
-      // (each pair once, then two passes for the fixed part) and 4·M² numbers: built only for a
-      // shape seen before at this length (a step response's one piece never repeats), within a
-      // memory budget
-      if (M > SMALL_LAYOUT) {
-        if (!this.seenBefore(m, M, T0) || this.entries + M * M > MAX_ENTRIES) {
-          this.direct(terms, T);
-          return;
-        }
-        this.entries += M * M;
-      }
-      L = makeLayout(m, M, T0);
-      list.push(L);
-      this.layouts++;
-    }
+    let L = this.layouts.get(G);
+    if (!L) this.layouts.set(G, (L = newLayout(G, m, M)));
     // widen V to every monomial whose coefficient differs from the layout's first piece
     let widened = false;
     for (let x = 0; x < M; x++) {
@@ -381,23 +361,32 @@ export class RepeatedIntegrals {
     let sum = L.fixedSum;
     let sq = L.fixedSquare;
     const V = L.vlist;
-    for (let i = 0; i < V.length; i++) {
+    const nv = V.length;
+    const dre = L.dre;
+    const dim = L.dim;
+    for (let j = 0; j < nv; j++) {
+      dre[j] = m.cre[V[j]!];
+      dim[j] = m.cim[V[j]!];
+    }
+    const { Ire, Iim, G1re, G1im, G2re, G2im } = G;
+    for (let i = 0; i < nv; i++) {
       const y = V[i]!;
-      const dr = m.cre[y];
-      const di = m.cim[y];
-      sum += dr * L.Ire[y]! - di * L.Iim[y]!;
+      const dr = dre[i]!;
+      const di = dim[i]!;
+      sum += dr * Ire[y]! - di * Iim[y]!;
       sq += dr * L.wre[y]! - di * L.wim[y]!;
-      for (let j = 0; j < V.length; j++) {
-        const x = V[j]!;
-        const xr = m.cre[x];
-        const xi = m.cim[x];
-        const at = x * M + y;
+      // along row y (contiguous): G1[x][y] = G1[y][x] and G2[x][y] = conj(G2[y][x]), exact copies
+      const row = y * M;
+      for (let j = 0; j < nv; j++) {
+        const xr = dre[j]!;
+        const xi = dim[j]!;
+        const at = row + V[j]!;
         // ½·Re[d_x·d_y·G1 + d_x·conj(d_y)·G2]
         const pr = xr * dr - xi * di;
         const pi = xr * di + xi * dr;
         const qr = xr * dr + xi * di;
         const qi = -xr * di + xi * dr;
-        sq += 0.5 * (pr * L.G1re[at]! - pi * L.G1im[at]! + qr * L.G2re[at]! - qi * L.G2im[at]!);
+        sq += 0.5 * (pr * G1re[at]! - pi * G1im[at]! + qr * G2re[at]! + qi * G2im[at]!);
       }
     }
     if (T !== T0) {
@@ -417,17 +406,46 @@ export class RepeatedIntegrals {
     this.sum = integrateTerms(terms, T);
     this.square = integrateProduct(terms, terms, T);
   }
+}
 
-  /** A length already keyed within a few ulps of T, or T itself. */
-  private nearLength(T: number): number {
-    if (this.byLength.has(T)) return T;
-    for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
-    return T;
-  }
-
+/**
+ * Gram matrices of layouts by length: built for a shape seen before (a large one costs several
+ * direct integrations, and a step response's one piece never repeats), within a memory budget.
+ * One store serves all the measurements of a run (sharedGrams): the watches of a circuit share
+ * their modes, so their pieces share layouts.
+ */
+export class GramStore {
+  private readonly byLength = new Map<number, Gram[]>();
+  private count = 0;
+  /** pair integrals held by the large layouts (per array) */
+  private entries = 0;
   // the shapes of large pieces integrated directly once, by length (a second one builds the layout)
   private readonly firstSeen = new Map<number, Shape[]>();
   private firstSeenCount = 0;
+
+  /** A length already keyed within a few ulps of T, or T itself. */
+  nearLength(T: number): number {
+    if (this.byLength.has(T)) return T;
+    for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
+    for (const t of this.firstSeen.keys()) if (sameLength(t, T)) return t;
+    return T;
+  }
+
+  /** The Gram matrices of the first M monomials of m over [0, T0], or null: integrate directly. */
+  get(m: Monos, M: number, T0: number): Gram | null {
+    let list = this.byLength.get(T0);
+    if (list) for (const g of list) if (sameLayout(g, m, M)) return g;
+    if (this.count >= MAX_LAYOUTS) return null;
+    if (M > SMALL_LAYOUT) {
+      if (!this.seenBefore(m, M, T0) || this.entries + M * M > MAX_ENTRIES) return null;
+      this.entries += M * M;
+    }
+    const g = makeGram(m, M, T0);
+    if (!list) this.byLength.set(T0, (list = []));
+    list.push(g);
+    this.count++;
+    return g;
+  }
 
   /** Whether a large piece of this shape and length came before; remembers it when not. */
   private seenBefore(m: Monos, M: number, T0: number): boolean {
@@ -440,6 +458,25 @@ export class RepeatedIntegrals {
     }
     return false;
   }
+}
+
+// A run's measurements share one store (opened by the pipeline: shareGrams … releaseGrams, keyed
+// by the run's sample-time array); other callers get a store of their own
+const gramsByKey = new WeakMap<object, GramStore>();
+
+/** Lets the measurements keyed by `key` (a run's sample times) share their Gram matrices. */
+export function shareGrams(key: object): void {
+  if (!gramsByKey.has(key)) gramsByKey.set(key, new GramStore());
+}
+
+/** The store shared under `key` when shareGrams opened it, else a new one. */
+export function sharedGrams(key: object | undefined): GramStore {
+  return (key && gramsByKey.get(key)) || new GramStore();
+}
+
+/** Ends the sharing under `key` (its Gram matrices: up to 192 MB for a large pulse-train run). */
+export function releaseGrams(key: object): void {
+  gramsByKey.delete(key);
 }
 
 /** Two piece lengths within 8 ulps of each other (the rounding of two breakpoint differences). */
@@ -461,10 +498,10 @@ function valueAt(m: Monos, M: number, t: number): number {
 }
 
 /**
- * Largest layout (monomials) worth caching, and most layouts kept per measurement. The layouts
- * above SMALL_LAYOUT monomials together hold at most MAX_ENTRIES pair integrals per array (4 arrays
- * of 48 MB): a mesh of a few hundred states under a pulse train then integrates each cycle's
- * pieces as quadratic forms instead of M²/2 pair integrals each.
+ * Largest layout (monomials) worth caching, and most layouts kept per store and per measurement.
+ * The layouts above SMALL_LAYOUT monomials together hold at most MAX_ENTRIES pair integrals per
+ * array (4 arrays of 48 MB per store): a mesh of a few hundred states under a pulse train then
+ * integrates each cycle's pieces as quadratic forms instead of M²/2 pair integrals each.
  */
 const MAX_LAYOUT = 2048;
 const SMALL_LAYOUT = 32;
@@ -478,7 +515,8 @@ interface Shape {
   kim: number[];
 }
 
-interface Layout extends Shape {
+/** The monomial integrals of a layout over [0, T] (shared). */
+interface Gram extends Shape {
   /** ∫ τ^k·e^(κτ) per monomial */
   Ire: Float64Array;
   Iim: Float64Array;
@@ -487,10 +525,18 @@ interface Layout extends Shape {
   G1im: Float64Array;
   G2re: Float64Array;
   G2im: Float64Array;
+}
+
+/** One measurement's use of a Gram matrix: its first coefficients and the fixed part's integrals. */
+interface Layout {
+  gram: Gram;
   c0re: number[];
   c0im: number[];
   varying: Uint8Array;
   vlist: number[];
+  /** scratch: the varying coefficients of the piece at hand, in vlist order */
+  dre: Float64Array;
+  dim: Float64Array;
   /** ∫F, ∫F² and w_y = Σ_x F_x·G1_xy + conj(F_x·G2_xy) for the fixed part F */
   fixedSum: number;
   fixedSquare: number;
@@ -504,7 +550,7 @@ function sameLayout(l: Shape, m: Monos, M: number): boolean {
   return true;
 }
 
-function makeLayout(m: Monos, M: number, T: number): Layout {
+function makeGram(m: Monos, M: number, T: number): Gram {
   const Ire = new Float64Array(M);
   const Iim = new Float64Array(M);
   for (let x = 0; x < M; x++) {
@@ -530,20 +576,19 @@ function makeLayout(m: Monos, M: number, T: number): Layout {
       }
     }
   }
+  return { k: m.k.slice(0, M), kre: m.kre.slice(0, M), kim: m.kim.slice(0, M), Ire, Iim, G1re, G1im, G2re, G2im };
+}
+
+/** A measurement's first use of `gram`, with the piece in `m` as its first coefficients. */
+function newLayout(gram: Gram, m: Monos, M: number): Layout {
   const L: Layout = {
-    k: m.k.slice(0, M),
-    kre: m.kre.slice(0, M),
-    kim: m.kim.slice(0, M),
-    Ire,
-    Iim,
-    G1re,
-    G1im,
-    G2re,
-    G2im,
+    gram,
     c0re: m.cre.slice(0, M),
     c0im: m.cim.slice(0, M),
     varying: new Uint8Array(M),
     vlist: [],
+    dre: new Float64Array(M),
+    dim: new Float64Array(M),
     fixedSum: 0,
     fixedSquare: 0,
     wre: new Float64Array(M),
@@ -583,26 +628,33 @@ function largePairs(m: Monos, M: number, T: number, G1re: Float64Array, G1im: Fl
 
 /** ∫F, ∫F² and w for the fixed part F of a layout (c0 off the varying set). */
 function fixedPart(L: Layout): void {
-  const M = L.k.length;
+  const M = L.c0re.length;
   L.vlist = [];
   for (let x = 0; x < M; x++) if (L.varying[x]) L.vlist.push(x);
-  const Fr = (x: number) => (L.varying[x] ? 0 : L.c0re[x]!);
-  const Fi = (x: number) => (L.varying[x] ? 0 : L.c0im[x]!);
+  // F: c0 off the varying set
+  const Fre = new Float64Array(M);
+  const Fim = new Float64Array(M);
+  for (let x = 0; x < M; x++) {
+    if (L.varying[x]) continue;
+    Fre[x] = L.c0re[x]!;
+    Fim[x] = L.c0im[x]!;
+  }
+  const { Ire, Iim, G1re, G1im, G2re, G2im } = L.gram;
   let sum = 0;
   let sq = 0;
   for (let x = 0; x < M; x++) {
-    const ar = Fr(x);
-    const ai = Fi(x);
-    sum += ar * L.Ire[x]! - ai * L.Iim[x]!;
+    const ar = Fre[x]!;
+    const ai = Fim[x]!;
+    sum += ar * Ire[x]! - ai * Iim[x]!;
     for (let y = 0; y < M; y++) {
-      const br = Fr(y);
-      const bi = Fi(y);
+      const br = Fre[y]!;
+      const bi = Fim[y]!;
       const at = x * M + y;
       const pr = ar * br - ai * bi;
       const pi = ar * bi + ai * br;
       const qr = ar * br + ai * bi;
       const qi = -ar * bi + ai * br;
-      sq += 0.5 * (pr * L.G1re[at]! - pi * L.G1im[at]! + qr * L.G2re[at]! - qi * L.G2im[at]!);
+      sq += 0.5 * (pr * G1re[at]! - pi * G1im[at]! + qr * G2re[at]! - qi * G2im[at]!);
     }
   }
   L.fixedSum = sum;
@@ -610,13 +662,15 @@ function fixedPart(L: Layout): void {
   for (let y = 0; y < M; y++) {
     let wr = 0;
     let wi = 0;
+    // along row y (contiguous): G1[x][y] = G1[y][x] and G2[x][y] = conj(G2[y][x]), exact copies
+    const row = y * M;
     for (let x = 0; x < M; x++) {
-      const ar = Fr(x);
-      const ai = Fi(x);
-      const at = x * M + y;
+      const ar = Fre[x]!;
+      const ai = Fim[x]!;
+      const at = row + x;
       // F_x·G1_xy + conj(F_x·G2_xy)
-      wr += ar * L.G1re[at]! - ai * L.G1im[at]! + (ar * L.G2re[at]! - ai * L.G2im[at]!);
-      wi += ar * L.G1im[at]! + ai * L.G1re[at]! - (ar * L.G2im[at]! + ai * L.G2re[at]!);
+      wr += ar * G1re[at]! - ai * G1im[at]! + (ar * G2re[at]! + ai * G2im[at]!);
+      wi += ar * G1im[at]! + ai * G1re[at]! - (-ar * G2im[at]! + ai * G2re[at]!);
     }
     L.wre[y] = wr;
     L.wim[y] = wi;

@@ -74,7 +74,7 @@ function shapeMetrics(times: Float64Array, pieces: readonly Piece[], a: ReturnTy
   const floor = Math.max(WEIGHT_FLOOR * (a.peak.value - a.valley.value), 1e-12 * scale);
   const ring = pieces.length > 0 ? ringing(pieces, start, end, floor) : null;
   const clip = a.clip;
-  const mean = averageAndRms(pieces, start, end, clip);
+  const mean = averageAndRms(pieces, start, end, clip, times);
   return {
     ringingHz: ring ? ring.hz : null,
     logDecrement: ring ? ring.logDecrement : null,

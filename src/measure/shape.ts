@@ -1,7 +1,7 @@
 import type { Piece, Term } from '../simulate/result.js';
 import { firstReach } from './crossing.js';
 import { pieceIndexAt } from './evaluate.js';
-import { integrateProduct, integrateTerms, RepeatedIntegrals } from '../lti/integrate.js';
+import { integrateProduct, integrateTerms, RepeatedIntegrals, sharedGrams } from '../lti/integrate.js';
 import { emptyGroups, type Groups, groupsBound, groupTerms, groupsDerivative, groupsValue, termsValue } from '../lti/term.js';
 import { geometricSteps, gridFloor, type MagnitudePeak, termsOmega, termsRate, TIE, uniformIntervals } from './peak.js';
 import { type Clipped, clipTable, sameEnd } from './repeat.js';
@@ -238,6 +238,7 @@ export function averageAndRms(
   start: number,
   end: number,
   clip: Clipped = clipTable(pieces, start, end),
+  share?: object,
 ): { average: number; rms: number } | null {
   const T = end - start;
   if (pieces.length === 0 || !(T > 0)) return null;
@@ -246,7 +247,8 @@ export function averageAndRms(
   let impulse = false;
   // the cycles of a pulse train share their integrals (see RepeatedIntegrals); the periods of a
   // steady tail share their term arrays, and a range longer by d adds f(b)·d and f(b)²·d (repeat.ts)
-  const cycles = new RepeatedIntegrals();
+  // (`share`: a run's sample times, under which its watches share their Gram matrices)
+  const cycles = new RepeatedIntegrals(sharedGrams(share));
   // per clipped piece whose integrals were found over [0, b]: b, the integrals and y(b) (NaN: none)
   const count = clip.count;
   const { rep } = clip;
