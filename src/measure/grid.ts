@@ -149,8 +149,8 @@ export function peakOnGrid(ts: Float64Array, dfs: Float64Array, f: (t: number) =
     if (prevD !== 0 && d !== 0 && (prevD < 0) !== (d < 0)) {
       const a = ts[k - 1]!;
       const b = ts[k]!;
-      const r = findRoot(df, a, b, 1e-14, prevD, d);
-      if (r > a && r < b) consider(r);
+      // a root on a grid point (to rounding) comes back as that end: it is a candidate all the same
+      consider(Math.min(Math.max(findRoot(df, a, b, 1e-14, prevD, d), a), b));
     } else if (d === 0 && k < n - 1) {
       consider(ts[k]!);
     }
@@ -187,8 +187,7 @@ export function extremaOnGrid(ts: Float64Array, dfs: Float64Array, f: (t: number
     const da = dfs[k - 1]!;
     const db = dfs[k]!;
     if (da !== 0 && db !== 0 && (da < 0) !== (db < 0)) {
-      const r = findRoot(df, a, b, 1e-14, da, db);
-      if (r > a && r < b) consider(r);
+      consider(Math.min(Math.max(findRoot(df, a, b, 1e-14, da, db), a), b));
     } else if (db === 0 || k === n - 1) {
       consider(b);
     }

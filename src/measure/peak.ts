@@ -72,7 +72,8 @@ export function walkDerivative(
     const d = df(t);
     if (prevD !== 0 && d !== 0 && Math.sign(prevD) !== Math.sign(d)) {
       const r = findRoot(df, prevT, t, 1e-14, prevD, d);
-      if (r > prevT && r < t) onRoot(r);
+      // a root on a grid point (to rounding) comes back as that end: it is a candidate all the same
+      onRoot(Math.min(Math.max(r, prevT), t));
     }
     onPoint(t, d, k === grid.length - 1);
     prevT = t;

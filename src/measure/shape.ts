@@ -218,7 +218,8 @@ function pieceSlope(piece: Piece, lo: number, hi: number, sweeper: Sweeper, extr
     if (prevD !== 0 && d !== 0 && prevD < 0 !== d < 0) {
       const near = sweeper.near(D2, piece, prevT - t0, t - t0);
       const r = findRoot((u) => near(u - t0), prevT, t, 1e-14, prevD, d);
-      if (r > prevT && r < t) consider(r);
+      // a root on a grid point (to rounding) comes back as that end: it is a candidate all the same
+      consider(Math.min(Math.max(r, prevT), t));
     }
     if (d === 0 && k < count - 1) consider(t);
     prevT = t;
