@@ -342,7 +342,9 @@ export class RepeatedIntegrals {
     // [0, T] differs from the layout's [0, T0] by f(T0)·(T − T0) and f(T0)²·(T − T0) to first order
     // (the next term, f·f'·(T − T0)², is far below rounding)
     const T0 = this.grams.nearLength(T);
-    const G = M > MAX_LAYOUT || this.layouts.size >= MAX_LAYOUTS ? null : this.grams.get(m, M, T0);
+    // a large layout is built for a shape this measurement met before (a pulse train's cycles; a
+    // step response's one piece never repeats); the other watches of the run then find it built
+    const G = M > MAX_LAYOUT || this.layouts.size >= MAX_LAYOUTS ? null : this.grams.find(m, M, T0) ?? (M <= SMALL_LAYOUT || this.seenBefore(m, M, T0) ? this.grams.build(m, M, T0) : null);
     if (!G) {
       this.direct(terms, T);
       return;
@@ -402,50 +404,9 @@ export class RepeatedIntegrals {
     this.square = sq;
   }
 
-  private direct(terms: Term[], T: number): void {
-    this.sum = integrateTerms(terms, T);
-    this.square = integrateProduct(terms, terms, T);
-  }
-}
-
-/**
- * Gram matrices of layouts by length: built for a shape seen before (a large one costs several
- * direct integrations, and a step response's one piece never repeats), within a memory budget.
- * One store serves all the measurements of a run (sharedGrams): the watches of a circuit share
- * their modes, so their pieces share layouts.
- */
-export class GramStore {
-  private readonly byLength = new Map<number, Gram[]>();
-  private count = 0;
-  /** pair integrals held by the large layouts (per array) */
-  private entries = 0;
   // the shapes of large pieces integrated directly once, by length (a second one builds the layout)
   private readonly firstSeen = new Map<number, Shape[]>();
   private firstSeenCount = 0;
-
-  /** A length already keyed within a few ulps of T, or T itself. */
-  nearLength(T: number): number {
-    if (this.byLength.has(T)) return T;
-    for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
-    for (const t of this.firstSeen.keys()) if (sameLength(t, T)) return t;
-    return T;
-  }
-
-  /** The Gram matrices of the first M monomials of m over [0, T0], or null: integrate directly. */
-  get(m: Monos, M: number, T0: number): Gram | null {
-    let list = this.byLength.get(T0);
-    if (list) for (const g of list) if (sameLayout(g, m, M)) return g;
-    if (this.count >= MAX_LAYOUTS) return null;
-    if (M > SMALL_LAYOUT) {
-      if (!this.seenBefore(m, M, T0) || this.entries + M * M > MAX_ENTRIES) return null;
-      this.entries += M * M;
-    }
-    const g = makeGram(m, M, T0);
-    if (!list) this.byLength.set(T0, (list = []));
-    list.push(g);
-    this.count++;
-    return g;
-  }
 
   /** Whether a large piece of this shape and length came before; remembers it when not. */
   private seenBefore(m: Monos, M: number, T0: number): boolean {
@@ -455,9 +416,61 @@ export class GramStore {
       if (!list) this.firstSeen.set(T0, (list = []));
       list.push({ k: m.k.slice(0, M), kre: m.kre.slice(0, M), kim: m.kim.slice(0, M) });
       this.firstSeenCount++;
+      if (this.grams.directLengths.size < MAX_LAYOUTS) this.grams.directLengths.add(T0);
     }
     return false;
   }
+  private direct(terms: Term[], T: number): void {
+    this.sum = integrateTerms(terms, T);
+    this.square = integrateProduct(terms, terms, T);
+  }
+}
+
+/**
+ * Gram matrices of layouts by length, within a memory budget (a large one costs several direct
+ * integrations and 4·M² numbers).
+ * One store serves all the measurements of a run (sharedGrams): the watches of a circuit share
+ * their modes, so their pieces share layouts.
+ */
+export class GramStore {
+  private readonly byLength = new Map<number, Gram[]>();
+  private count = 0;
+  /** pair integrals held by the large layouts (per array) */
+  private entries = 0;
+  /** lengths of pieces integrated directly (measurements note them: RepeatedIntegrals.seenBefore) */
+  readonly directLengths = new Set<number>();
+
+  /** A length already keyed within a few ulps of T, or T itself. */
+  nearLength(T: number): number {
+    if (this.byLength.has(T)) return T;
+    for (const t of this.byLength.keys()) if (sameLength(t, T)) return t;
+    for (const t of this.directLengths) if (sameLength(t, T)) return t;
+    return T;
+  }
+
+  /** The Gram matrices of the first M monomials of m over [0, T0] when built, else undefined. */
+  find(m: Monos, M: number, T0: number): Gram | undefined {
+    const list = this.byLength.get(T0);
+    if (list) for (const g of list) if (sameLayout(g, m, M)) return g;
+    return undefined;
+  }
+
+  /** Builds them (not there yet), or null when over the budget: integrate directly. */
+  build(m: Monos, M: number, T0: number): Gram | null {
+    if (this.count >= MAX_LAYOUTS) return null;
+    if (M > SMALL_LAYOUT) {
+      if (this.entries + M * M > MAX_ENTRIES) return null;
+      this.entries += M * M;
+    }
+    const g = makeGram(m, M, T0);
+    let list = this.byLength.get(T0);
+    if (!list) this.byLength.set(T0, (list = []));
+    list.push(g);
+    this.count++;
+    return g;
+  }
+
+
 }
 
 // A run's measurements share one store (opened by the pipeline: shareGrams … releaseGrams, keyed
