@@ -10,7 +10,8 @@
 //            --eig 100,400,800       matrix sizes for the eig rows
 //            --timeout 180            seconds per circuit case before it is skipped
 //            --no-pwm                 skip the PWM case
-//            --runs 5                 repetitions after the first call (medians are reported)
+//            --runs 5                 repetitions after the first call (medians are reported; default 5,
+//                                     15 for cases of 100 states or fewer and the PWM case)
 //            --no-ml                  skip the ml-matrix column of the eig rows
 //
 // Speed figures are wall-clock medians on this machine; the ratio is ours / reference (> 1: we are
@@ -34,7 +35,8 @@ options:
   --states 100,400     state counts for the circuit cases (default 100,400,1000)
   --eig 100,400,800    matrix sizes for the eig rows (default 100,400,800)
   --timeout 180        seconds per circuit case before it is skipped (default 180)
-  --runs 5             timed repetitions after the first call; medians are reported (default 5)
+  --runs 5             timed repetitions after the first call; medians are reported (default 5,
+                       15 for cases of 100 states or fewer and the PWM case)
   --no-pwm             skip the PWM case
   --no-ml              skip the ml-matrix column of the eig rows
   --help               this text
@@ -75,6 +77,10 @@ const EIG_SIZES = opt('--eig', '100,400,800').split(',').map(Number);
 const TIMEOUT = Number(opt('--timeout', '180'));
 const WITH_PWM = !flag('--no-pwm');
 const RUNS = Number(opt('--runs', '5'));
+// cases of 100 states or fewer take tens of milliseconds on both sides, where one run's noise
+// (a garbage collection, the scheduler) is a large share: 15 repetitions each unless --runs says
+const SHORT_RUNS = 15;
+const runsFor = (states) => (argv.includes('--runs') || states > 100 ? RUNS : Math.max(RUNS, SHORT_RUNS));
 const WITH_ML = !flag('--no-ml');
 const SAMPLES = 10000;
 const say = (...a) => (JSON_OUT ? console.error(...a) : console.log(...a));
@@ -171,7 +177,7 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
       continue;
     }
     const t = Date.now();
-    const r = await run('sh', ['-c', BIG_STACK, 'sh', join(HERE, 'case.js'), 'circuit', name, String(states), String(SAMPLES), String(RUNS), file], TIMEOUT);
+    const r = await run('sh', ['-c', BIG_STACK, 'sh', join(HERE, 'case.js'), 'circuit', name, String(states), String(SAMPLES), String(runsFor(states)), file], TIMEOUT);
     const stages = stagesOf(r.out);
     const res = r.code === 0 ? lastJson(r.out, 'RESULT ') : null;
     if (!res) {
@@ -185,7 +191,7 @@ for (const name of ['rc-ladder', 'lc-ladder', 'rlc-mesh']) {
     stageNotes.push({ case: name, states, stages, note: `${((Date.now() - t) / 1000).toFixed(1)} s wall, load ${load()}` });
     let ref = null;
     if (HAVE_PY) {
-      const p = await run('python3', [join(HERE, 'reference.py'), 'lsim', file, String(RUNS)], 600);
+      const p = await run('python3', [join(HERE, 'reference.py'), 'lsim', file, String(runsFor(states))], 600);
       ref = p.code === 0 ? lastJson(p.out) : null;
       if (!ref) say(`${name} ${states}: reference failed: ${p.err.trim().split('\n').slice(-2).join(' | ')}`);
     }
@@ -216,13 +222,13 @@ let pwm = null;
 if (WITH_PWM) {
   const file = join(tmp, 'pwm-long.json');
   const t = Date.now();
-  const r = await run('node', [join(HERE, 'case.js'), 'pwm', join(HERE, 'pwm-long.rdn'), String(RUNS), file], Math.max(TIMEOUT, 300));
+  const r = await run('node', [join(HERE, 'case.js'), 'pwm', join(HERE, 'pwm-long.rdn'), String(runsFor(2)), file], Math.max(TIMEOUT, 300));
   const res = r.code === 0 ? lastJson(r.out, 'RESULT ') : null;
   if (!res) say(`pwm-long: ${r.timedOut ? 'skipped after the time box' : `failed (exit ${r.code}): ${r.err.trim().split('\n').slice(-3).join(' | ')}`}`);
   else {
     let ref = null;
     if (HAVE_PY) {
-      const p = await run('python3', [join(HERE, 'reference.py'), 'pwm', file, String(Math.max(RUNS, 5))], 600);
+      const p = await run('python3', [join(HERE, 'reference.py'), 'pwm', file, String(Math.max(runsFor(2), 5))], 600);
       ref = p.code === 0 ? lastJson(p.out) : null;
       if (!ref) say(`pwm-long: reference failed: ${p.err.trim().split('\n').slice(-2).join(' | ')}`);
     }
@@ -281,7 +287,7 @@ if (JSON_OUT) {
   const e = (v) => (v === null || v === undefined ? '—' : v.toExponential(1));
   console.log('\nWhole pipeline (analyzeText with { partSignals: false }: parse, model, modal form, exact solution,');
   console.log('cross-check, metrics; no per-part closed forms) vs scipy.signal.lsim on the model ringdown exported');
-  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${RUNS} runs each after a first call and 3 warm-up calls. "max rel diff" is`);
+  console.log(`(same grid, x(0) = 0; ladder/mesh cases: 1 V step input). Medians of ${runsFor(1000)} runs each (${runsFor(100)} for 100 states or fewer) after a first call and 3 warm-up calls. "max rel diff" is`);
   console.log('|ours − lsim| relative to each signal\'s peak; "vs exact" (pwm-long only) is |ours − exact reference|:\n');
   console.log(['case'.padEnd(10), 'states'.padStart(6), 'samples'.padStart(8), 'ours s'.padStart(9), 'ref s'.padStart(9), 'ratio'.padStart(8), 'max rel diff'.padStart(13), 'vs exact'.padStart(9), '1st call s'.padStart(11)].join('  '));
   for (const r of rows) {
@@ -292,9 +298,9 @@ if (JSON_OUT) {
   if (pwm) {
     const ref = pwm.ref;
     console.log(`\npwm-long (bench/pwm-long.rdn): 100 kHz, 12 V, 42 % duty, 20 ns edges into 10 µH / 22 µF (15 mΩ ESR) / 2.5 Ω;`);
-    console.log(`100 ms = 10 000 periods, ${pwm.samples} samples, ${pwm.states} states. ringdown ${f(pwm.oursSeconds)} s (median of ${RUNS}), in-run cross-check ${e(pwm.crossCheck)}.`);
+    console.log(`100 ms = 10 000 periods, ${pwm.samples} samples, ${pwm.states} states. ringdown ${f(pwm.oursSeconds)} s (median of ${runsFor(2)}), in-run cross-check ${e(pwm.crossCheck)}.`);
     if (ref) {
-      console.log(`  lsim, input sampled on the same ${pwm.samples}-point grid: ${f(ref.referenceSeconds, 4)} s (median of ${Math.max(RUNS, 5)}), ratio ours/lsim ${f(pwm.oursSeconds / ref.referenceSeconds, 1)}.`);
+      console.log(`  lsim, input sampled on the same ${pwm.samples}-point grid: ${f(ref.referenceSeconds, 4)} s (median of ${Math.max(runsFor(2), 5)}), ratio ours/lsim ${f(pwm.oursSeconds / ref.referenceSeconds, 1)}.`);
       console.log(`    max |ours − lsim| = ${e(ref.lsimMaxRelDiff)} of the peak (${ref.peak.map((v) => v.toFixed(3)).join(', ')} V). This is lsim's error, not ours: with two`);
       console.log('    samples per period, linear interpolation between samples is not the pulse train (lsim vs the exact');
       console.log(`    reference below: ${e(ref.lsimVsExact)}). lsim is not an exact reference for this input.`);
