@@ -101,7 +101,7 @@ export function describeSwitching(part: Part): string {
   if (!sw) return formatSIExact(part.value, 'Ω');
   const open = Number.isFinite(sw.offResistance) ? s(sw.offResistance, 'Ω') : 'open circuit';
   const events = sw.events.map((e) => `${e.closed ? 'closes' : 'opens'} at ${s(e.t, 's')}`);
-  return [`closed ${s(sw.onResistance, 'Ω')}, open ${open}`, `starts ${sw.initiallyClosed ? 'closed' : 'open'}`, ...events].join(', ');
+  return [`${s(sw.onResistance, 'Ω')} when closed, ${open} when open`, `starts ${sw.initiallyClosed ? 'closed' : 'open'}`, ...events].join(', ');
 }
 
 /** Value text of a part: its value for passives (with the initial state), its waveform for sources. */
