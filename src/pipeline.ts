@@ -16,13 +16,17 @@ export interface AnalyzeOptions {
   span?: number;
   /** compute every part's closed forms (stress, energy, cautions, discharge times); default true */
   partSignals?: boolean;
+  /** told which stage starts, for a progress line on long runs (the CLI on a terminal) */
+  progress?: (stage: string) => void;
 }
 
 /** circuit → model → exact solution → metrics: the whole run as one value. */
 export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): RunResult {
   // the state limit, from the circuit graph alone, before any matrix is built
+  let states = 0;
   for (const at of circuit.parts.some((p) => p.kind === 'switch') ? [0, Infinity] : [0]) {
     const st = describeStructure(circuit, { at });
+    states = Math.max(states, st.expectedStates);
     if (st.expectedStates > MAX_STATES) {
       throw new InputError([
         {
@@ -34,6 +38,8 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
       ]);
     }
   }
+  const samples = opts.samples ?? circuit.analysis.samples;
+  opts.progress?.(`solving ${states} state${states === 1 ? '' : 's'} (modes, closed forms, ${samples} samples, cross-check)`);
   let sim;
   try {
     sim = simulate(circuit, opts);
@@ -44,6 +50,7 @@ export function analyzeCircuit(circuit: Circuit, opts: AnalyzeOptions = {}): Run
     throw e;
   }
   const events = eventTimes(circuit, sim.span);
+  opts.progress?.(`measuring ${sim.signals.length} watched signal${sim.signals.length === 1 ? '' : 's'}`);
   // the watches' measurements share their power tables (measure/sweep.ts) and the Gram matrices of
   // their RMS integrals (lti/integrate.ts) for this call
   shareTables(sim.times);

@@ -1,5 +1,5 @@
 import { writeFile } from 'node:fs/promises';
-import { analyzeText } from '../pipeline.js';
+import { type AnalyzeOptions, analyzeText } from '../pipeline.js';
 import { colorEnabled } from '../report/color.js';
 import { formatCSV } from '../report/csv.js';
 import { runCautions } from '../measure/cautions.js';
@@ -61,21 +61,45 @@ function ratingsExit(result: RunResult, io: CliIO): number {
   return EXIT_RATING;
 }
 
+/**
+ * A progress line on standard error while a run works, when that is a terminal: one line,
+ * rewritten at each stage and erased before anything else is written (a run of a large circuit
+ * takes seconds to minutes; a small one erases it within milliseconds).
+ */
+function progressLine(io: CliIO): { say: (stage: string) => void; clear: () => void } | undefined {
+  if (io.stderr.isTTY !== true) return undefined;
+  let shown = false;
+  return {
+    say: (stage) => {
+      io.stderr.write(`\r\x1b[Kringdown: ${stage}…`);
+      shown = true;
+    },
+    clear: () => {
+      if (shown) io.stderr.write('\r\x1b[K');
+      shown = false;
+    },
+  };
+}
+
 /** `ringdown run FILE`: analyse, write the report, return the exit code. */
 export async function runCommand(file: string, opts: RunOptions, io: CliIO): Promise<number> {
   let source = '';
+  const progress = progressLine(io);
   try {
     const { text, name } = await readCircuitText(file, io);
     source = text;
-    const analyzeOpts: { samples?: number; span?: number } = {};
+    const analyzeOpts: AnalyzeOptions = {};
     if (opts.samples !== undefined) analyzeOpts.samples = opts.samples;
     if (opts.span !== undefined) analyzeOpts.span = opts.span;
+    if (progress) analyzeOpts.progress = progress.say;
     const result = analyzeText(text, name, analyzeOpts);
+    progress?.say(opts.format === 'text' ? `writing the report (stress of ${result.circuit.parts.length} parts)` : `writing the ${opts.format} output`);
 
     const toTerminal = opts.out === undefined;
+    const output = render(result, opts, toTerminal && colorEnabled(io.stdout, io.env));
+    progress?.clear();
     // The text report lists warnings itself; elsewhere they go to standard error.
     if (!(opts.format === 'text' && toTerminal)) printWarnings(result.circuit.warnings ?? [], source, io);
-    const output = render(result, opts, toTerminal && colorEnabled(io.stdout, io.env));
     if (opts.out !== undefined) {
       try {
         await writeFile(opts.out, output, 'utf8');
@@ -106,6 +130,7 @@ export async function runCommand(file: string, opts: RunOptions, io: CliIO): Pro
     }
     return exitPriority(codes);
   } catch (e) {
+    progress?.clear();
     return reportFailure(e, source, io, opts.debug === true);
   }
 }
