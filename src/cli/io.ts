@@ -1,3 +1,4 @@
+import { decodeText } from './input.js';
 /** Where the command line reads and writes; process streams by default, replaceable in tests. */
 export interface CliIO {
   stdout: { write(text: string): unknown; isTTY?: boolean };
@@ -14,7 +15,7 @@ export function processIO(): CliIO {
     readStdin: async () => {
       const chunks: Buffer[] = [];
       for await (const chunk of process.stdin) chunks.push(typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer));
-      return Buffer.concat(chunks).toString('utf8');
+      return decodeText(Buffer.concat(chunks));
     },
     env: process.env,
   };

@@ -1,4 +1,5 @@
 import type { Diagnostic } from '../diagnostics.js';
+import { displayLine, splitLines } from './text.js';
 
 /**
  * Renders a diagnostic for a terminal:
@@ -35,15 +36,18 @@ export function formatDiagnostic(d: Diagnostic, sourceText: string, color: boole
   const where = d.loc ? `${d.loc.file}:${d.loc.line}:${d.loc.col}: ` : '';
   const out = [paint(BOLD, where) + paint(BOLD + sevColor, `${d.severity}:`) + ' ' + paint(BOLD, d.message)];
 
-  const lines = ((d.loc && otherSources.get(d.loc.file)) ?? sourceText).replace(/^\uFEFF/, '').split('\n');
+  const lines = splitLines((d.loc && otherSources.get(d.loc.file)) ?? sourceText);
   const text = d.loc ? lines[d.loc.line - 1] : undefined;
   if (d.loc && text !== undefined) {
-    const quoted = text.replace(/\r$/, '');
+    // control characters made visible (no escape sequence reaches the terminal), a long line cut
+    // to a window around the marked column
+    const shown = displayLine(text, d.loc.col, d.loc.length);
+    const quoted = shown.text;
     const gutter = String(d.loc.line);
     const pad = ' '.repeat(gutter.length);
     // Keep tabs under tabs so the marker lines up whatever the terminal's tab width.
-    const lead = [...quoted.slice(0, d.loc.col - 1)].map((c) => (c === '\t' ? '\t' : ' ')).join('');
-    const width = Math.max(1, Math.min(d.loc.length, Math.max(1, quoted.length - d.loc.col + 1)));
+    const lead = [...quoted.slice(0, shown.col - 1)].map((c) => (c === '\t' ? '\t' : ' ')).join('');
+    const width = Math.max(1, Math.min(shown.length, Math.max(1, quoted.length - shown.col + 1)));
     out.push(`  ${paint(DIM, gutter + ' |')} ${quoted}`);
     out.push(`  ${paint(DIM, pad + ' |')} ${lead}${paint(sevColor, '^'.repeat(width))}`);
   }

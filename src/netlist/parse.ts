@@ -5,6 +5,7 @@ import type { SourceLocation } from './location.js';
 import { looksLikeResistorCode, parseQuantity } from './quantity.js';
 import { didYouMean } from './suggest.js';
 import { checkCircuitSize, checkFileSize, expressionTooComplex } from './size.js';
+import { checkIsText, splitLines } from './text.js';
 import { tokenizeLine, type Token, type TokenKind } from './tokenize.js';
 import { MAX_LINE_CHARS } from '../circuit/limits.js';
 
@@ -76,10 +77,12 @@ const IDENTIFIER = /^[A-Za-z_][A-Za-z0-9_]*$/;
 /** Parses a whole file; problems go to `sink` and the statement is skipped. */
 export function parseNetlist(text: string, file: string, sink: DiagnosticSink): Netlist {
   checkFileSize(text, file);
+  checkIsText(text, file);
   const statements: Statement[] = [];
   const brokenPartLines: number[] = [];
-  // A byte-order mark some editors add is not part of the first statement.
-  const lines = text.replace(/^\uFEFF/, '').split('\n');
+  // A byte-order mark some editors add is not part of the first statement; CR LF, LF and a lone
+  // CR each end a line.
+  const lines = splitLines(text);
   lines.forEach((line, index) => {
     const lineNo = index + 1;
     if (line.length > MAX_LINE_CHARS) {

@@ -1,5 +1,6 @@
 import type { SourceLocation } from './location.js';
 import { raise, type DiagnosticSink } from './errors.js';
+import { describeUnexpected } from './text.js';
 
 /**
  * Splits one line into tokens. Statements never span lines, so tokenizing line by line lets a
@@ -93,9 +94,8 @@ export function tokenizeLine(
       return undefined;
     } else {
       const ch = String.fromCodePoint(line.codePointAt(i)!);
-      raise(sink, 'error', at(i, i + ch.length), `unexpected character '${ch}'`, {
-        hint: ch === '/' ? 'a rate is written in one piece, number, prefix and unit together, such as 2kV/s' : undefined,
-      });
+      const { message, expected, hint } = describeUnexpected(ch);
+      raise(sink, 'error', at(i, i + ch.length), message, { expected, hint });
       return undefined;
     }
   }
