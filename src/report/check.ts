@@ -88,8 +88,13 @@ export function formatCheck(circuit: Circuit): string {
     out.push(...heading(at === 0 ? (times.length > 1 ? 'States (switches as at t = 0)' : 'States') : 'States (switches as after the last event)'));
     out.push(`  ${st.summary}`);
     if (st.stateNames.length > 0) out.push(`  state variables: ${st.stateNames.join(', ')}`);
-    for (const loop of st.capacitorLoops) out.push(`  - loop ${loop.parts.join(' → ')}: ${loop.explanation}`);
-    for (const cut of st.inductorCutSets) out.push(`  - cut-set ${cut.parts.join(', ')}: ${cut.explanation}`);
+    // each part with the line it is declared on, so the loop can be found in the file
+    const line = (name: string): string => {
+      const part = circuit.parts.find((p) => p.name === name);
+      return part ? `${name} (line ${part.loc.line})` : name;
+    };
+    for (const loop of st.capacitorLoops) out.push(`  - loop ${loop.parts.map(line).join(' → ')}: ${loop.explanation}`);
+    for (const cut of st.inductorCutSets) out.push(`  - cut-set ${cut.parts.map(line).join(', ')}: ${cut.explanation}`);
     out.push('');
   }
 
