@@ -6,7 +6,7 @@
  * to the interpolant is then exact.
  */
 export function sampleExpression(fn: (t: number) => number, span: number): { points: { t: number; v: number }[]; maxError: number } {
-  const MAX_SEGMENTS = 200_000;
+  const MAX_SEGMENTS = 20_000;
   const f = (t: number) => {
     const v = fn(t);
     if (!Number.isFinite(v)) throw new Error(`the expression is not finite at t = ${t} s`);
