@@ -34,3 +34,12 @@ export const MAX_SAMPLES = 1_000_000;
  * predicts the count from the graph alone.
  */
 export const MAX_STATES = 2_000;
+
+/**
+ * Source corners (the times where a source's formula changes: pulse edges, table points) and switch
+ * events within the span of one run. Each one starts a new interval of closed forms for every
+ * signal; measured on a 3-part RC, 2·10⁴ intervals take 3 s and 0.3 GB, 2·10⁵ take 19 s and 2.3 GB,
+ * and 10¹² (a 1 ns pulse train over 1000 s) exhausted the memory. Checked once the span is known
+ * (src/circuit/workload.ts).
+ */
+export const MAX_SOURCE_CORNERS = 100_000;
