@@ -1,6 +1,7 @@
 import type { Circuit, Part, Watch, Waveform } from '../circuit/circuit.js';
 import { GROUND } from '../circuit/circuit.js';
 import { InputError } from '../diagnostics.js';
+import { checkWorkload } from '../circuit/workload.js';
 import { currentProbe, emptyProbe, voltageProbe } from '../model/descriptor.js';
 import { type Model, buildModel } from '../model/build.js';
 import type { Readout } from '../model/state-space.js';
@@ -114,6 +115,8 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const first = epochs(circuit, Number.isFinite(lastEvent) && lastEvent > 0 ? lastEvent * 2 : 1);
   const allModes = [...new Set(first.map((e) => e.circuit))].flatMap((c) => modesOf(prepare(c).modal.blocks));
   const span = spanGiven ?? chooseSpan(allModes, lastEvent);
+  // refused before any breakpoint list is built (a 1 ns pulse train over 1000 s has 10¹² corners)
+  checkWorkload(circuit, span);
   const samples = Math.max(2, Math.floor(opts.samples ?? circuit.analysis.samples));
   const eps = epochs(circuit, span);
   // a repeating drive: the first period boundary after every other event, where the periodic
