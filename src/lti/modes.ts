@@ -25,14 +25,22 @@ export function modesOf(blocks: Block[]): Mode[] {
 }
 
 /**
+ * Periods of ringing the chosen span shows at most: a lightly damped mode (Q of 10⁶: 2·10⁶ periods
+ * in seven time constants) would otherwise make every measurement walk millions of periods.
+ */
+export const CHOSEN_SPAN_MAX_PERIODS = 100_000;
+
+/**
  * A span long enough to see the slowest mode settle (seven time constants: e^−7 < 0.1 %) after
- * the last source event; for undamped ringing, ten periods of the slowest oscillation.
+ * the last source event, but no more than CHOSEN_SPAN_MAX_PERIODS periods of a ringing mode; for
+ * undamped ringing, ten periods of the slowest oscillation.
  */
 export function chooseSpan(modes: Mode[], lastEvent: number): number {
   let tail = 0;
   for (const m of modes) {
     const sigma = m.kind === 'oscillatory' ? -m.sigma : -m.lambda;
-    if (sigma > 0) tail = Math.max(tail, 7 / sigma);
+    if (sigma > 0 && m.kind === 'oscillatory') tail = Math.max(tail, Math.min(7 / sigma, (CHOSEN_SPAN_MAX_PERIODS * 2 * Math.PI) / m.omegaD));
+    else if (sigma > 0) tail = Math.max(tail, 7 / sigma);
     else if (m.kind === 'oscillatory') tail = Math.max(tail, (10 * 2 * Math.PI) / m.omegaD);
   }
   if (tail === 0 || !Number.isFinite(tail)) tail = Math.max(lastEvent, 1e-3);
