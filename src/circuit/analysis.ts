@@ -4,6 +4,7 @@ import type { Analysis } from './circuit.js';
 import { evaluateFor, evaluateValue, type EvalContext } from './evaluate.js';
 import { UNIT_NAMES } from '../netlist/quantity.js';
 import { PLACES } from './units.js';
+import { MIN_SPAN } from './limits.js';
 
 type AnalysisStatement = Extract<Statement, { kind: 'span' | 'samples' | 'settle' | 'derate' | 'start' }>;
 
@@ -29,7 +30,11 @@ export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx:
       const span = evaluateFor(st.value, PLACES.time, 'span', ctx);
       if (span === undefined) continue;
       if (!(span > 0)) raise(ctx.sink, 'error', st.value.loc, `span must be a positive time, got ${span} s`, { expected: 'a time such as 10ms' });
-      else analysis.span = span;
+      else if (span < MIN_SPAN) raise(ctx.sink, 'error', st.value.loc, `span must be at least ${MIN_SPAN} s, got ${span} s`, { expected: 'a time such as 10ms' });
+      else {
+        analysis.span = span;
+        analysis.spanLoc = st.value.loc;
+      }
     } else if (st.kind === 'samples') {
       const n = evaluateFor(st.value, PLACES.count, 'samples', ctx);
       if (n === undefined) continue;
