@@ -27,14 +27,31 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       // columns are scaled to unit size first (powers of two: no rounding): a stiff circuit, 1 ps
       // beside 10 s, has pivots 1e13 apart without being anywhere near singular, while a zero
       // mode stays a round-off pivot (or an empty row) after scaling
-      const n = ss.n;
+      // A state with an empty row and column (a capacitor with one end left open, the middle node of
+      // capacitors in series across a source) is decoupled and conserved: with no input driving it
+      // (B·u = 0 in its row) it keeps its rest value (ξ = 0) and the rest is solved without it;
+      // with an input driving it there is no DC operating point
+      const N = ss.n;
+      const used = new Uint8Array(N);
+      for (let i = 0; i < N; i++) {
+        const row = ss.A[i];
+        for (let j = 0; j < N; j++) if (row[j] !== 0) used[i] = used[j] = 1;
+      }
+      const keep: number[] = [];
+      for (let i = 0; i < N; i++) {
+        if (used[i]) keep.push(i);
+        else if (Bu[i][0] !== 0) throw new Error('no DC operating point');
+      }
+      const n = keep.length;
+      const sub = n < N;
+      const A = sub ? keep.map((i) => keep.map((j) => ss.A[i][j])) : ss.A;
       // (on the nonzeros: a 1000-state mesh has 3000 of them, not 10⁶)
       const I: number[] = [];
       const J: number[] = [];
       const V: number[] = [];
       const rs = new Array<number>(n);
       for (let i = 0; i < n; i++) {
-        const row = ss.A[i];
+        const row = A[i];
         let m = 0;
         for (let j = 0; j < n; j++) {
           const v = row[j];
@@ -57,7 +74,7 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       // one LU with partial pivoting (one O(n³) factorization at most, not two): S·y = R·B·u,
       // ξ = −C·y. Above 32 states the states are renumbered to narrow the band first (a mesh's
       // A is sparse; band-order.ts); small circuits keep their own order
-      const ord = n > 32 ? stateOrder(ss) : null;
+      const ord = n > 32 && !sub ? stateOrder(ss) : null;
       const pos = ord ? ord.pos : Int32Array.from({ length: n }, (_, i) => i);
       let kl = 0;
       let ku = 0;
@@ -77,13 +94,14 @@ export function valuesBeforeStart(circuit: Circuit, pre: Circuit, model: Model):
       }
       if (n && (f.singular || minPivot === 0 || !Number.isFinite(maxPivot) || minPivot <= 1e-12 * maxPivot)) throw new Error('no DC operating point');
       const rhs = new Float64Array(n);
-      for (let i = 0; i < n; i++) rhs[pos[i]] = Bu[i][0] * rs[i];
+      for (let i = 0; i < n; i++) rhs[pos[i]] = Bu[keep[i]][0] * rs[i];
       const y = bandSolve(f, rhs);
-      const xi = Array.from({ length: n }, (_, j) => -y[pos[j]] * cs[j]);
+      const xi = new Array<number>(N).fill(0);
+      for (let j = 0; j < n; j++) xi[keep[j]] = -y[pos[j]] * cs[j];
       for (const st of model.storage) {
         const r = st.readout;
         let v = 0;
-        for (let i = 0; i < n; i++) v += r.C[i] * xi[i];
+        for (let i = 0; i < N; i++) v += r.C[i] * xi[i];
         v += r.D.reduce((s, d, j) => s + d * u[j], 0);
         values.set(st.part.name, v);
       }
