@@ -126,3 +126,32 @@ describe('spans at the floating-point edge', () => {
     expect(worst(r, 'v(a)', (t) => 5 * -Math.expm1(-t / 1e-30))).toBeLessThanOrEqual(REL_TOL);
   });
 });
+
+describe('the settled start with decoupled, conserved states', () => {
+  // Before t = 0 the supply has been on forever: C1 is charged to the supply (DC operating point,
+  // textbook). A capacitor with one end open (C2) carries no current and keeps its rest charge;
+  // before the fix its zero row and column made the whole operating point "missing" and every
+  // capacitor started from rest, so v(out) rose from 0 instead of staying at 5 V.
+  it('an RC on a 5 V supply with a capacitor left open at one end: v(out) = 5 V throughout', () => {
+    const r = analyzeText('voltage-source V1 in -> gnd 5V\nresistor R1 in -> out 1k\ncapacitor C1 out -> gnd 1uF\ncapacitor C2 out -> lonely 1nF\nwatch node out\nwatch node lonely\nspan 5ms\nsamples 101\n', 'open-end.rdn');
+    expect(r.start).toBe('settled');
+    expect(r.notices.some((n) => n.includes('no DC operating point'))).toBe(false);
+    // v(lonely) = v(out) − v(C2) with v(C2) = 0 (C2 never carried a current)
+    for (const l of ['v(out)', 'v(lonely)']) expect(worst(r, l, () => 5)).toBeLessThanOrEqual(REL_TOL);
+  });
+
+  it('two equal capacitors in series across the supply beside an RC: the middle at 2.5 V (equal charges), v(out) = 5 V', () => {
+    const r = analyzeText('voltage-source V1 in -> gnd 5V\ncapacitor C1 in -> mid 1uF\ncapacitor C2 mid -> gnd 1uF\nresistor R1 in -> out 1k\ncapacitor C3 out -> gnd 1uF\nwatch node mid\nwatch node out\nspan 5ms\nsamples 101\n', 'series-caps.rdn');
+    expect(r.start).toBe('settled');
+    expect(worst(r, 'v(mid)', () => 2.5)).toBeLessThanOrEqual(REL_TOL);
+    expect(worst(r, 'v(out)', () => 5)).toBeLessThanOrEqual(REL_TOL);
+  });
+
+  it('a capacitor charged by a constant current with no discharge path still has no operating point: rest, and said so', () => {
+    // v = I·t/C from rest (textbook)
+    const r = analyzeText('current-source I1 gnd -> a 1mA\ncapacitor C1 a -> gnd 1uF\nwatch node a\nspan 1ms\nsamples 101\n', 'charging.rdn');
+    expect(r.start).toBe('rest');
+    expect(r.notices.some((n) => n.includes('no DC operating point'))).toBe(true);
+    expect(worst(r, 'v(a)', (t) => (1e-3 * t) / 1e-6)).toBeLessThanOrEqual(REL_TOL);
+  });
+});
