@@ -1,4 +1,5 @@
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
+import { MAX_FILE_BYTES } from './limits.js';
 import { dirname, isAbsolute, join } from 'node:path';
 import { raise } from '../netlist/errors.js';
 import { rememberSource } from '../netlist/format.js';
@@ -31,6 +32,19 @@ export function readTableFile(written: string, pathLoc: SourceLocation, ctx: Eva
   const path = tablePath(written, pathLoc.file);
   let text: string;
   try {
+    // a device or pipe (/dev/urandom, /dev/zero) never ends and a huge file fills the memory:
+    // only regular files, and no larger than a circuit file may be
+    const st = statSync(path);
+    if (!st.isFile() && !st.isDirectory()) {
+      raise(ctx.sink, 'error', pathLoc, `cannot read table file '${path}': it is not a regular file (a device, pipe or socket)`, { hint: 'save the samples to a file first' });
+      return undefined;
+    }
+    if (st.size > MAX_FILE_BYTES) {
+      raise(ctx.sink, 'error', pathLoc, `table file '${path}' is ${(st.size / (1024 * 1024)).toFixed(1)} MB, more than the ${MAX_FILE_BYTES / (1024 * 1024)} MB a table file may have`, {
+        hint: 'keep every n-th sample (a scope capture is usually far denser than the circuit needs)',
+      });
+      return undefined;
+    }
     text = readFileSync(path, 'utf8');
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
