@@ -1,4 +1,5 @@
-import { decodeText } from './input.js';
+import { MAX_FILE_BYTES } from '../circuit/limits.js';
+import { decodeText, tooLarge } from './input.js';
 /** Where the command line reads and writes; process streams by default, replaceable in tests. */
 export interface CliIO {
   stdout: { write(text: string): unknown; isTTY?: boolean };
@@ -14,7 +15,17 @@ export function processIO(): CliIO {
     stderr: process.stderr,
     readStdin: async () => {
       const chunks: Buffer[] = [];
-      for await (const chunk of process.stdin) chunks.push(typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer));
+      let total = 0;
+      for await (const chunk of process.stdin) {
+        const b = typeof chunk === 'string' ? Buffer.from(chunk) : (chunk as Buffer);
+        chunks.push(b);
+        total += b.length;
+        // an endless pipe (yes | ringdown run -) is refused, not read to its end
+        if (total > MAX_FILE_BYTES) {
+          process.stdin.destroy();
+          tooLarge('standard input', 'it goes on');
+        }
+      }
       return decodeText(Buffer.concat(chunks));
     },
     env: process.env,
