@@ -69,11 +69,11 @@ export function renderChart(traces: readonly ChartTrace[], options: ChartOptions
     format: (x: number) => labelAt(x).padStart(labelW),
   });
 
-  const lines = plot.split('\n').map((l) => l.replace(/\s+$/, ''));
+  const lines = plot.split('\n').map((l) => l.trimEnd());
   const axisCol = labelW + 1; // label, one space, axis
   lines.push(...timeAxis(start, end, cols, axisCol, totalWidth));
   lines.push(legend(traces, axisCol, color));
-  return lines.map((l) => l.replace(/\s+$/, '')).join('\n');
+  return lines.map((l) => l.trimEnd()).join('\n');
 }
 
 /** Finer samples looked at per chart column, so that a peak between columns still shows. */
