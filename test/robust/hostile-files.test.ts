@@ -6,7 +6,14 @@
  * refuse early and say why); the numbers checked against come from the textbook formulas named
  * beside them (from memory).
  */
-import { describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+import { parseSamplesOption } from '../../src/cli/options.js';
+import { MAX_FILE_BYTES, MAX_SAMPLES } from '../../src/circuit/limits.js';
+import { capture } from '../helpers/capture.js';
 import { loadCircuit } from '../../src/circuit/load.js';
 import { MAX_SOURCE_CORNERS } from '../../src/circuit/limits.js';
 import { termCorners } from '../../src/circuit/workload.js';
@@ -115,5 +122,54 @@ describe('check explains the state reduction by part and line', () => {
     expect(out).toContain('2 capacitors + 2 inductors − 1 capacitor loop − 1 inductor cut-set = 2 states');
     expect(out).toMatch(/- loop V1 \(line 1\) → C1 \(line 2\) → C2 \(line 3\): V1, C1 and C2 form a loop of capacitors and voltage sources only: the voltage of C2 is fixed by V1 and C1/);
     expect(out).toMatch(/- cut-set L1 \(line 6\), L2 \(line 7\), I1 \(line 5\): .*the current of L1 is fixed by L2 and I1/);
+  });
+});
+
+describe('inputs that never end or are far too large', () => {
+  let dir = '';
+  beforeAll(() => {
+    dir = mkdtempSync(join(tmpdir(), 'ringdown-endless-'));
+  });
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+  const argv = (...args: string[]) => ['node', 'ringdown', ...args];
+
+  it('a device as the circuit file (/dev/zero filled 7 GB in 20 s) is refused after 5 MB, exit 2', async () => {
+    const io = capture();
+    expect(await main(argv('check', '/dev/zero'), io)).toBe(2);
+    expect(io.err()).toBe('ringdown: cannot read /dev/zero: it goes on, more than the 5 MB a circuit file may have (is this the right file?)\n');
+  });
+
+  it('a regular file over the limit is refused from its size, before it is read', async () => {
+    const file = join(dir, 'big.rdn');
+    writeFileSync(file, '#'.repeat(MAX_FILE_BYTES + 10));
+    const io = capture();
+    expect(await main(argv('run', file), io)).toBe(2);
+    expect(io.err()).toContain(`cannot read ${file}: it is 5.00 MB, more than the 5 MB a circuit file may have`);
+  });
+
+  it('a table file that is a device (/dev/urandom: 16 GB and no end) or larger than 5 MB is a located error', () => {
+    const e = refusal(RC('table file "/dev/urandom"', '1ms'));
+    expect(e.diagnostics[0]).toMatchObject({ message: "cannot read table file '/dev/urandom': it is not a regular file (a device, pipe or socket)", loc: { line: 1, col: 40 } });
+    const csv = join(dir, 'big.csv');
+    writeFileSync(csv, '0,0\n'.repeat(Math.ceil(MAX_FILE_BYTES / 4) + 4));
+    const big = refusal(RC(`table file "${csv}"`, '1ms'));
+    expect(big.diagnostics[0]!.message).toMatch(/^table file '.*big\.csv' is 5\.0 MB, more than the 5 MB a table file may have$/);
+  });
+
+  it('--samples is held to the same limit as the samples line', () => {
+    expect(parseSamplesOption(String(MAX_SAMPLES))).toBe(MAX_SAMPLES);
+    expect(() => parseSamplesOption(String(MAX_SAMPLES + 1))).toThrow(`at most ${MAX_SAMPLES}`);
+  });
+});
+
+describe('report layout on very wide cells', () => {
+  it('check on a switch with 9000 toggles (one 100 000-column cell) takes well under a second, not 22 s', () => {
+    // the table's trailing-space trim was a /\s+$/ regular expression: quadratic in a padded row
+    const text = `voltage-source V1 in -> gnd 5V\nswitch S1 in -> a on 1ohm off 1k toggles ${Array.from({ length: 9000 }, (_, k) => `${k + 1}us`).join(', ')}\nresistor R1 a -> gnd 1k\ncapacitor C1 a -> gnd 1nF\nwatch node a\n`;
+    const c = loadCircuit(text, 'toggles.rdn');
+    const t0 = Date.now();
+    const out = formatCheck(c);
+    expect(Date.now() - t0).toBeLessThan(2000);
+    expect(out).toContain('starts open, closes at 1 µs, opens at 2 µs');
   });
 });
