@@ -138,6 +138,39 @@ function aliveGroups(chs: readonly Groups[], prep: Prep, ta: number, tb: number,
   return count;
 }
 
+/** The fastest oscillation |Im κ| among the groups alive[0 … na−1]. */
+function fastest(g: Groups, alive: Int32Array, na: number): number {
+  let w = 0;
+  for (let j = 0; j < na; j++) w = Math.max(w, Math.abs(g.ki[alive[j]!]!));
+  return w;
+}
+
+/**
+ * The fastest oscillation |Im κ| among the groups alive[0 … na−1] whose size at τ = ta reaches
+ * e^logThin of the largest single-coefficient group's there, in some channel.
+ */
+function fastestAbove(chs: readonly Groups[], prep: Prep, ta: number, alive: Int32Array, na: number, logThin: number): number {
+  const g = chs[0]!;
+  const n = g.n;
+  let w = 0;
+  for (let c = 0; c < chs.length; c++) {
+    const la = prep.logAmp[c]!;
+    let top = -Infinity;
+    for (let q = 0; q < n; q++) {
+      if (!prep.single[q]) continue;
+      const v = la[q]! + g.kr[q]! * ta;
+      if (v > top) top = v;
+    }
+    const floor = top + logThin;
+    for (let j = 0; j < na; j++) {
+      const q = alive[j]!;
+      const ki = Math.abs(g.ki[q]!);
+      if (ki > w && !(la[q]! + g.kr[q]! * ta < floor)) w = ki;
+    }
+  }
+  return w;
+}
+
 /** Grows a scratch array to at least n entries (contents not kept); makes it when missing (a new channel). */
 function room(a: Float64Array<ArrayBuffer> | undefined, n: number): Float64Array<ArrayBuffer> {
   return a && a.length >= n ? a : new Float64Array(Math.max(n, 2 * (a?.length ?? 0)));
@@ -261,7 +294,7 @@ export class Sweeper {
    * the fastest oscillation still of any size, and at least `minIntervals` intervals over the
    * whole width. Leaves the times in uT and the channels in uV; returns the count.
    */
-  private searchGrid(chs: readonly Groups[], t0: number, lo: number, hi: number, m: number, minIntervals: number, harmonics: number): number {
+  private searchGrid(chs: readonly Groups[], t0: number, lo: number, hi: number, m: number, minIntervals: number, harmonics: number, thin = 0): number {
     const g = chs[0]!;
     const width = hi - lo;
     const hb = width / m;
@@ -281,8 +314,7 @@ export class Sweeper {
       let s = 1;
       if (prep) {
         na = aliveGroups(chs, prep, ta, ta + (CHUNK - 1) * sMax * hb, alive);
-        let w = 0;
-        for (let j = 0; j < na; j++) w = Math.max(w, Math.abs(g.ki[alive[j]!]!));
+        const w = thin > 0 ? fastestAbove(chs, prep, ta, alive, na, Math.log(thin)) : fastest(g, alive, na);
         const fit = w > 0 ? Math.PI / 4 / (harmonics * w * hb) : Infinity;
         while (s < sMax && 2 * s <= fit) s *= 2;
         // stay on multiples of the stride: the grid is a subset of the one of stride 1
@@ -314,7 +346,7 @@ export class Sweeper {
   grid(chs: readonly Groups[], spec: GridSpec): number {
     const { t0, lo, hi } = spec;
     this.byStep.clear();
-    const nU = this.searchGrid(chs, t0, lo, hi, spec.m, spec.minIntervals, spec.harmonics ?? 1);
+    const nU = this.searchGrid(chs, t0, lo, hi, spec.m, spec.minIntervals, spec.harmonics ?? 1, spec.thin);
     // extra times strictly inside (lo, hi)
     let a = 0;
     let nS = 0;
@@ -513,6 +545,13 @@ export interface GridSpec {
    * (2 for the product of two channels, whose frequencies add); default 1
    */
   harmonics?: number;
+  /**
+   * when given, only groups of at least this size relative to the largest (per channel, at the
+   * start of each chunk) set the stride of the thinned grid; by default every group summed does.
+   * For searches that certify the intervals between grid points (certify.ts): the grid is then
+   * only a matter of speed
+   */
+  thin?: number;
 }
 
 /** Σ of the groups idx[0 … count−1] of g at τ (as lti/term.ts groupsValue). */
