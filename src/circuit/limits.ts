@@ -58,3 +58,14 @@ export const MAX_RINGING_PERIODS = 500_000;
  * stay normal numbers: a span of 5e-324 s failed the cross-check with an infinite error.
  */
 export const MIN_SPAN = 1e-100;
+
+/**
+ * Resistances, capacitances and inductances (SI) lie within [MIN_PART_VALUE, MAX_PART_VALUE], and
+ * initial values are at most MAX_PART_VALUE in size. 24 decades each way hold anything on a board
+ * (fF to kF, mΩ to GΩ) with a dozen decades to spare; beyond, the circuit equations' scales pass
+ * the floating-point range (a 1e-300 Ω resistor beside a 1e300 F capacitor never finished;
+ * 1e-200 Ω with 1e-200 F was reported as having no unique solution; an initial 1e300 V gave an
+ * infinite stored energy and a NaN energy balance).
+ */
+export const MIN_PART_VALUE = 1e-24;
+export const MAX_PART_VALUE = 1e24;

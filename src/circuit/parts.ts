@@ -6,6 +6,9 @@ import { elaborateRatings } from './ratings.js';
 import { PLACES } from './units.js';
 import { elaborateSwitch } from './switch.js';
 import { elaborateWaveform } from './waveform.js';
+import { MAX_PART_VALUE, MIN_PART_VALUE } from './limits.js';
+
+const UNIT_OF: Record<string, string> = { resistor: 'Ω', capacitor: 'F', inductor: 'H' };
 
 type PartStatement = Extract<Statement, { kind: 'part' }>;
 
@@ -60,12 +63,22 @@ export function elaboratePart(st: PartStatement, earlier: ReadonlyMap<string, Pa
         expected: `${VALUE_PLACE[st.part].what} greater than zero, such as ${VALUE_PLACE[st.part].example}`,
       });
       ok = false;
+    } else if (!(value >= MIN_PART_VALUE && value <= MAX_PART_VALUE)) {
+      raise(ctx.sink, 'error', st.value.loc, `the value of ${st.part} ${name}, ${value} ${UNIT_OF[st.part]}, is outside the range ringdown computes with (${MIN_PART_VALUE} to ${MAX_PART_VALUE} ${UNIT_OF[st.part]})`, {
+        expected: `${VALUE_PLACE[st.part].what} such as ${VALUE_PLACE[st.part].example}`,
+        hint: 'check the exponent and the prefix',
+      });
+      ok = false;
     } else part.value = value;
     if (st.initial) {
       const place = st.part === 'capacitor' ? PLACES.voltage : PLACES.current;
       const initial = evaluateFor(st.initial, place, `the initial ${place.what.replace(/^an? /, '')} of ${name}`, ctx);
       if (initial === undefined) ok = false;
-      else part.initial = initial;
+      else if (!(Math.abs(initial) <= MAX_PART_VALUE)) {
+        const unit = st.part === 'capacitor' ? 'V' : 'A';
+        raise(ctx.sink, 'error', st.initial.loc, `the initial value of ${name}, ${initial} ${unit}, is larger than ringdown computes with (at most ${MAX_PART_VALUE} ${unit} in size)`, { hint: 'check the exponent and the prefix' });
+        ok = false;
+      } else part.initial = initial;
     }
   }
   return ok ? part : undefined;

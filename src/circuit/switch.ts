@@ -1,3 +1,4 @@
+import { MAX_PART_VALUE, MIN_PART_VALUE } from './limits.js';
 import type { KeyArg, ValueNode } from '../netlist/ast.js';
 import { raise } from '../netlist/errors.js';
 import type { SourceLocation } from '../netlist/location.js';
@@ -22,6 +23,9 @@ export function elaborateSwitch(args: readonly KeyArg[], name: string, ctx: Eval
     const r = evaluateFor(arg.value, PLACES.resistance, `the '${arg.key}' resistance of ${name}`, ctx);
     if (r === undefined) ok = false;
     else if (!(r > 0)) return fail(arg.value.loc, `the '${arg.key}' resistance of switch ${name} must be positive, got ${r}`);
+    else if (!(r >= MIN_PART_VALUE && r <= MAX_PART_VALUE)) {
+      return fail(arg.value.loc, `the '${arg.key}' resistance of switch ${name}, ${r} Ω, is outside the range ringdown computes with (${MIN_PART_VALUE} to ${MAX_PART_VALUE} Ω)`, arg.key === 'off' ? "for a switch that carries nothing when open, write 'off open'" : 'check the exponent and the prefix');
+    }
     return r;
   };
   const eventTime = (arg: KeyArg, node: ValueNode): number | undefined => {
