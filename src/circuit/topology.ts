@@ -47,7 +47,7 @@ function checkGroundPaths(parts: readonly Part[], sink: DiagnosticSink): Set<str
     raise(sink, 'error', island.parts[0]!.loc, message, {
       hint: groundUsed
         ? 'join this group to the rest of the circuit through a part (a large resistor will do)'
-        : 'gnd is the 0 V reference node; connect one of these nodes to gnd',
+        : groundLookalike(island.nodes) ?? 'gnd is the 0 V reference node; connect one of these nodes to gnd',
     });
   }
   return floating;
@@ -161,4 +161,10 @@ const MAX_SUGGESTIONS = 20;
 function suggestion(node: string, names: string[]): string {
   const near = closest(node, names);
   return near ? `did you mean '${near}'? otherwise this end is left open` : 'this end of the part is left open';
+}
+
+/** A hint for a node that was meant as the reference but is spelt otherwise ('GND', 'ground', '0'). */
+function groundLookalike(nodes: readonly string[]): string | undefined {
+  const meant = nodes.find((n) => /^(gnd|ground|agnd|dgnd|0|vss|com)$/i.test(n));
+  return meant === undefined ? undefined : `the reference node is written gnd (lower case); '${meant}' is an ordinary node name: write gnd instead`;
 }
