@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.js';
 import { parseSamplesOption } from '../../src/cli/options.js';
-import { MAX_FILE_BYTES, MAX_SAMPLES } from '../../src/circuit/limits.js';
+import { MAX_FILE_BYTES, MAX_PART_VALUE, MAX_SAMPLES, MIN_PART_VALUE } from '../../src/circuit/limits.js';
 import { capture } from '../helpers/capture.js';
 import { loadCircuit } from '../../src/circuit/load.js';
 import { MAX_SOURCE_CORNERS } from '../../src/circuit/limits.js';
@@ -171,5 +171,42 @@ describe('report layout on very wide cells', () => {
     const out = formatCheck(c);
     expect(Date.now() - t0).toBeLessThan(2000);
     expect(out).toContain('starts open, closes at 1 µs, opens at 2 µs');
+  });
+});
+
+describe('part values at and past the edge of the range', () => {
+  const divider = (R: string, C: string) => `voltage-source V1 in -> gnd step to 1V\nresistor R1 in -> a ${R}\ncapacitor C1 a -> gnd ${C}F\nwatch node a\n`;
+
+  it(`values of ${MIN_PART_VALUE} and ${MAX_PART_VALUE} run: RC step v = 1 − e^(−t/RC) to 1e-9 (textbook)`, () => {
+    for (const [R, C] of [['1e-24', '1e-24'], ['1e24', '1e24'], ['1e-24', '1e24'], ['1e24', '1e-24']]) {
+      const r = analyzeText(divider(R!, C!), 'edge.rdn');
+      expect(r.crossCheck.passed).toBe(true);
+      const tau = Number(R) * Number(C);
+      r.times.forEach((t, i) => expect(Math.abs(r.traces[0]!.values[i]! + Math.expm1(-t / tau))).toBeLessThanOrEqual(1e-9));
+    }
+  });
+
+  it('a value past the range is a located error that says the range (1e-300 Ω beside 1e300 F never finished)', () => {
+    const e = refusal(divider('1e-300', '1e300'));
+    expect(e.diagnostics.map((d) => [d.message, d.loc?.line, d.loc?.col])).toEqual([
+      ['the value of resistor R1, 1e-300 Ω, is outside the range ringdown computes with (1e-24 to 1e+24 Ω)', 2, 21],
+      ['the value of capacitor C1, 1e+300 F, is outside the range ringdown computes with (1e-24 to 1e+24 F)', 3, 23],
+    ]);
+    expect(e.diagnostics[0]!.hint).toBe('check the exponent and the prefix');
+  });
+
+  it("a switch's off resistance past the range points at 'off open'; an initial value of 1e300 V (infinite stored energy) is refused", () => {
+    const sw = refusal('voltage-source V1 in -> gnd 5V\nswitch S1 in -> a on 1ohm off 1e30 closes 1ms\ncapacitor C1 a -> gnd 1uF\nwatch node a\n');
+    expect(sw.diagnostics[0]).toMatchObject({ loc: { line: 2, col: 31 }, hint: "for a switch that carries nothing when open, write 'off open'" });
+    const init = refusal('voltage-source V1 in -> gnd 5V\nresistor R1 in -> a 1k\ncapacitor C1 a -> gnd 1uF initial 1e300V\nwatch node a\n');
+    expect(init.diagnostics[0]).toMatchObject({ message: 'the initial value of C1, 1e+300 V, is larger than ringdown computes with (at most 1e+24 V in size)', loc: { line: 3, col: 35 } });
+  });
+});
+
+describe('a reference node spelt otherwise', () => {
+  it("'GND' gets a hint that the reference is written gnd", () => {
+    const e = refusal('voltage-source V1 in -> GND step to 5V\nresistor R1 in -> a 1k\ncapacitor C1 a -> GND 1uF\nwatch node a\n');
+    expect(e.diagnostics[0]!.message).toBe("nothing connects to gnd: nodes 'in', 'GND', 'a' have no reference");
+    expect(e.diagnostics[0]!.hint).toBe("the reference node is written gnd (lower case); 'GND' is an ordinary node name: write gnd instead");
   });
 });
