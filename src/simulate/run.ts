@@ -1,7 +1,7 @@
 import type { Circuit, Part, Watch, Waveform } from '../circuit/circuit.js';
 import { GROUND } from '../circuit/circuit.js';
 import { InputError } from '../diagnostics.js';
-import { checkRinging, checkWorkload } from '../circuit/workload.js';
+import { checkWorkload } from '../circuit/workload.js';
 import { currentProbe, emptyProbe, voltageProbe } from '../model/descriptor.js';
 import { type Model, buildModel } from '../model/build.js';
 import type { Readout } from '../model/state-space.js';
@@ -117,7 +117,6 @@ export function simulate(circuit: Circuit, opts: SimulateOptions = {}): Simulati
   const span = spanGiven ?? chooseSpan(allModes, lastEvent);
   // refused before any breakpoint list is built (a 1 ns pulse train over 1000 s has 10¹² corners)
   checkWorkload(circuit, span);
-  checkRinging(circuit, allModes.flatMap((m) => (m.kind === 'oscillatory' ? [m] : [])), span, spanGiven !== undefined);
   const samples = Math.max(2, Math.floor(opts.samples ?? circuit.analysis.samples));
   const eps = epochs(circuit, span);
   // a repeating drive: the first period boundary after every other event, where the periodic
