@@ -31,10 +31,7 @@ export function elaborateAnalysis(statements: readonly AnalysisStatement[], ctx:
       if (span === undefined) continue;
       if (!(span > 0)) raise(ctx.sink, 'error', st.value.loc, `span must be a positive time, got ${span} s`, { expected: 'a time such as 10ms' });
       else if (span < MIN_SPAN) raise(ctx.sink, 'error', st.value.loc, `span must be at least ${MIN_SPAN} s, got ${span} s`, { expected: 'a time such as 10ms' });
-      else {
-        analysis.span = span;
-        analysis.spanLoc = st.value.loc;
-      }
+      else analysis.span = span;
     } else if (st.kind === 'samples') {
       const n = evaluateFor(st.value, PLACES.count, 'samples', ctx);
       if (n === undefined) continue;

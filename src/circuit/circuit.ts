@@ -100,8 +100,6 @@ export type SettleBand = { kind: 'relative'; fraction: number } | { kind: 'absol
 export interface Analysis {
   /** Seconds; undefined means: choose from the slowest mode. */
   span?: number;
-  /** Where the span was given (for errors about the span's length). */
-  spanLoc?: SourceLocation;
   samples: number;
   settle: SettleBand;
   /**

@@ -45,14 +45,6 @@ export const MAX_STATES = 2_000;
 export const MAX_SOURCE_CORNERS = 100_000;
 
 /**
- * Periods of ringing (of modes not yet decayed below round-off) within the span of one run. The
- * measurements (peaks, crossings, settling) bound the closed forms between samples, so their cost
- * grows with the oscillations between samples: measured, 2·10⁵ periods of a 1 rad/s series RLC took
- * 5 s, 2·10⁶ took 38 s without the text report's part stress. Checked once the modes are known.
- */
-export const MAX_RINGING_PERIODS = 500_000;
-
-/**
  * The shortest span (seconds). Far below anything physical (a femtofarad through a milliohm is
  * 1e-18 s), and far enough above the floating-point range that sample spacings and time constants
  * stay normal numbers: a span of 5e-324 s failed the cross-check with an infinite error.

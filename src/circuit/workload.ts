@@ -1,6 +1,6 @@
 import { InputError, type Diagnostic } from '../diagnostics.js';
 import type { Circuit, WaveTerm } from './circuit.js';
-import { MAX_RINGING_PERIODS, MAX_SOURCE_CORNERS } from './limits.js';
+import { MAX_SOURCE_CORNERS } from './limits.js';
 
 /**
  * How many intervals a run over `span` would cut the sources into, counted from the waveform
@@ -64,25 +64,3 @@ export function checkWorkload(circuit: Circuit, span: number): void {
   throw new InputError([d]);
 }
 
-/**
- * Refuses a span that holds more than MAX_RINGING_PERIODS periods of a ringing mode while it is
- * still above round-off (e^(σt) > 1e-16): a high-Q tank over a long span given by hand.
- * `modes`: ωd and σ of the ringing modes (rad/s, 1/s).
- */
-export function checkRinging(circuit: Circuit, modes: readonly { omegaD: number; sigma: number }[], span: number, spanGiven: boolean): void {
-  for (const m of modes) {
-    if (!(m.omegaD > 0)) continue;
-    const visible = m.sigma < 0 ? Math.min(span, 36.8 / -m.sigma) : span;
-    const periods = (visible * m.omegaD) / (2 * Math.PI);
-    if (!(periods > MAX_RINGING_PERIODS)) continue;
-    const hz = m.omegaD / (2 * Math.PI);
-    throw new InputError([
-      {
-        severity: 'error',
-        message: `the span of ${span} s holds ${count(Math.round(periods))} periods of ringing at ${hz.toPrecision(4)} Hz, more than the ${MAX_RINGING_PERIODS} ringdown measures in one run`,
-        loc: spanGiven ? circuit.analysis.spanLoc ?? circuit.parts[0]?.loc : circuit.parts[0]?.loc,
-        hint: 'shorten the span: a few hundred periods show the ringing and its decay envelope',
-      },
-    ]);
-  }
-}
