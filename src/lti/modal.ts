@@ -127,6 +127,28 @@ export function modalDecomposition(A: Mat): Modal {
       if (equal || (dist <= CLOSE * big && colSine(G, H) < PARALLEL)) parent[find(g)] = find(h);
     }
   }
+  // An RC network is symmetric under a diagonal weight, so its eigenvectors are never ill-conditioned
+  // in that weight; but when the weight spans many decades (a 1 nΩ source into 1 GF beside 1 GΩ
+  // into 1 nF: two equal time constants loaded by 1e-18) two neighbouring eigenvalues can lie within
+  // round-off of each other with nearly parallel vectors in plain coordinates, where the closed form
+  // of two separate modes loses u/√ε (2.7e-8 there). Neighbours in that state are merged into a
+  // cluster like any other nearly defective pair (one pass over the sorted neighbours: O(n²)).
+  if (symScale) {
+    let lo = Infinity;
+    let hi = 0;
+    for (const d of symScale) {
+      lo = Math.min(lo, Math.abs(d));
+      hi = Math.max(hi, Math.abs(d));
+    }
+    if (hi > 1e6 * lo) {
+      for (let x = 0; x + 1 < order.length; x++) {
+        const g = order[x];
+        const h = order[x + 1];
+        const big = Math.max(groupScale[g], groupScale[h]);
+        if (Math.abs(re[groups[h][0]] - re[groups[g][0]]) <= CLOSE * big && colSine(groups[g], groups[h]) < PARALLEL) parent[find(g)] = find(h);
+      }
+    }
+  }
   const members = new Map<number, number[]>();
   groups.forEach((_, g) => {
     const r = find(g);
