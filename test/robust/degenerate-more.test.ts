@@ -141,3 +141,27 @@ describe('the settled start with decoupled, conserved states', () => {
     expect(worst(r, 'v(a)', (t) => (1e-3 * t) / 1e-6)).toBeLessThanOrEqual(REL_TOL);
   });
 });
+
+describe('two equal RC lags, the second loading the first by 1e-18 .. 1e-30 (nearly defective, extreme weights)', () => {
+  // R1 = 10^-k Ω into C1 = 10^k F (τ1 = 1 s), R2 = 10^k Ω into C2 = 10^-k F (τ2 = 1 s). The loading
+  // R1/R2 = 10^-2k moves the poles to −1 ± 10^-k /s with nearly parallel eigenvectors; the response
+  // is that of two equal first-order lags to within 10^-2k (textbook cascade, from memory):
+  //   v(b) = 1 − (1 + t)·e^(−t)
+  const text = (k: number) =>
+    `voltage-source V1 in -> gnd step to 1V\nresistor R1 in -> a 1e-${k}\ncapacitor C1 a -> gnd 1e${k}F\nresistor R2 a -> b 1e${k}\ncapacitor C2 b -> gnd 1e-${k}F\nwatch node b\nspan 7\nsamples 201\n`;
+  // k = 9 lost 2.7e-8 (u/√ε) before such neighbours were merged on the symmetric route, k = 12 2.4e-4
+  for (const k of [9, 12, 15]) {
+    it(`k = ${k}: v(b) to 1e-9, cross-check passes`, () => {
+      const r = analyzeText(text(k), 'lags.rdn');
+      expect(r.crossCheck.passed).toBe(true);
+      expect(worst(r, 'v(b)', (t) => 1 - (1 + t) * Math.exp(-t))).toBeLessThanOrEqual(REL_TOL);
+    });
+  }
+  // Still open: at k = 18 (1e-18 Ω into 1e18 F, loading 1e-36) v(b) comes out as 0. The in-run
+  // cross-check catches it (0.99 relative, exit code 3), so no wrong number goes out unflagged; the
+  // coupling 1/(R2·C1) = 1e-36 beside 1 is lost in the model's reduction or the modal route.
+  it.fails('k = 18: v(b) to 1e-9 (known failure: v(b) = 0, the cross-check says so)', () => {
+    const r = analyzeText(text(18), 'lags.rdn');
+    expect(worst(r, 'v(b)', (t) => 1 - (1 + t) * Math.exp(-t))).toBeLessThanOrEqual(REL_TOL);
+  });
+});
