@@ -19,6 +19,9 @@ export interface Token {
 }
 
 const WORD_START = /[A-Za-z_]/;
+/** Never inside quoted text: C0 and C1 control characters but tab, DEL, and direction overrides and isolates. */
+// eslint-disable-next-line no-control-regex
+const STRING_FORBIDDEN = /[\u0000-\u0008\u000a-\u001f\u007f-\u009f\u202a-\u202e\u2066-\u2069]/;
 const WORD_PART = /[A-Za-z0-9_]/;
 /** Characters that may follow a number to form one literal: digits, prefixes, unit symbols. */
 const QUANTITY_PART = /[A-Za-z0-9_.%\u00b5\u03bc\u03a9\u2126\u00b7]/;
@@ -77,7 +80,17 @@ export function tokenizeLine(
         });
         return undefined;
       }
-      push('string', i, close + 1, line.slice(i + 1, close));
+      // control characters would reach the terminal from a title or label (an escape sequence can
+      // clear the screen or retitle the window), and direction overrides reorder what is shown
+      const inner = line.slice(i + 1, close);
+      const bad = inner.search(STRING_FORBIDDEN);
+      if (bad >= 0) {
+        const ch = inner[bad]!;
+        const { message, hint } = describeUnexpected(ch);
+        raise(sink, 'error', at(i + 1 + bad, i + 2 + bad), `${message} inside quoted text`, { expected: 'printable text between the quotes', hint: hint ?? 'delete it' });
+        return undefined;
+      }
+      push('string', i, close + 1, inner);
       i = close + 1;
     } else if (c === '(') {
       const close = matchParen(line, i);

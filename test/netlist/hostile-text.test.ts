@@ -154,6 +154,25 @@ describe('characters that are not what they look like', () => {
   });
 });
 
+describe('quoted text', () => {
+  it('an escape sequence in a title never reaches the report: a located error at the character', async () => {
+    const r = await cli('check', 'title.rdn', lines('title "evil \u001b[2J\u001b]0;pwned\u0007"', ...RC));
+    expect(r.code).toBe(2);
+    clean(r.err);
+    clean(r.out);
+    expect(r.err).toContain('title.rdn:1:13: error: unexpected invisible character U+001B (escape) inside quoted text');
+    expect(r.err).toContain('expected: printable text between the quotes');
+  });
+
+  it('a direction override in a label is refused; ordinary Unicode in labels and titles is kept', () => {
+    const [d] = errors(lines(...RC.slice(0, 3), 'watch node out as "out\u202eput"'));
+    expect(d).toMatchObject({ message: 'unexpected invisible character U+202E (right-to-left override) inside quoted text', loc: { line: 4, col: 23 } });
+    const c = loadCircuit(lines('title "Ünïcödé ☃ 电路, 10 µF"', ...RC.slice(0, 3), 'watch node out as "Ausgang Ω"'), 'u.rdn');
+    expect(c.title).toBe('Ünïcödé ☃ 电路, 10 µF');
+    expect(c.watches[0]!.label).toBe('Ausgang Ω');
+  });
+});
+
 describe('long lines', () => {
   it('a 1 MB line is refused at the limit and quoted as a window around the caret, not whole', async () => {
     const r = await cli('run', 'long.rdn', CIRCUIT + 'title "' + 'y'.repeat(1 << 20) + '"\n');
