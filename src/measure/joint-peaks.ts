@@ -21,7 +21,8 @@ import { certify, GIVE_UP, intervalBound, LayoutEnvelope, layoutValues, refineBr
  * shown to be its only one (|y''(r)| against max|y'''|), is certified (certify.ts): shown by
  * Taylor and Hermite bounds with max|y''|, max|y⁗| to hold no value above the peak (within the
  * tie tolerance), or split and searched again. So the peak is the closed form's largest value to
- * 1e-12 whatever the grid, and the grid's stride is set only by the modes of some size (THIN).
+ * 1e-12 whatever the grid, and the grid's stride is set only by the modes above 1e-3 of the
+ * largest (THIN).
  */
 export class JointPeaks {
   private readonly sw = new Sweeper();
@@ -364,7 +365,7 @@ class Bounds10 {
 
 const CHUNK = 64;
 /** groups below this size relative to the largest do not set the stride of the certified search's grid */
-const THIN = 1e-6;
+const THIN = 1e-3;
 /** splits the certification of one signal of one piece may make before it gives up */
 const BUDGET = 20_000;
 
