@@ -5,6 +5,9 @@ import { EXIT_INPUT, EXIT_INTERNAL } from './exit.js';
 import { ReadError } from './input.js';
 import type { CliIO } from './io.js';
 
+/** Diagnostics printed at most per run; the count of the rest is given. */
+export const MAX_SHOWN = 50;
+
 /**
  * Reports a failure on standard error and gives the exit code: input problems (every diagnostic,
  * no stack trace) → 2; anything else is an internal error → 1, with the stack only under --debug.
@@ -14,8 +17,10 @@ export function reportFailure(error: unknown, sourceText: string, io: CliIO, deb
   if (error instanceof InputError) {
     // Errors first: they are why nothing was computed; warnings follow.
     const ordered = [...error.diagnostics.filter((d) => d.severity === 'error'), ...error.diagnostics.filter((d) => d.severity !== 'error')];
-    const parts = ordered.map((d) => formatDiagnostic(d, sourceText, color));
+    // a wholly wrong file (thousands of bad lines) shows the first MAX_SHOWN, not a megabyte of them
+    const parts = ordered.slice(0, MAX_SHOWN).map((d) => formatDiagnostic(d, sourceText, color));
     const errors = error.diagnostics.filter((d) => d.severity === 'error').length;
+    if (ordered.length > MAX_SHOWN) parts.push(`… and ${ordered.length - MAX_SHOWN} more problems not shown (fix the ones above first)`);
     io.stderr.write(parts.join('\n\n') + '\n');
     io.stderr.write(`ringdown: ${errors} error${errors === 1 ? '' : 's'} in the input; nothing was computed\n`);
     return EXIT_INPUT;

@@ -195,3 +195,15 @@ describe('long lines', () => {
     expect(displayLine('resistor R1 a -> b 1k', 10, 2)).toEqual({ text: 'resistor R1 a -> b 1k', col: 10, length: 2 });
   });
 });
+
+describe('a wholly wrong file', () => {
+  it('4000 bad lines: the first 50 problems are printed and the rest counted, not 940 KB of them', async () => {
+    const text = lines('voltage-source V1 in -> gnd 5V', 'capacitor C1 in -> a 1uF', 'watch node a', ...Array.from({ length: 4000 }, (_, k) => `resistor R${k} in -> a 1uH`));
+    const r = await cli('run', 'wrong.rdn', text);
+    expect(r.code).toBe(2);
+    expect(r.err.match(/: error: /g)).toHaveLength(50);
+    expect(r.err).toContain('… and 3950 more problems not shown (fix the ones above first)');
+    expect(r.err.trimEnd().endsWith('ringdown: 4000 errors in the input; nothing was computed')).toBe(true);
+    expect(r.err.length).toBeLessThan(20_000);
+  });
+});
