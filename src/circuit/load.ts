@@ -68,6 +68,16 @@ export function loadCircuit(text: string, file: string): Circuit {
 
   // Watches may name parts declared further down, so they are resolved after all parts.
   const watches = watchStatements.flatMap((st) => elaborateWatch(st, nodes, declaredParts, sink, netlist.brokenPartLines.length > 0) ?? []);
+  // two watches with one label make columns of the CSV and traces of the JSON that cannot be told apart
+  const firstWithLabel = new Map<string, SourceLocation>();
+  for (const w of watches) {
+    const first = firstWithLabel.get(w.label);
+    if (first) {
+      raise(sink, 'warning', w.loc, `this watch has the same label '${w.label}' as the watch on line ${first.line}`, {
+        hint: 'give one of them its own label with as "…" or drop the repeated line: otherwise their CSV columns and JSON traces cannot be told apart',
+      });
+    } else firstWithLabel.set(w.label, w.loc);
+  }
   const analysis = elaborateAnalysis(analysisStatements, ctx);
 
   const partsBroken = netlist.brokenPartLines.length > 0;

@@ -210,3 +210,15 @@ describe('a reference node spelt otherwise', () => {
     expect(e.diagnostics[0]!.hint).toBe("the reference node is written gnd (lower case); 'GND' is an ordinary node name: write gnd instead");
   });
 });
+
+describe('watches that cannot be told apart', () => {
+  it('two watches with one label draw a located warning, and the run still goes ahead', () => {
+    const text = 'voltage-source V1 in -> gnd step to 5V\nresistor R1 in -> a 1k\ncapacitor C1 a -> gnd 1uF\nwatch node a\nwatch node a\nwatch node a as "v(a)"\nwatch node a as "other"\n';
+    const c = loadCircuit(text, 'dup.rdn');
+    expect(c.watches).toHaveLength(4);
+    expect((c.warnings ?? []).map((w) => [w.message, w.loc?.line])).toEqual([
+      ["this watch has the same label 'v(a)' as the watch on line 4", 5],
+      ["this watch has the same label 'v(a)' as the watch on line 4", 6],
+    ]);
+  });
+});
