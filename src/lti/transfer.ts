@@ -222,16 +222,15 @@ export function transferOfImpulse(impulse: PathResponse['impulse']): Rational {
       groups.push({ num, den: ppow(quad, mult) });
     }
   }
+  // Σ_i num_i·Π_(j≠i) den_j accumulated group by group (acc·den_k + num_k·Π_(j<k) den_j): one pass,
+  // O(order²), instead of a product over the other groups for each group (O(order³))
   let den = [1];
-  for (const g of groups) den = pmul(den, g.den);
-  let num = pmul([impulse.directArea, impulse.derivArea], den);
-  groups.forEach((g, i) => {
-    let rest = g.num;
-    groups.forEach((h, j) => {
-      if (j !== i) rest = pmul(rest, h.den);
-    });
-    num = padd(num, rest);
-  });
+  let acc: number[] = [];
+  for (const g of groups) {
+    acc = padd(pmul(acc, g.den), pmul(g.num, den));
+    den = pmul(den, g.den);
+  }
+  let num = padd(pmul([impulse.directArea, impulse.derivArea], den), acc);
   while (num.length > 1 && num[num.length - 1] === 0) num.pop();
   return { num, den };
 }
