@@ -3,7 +3,14 @@ import type { Circuit, Watch, WatchTarget } from '../circuit/circuit.js';
 import { formatPlain, formatSI, formatSIExact } from './si.js';
 import { heading, table } from './table.js';
 import { warningLine } from './text.js';
+import { wrapWords } from './wrap.js';
 import { describeRatings, describeSwitching, describeWaveform, isSource, kindName, partUnit } from './waveform.js';
+
+/** A long list (a generated ladder has hundreds of states) as its first 20 and last 4 names. */
+function shortList(names: readonly string[]): string {
+  if (names.length <= 40) return names.join(', ');
+  return `${names.slice(0, 20).join(', ')}, … ${names.length - 24} more …, ${names.slice(-4).join(', ')}`;
+}
 
 function targetText(t: WatchTarget): string {
   switch (t.kind) {
@@ -87,7 +94,7 @@ export function formatCheck(circuit: Circuit): string {
     const st = describeStructure(circuit, { at });
     out.push(...heading(at === 0 ? (times.length > 1 ? 'States (switches as at t = 0)' : 'States') : 'States (switches as after the last event)'));
     out.push(`  ${st.summary}`);
-    if (st.stateNames.length > 0) out.push(`  state variables: ${st.stateNames.join(', ')}`);
+    if (st.stateNames.length > 0) out.push(...wrapWords(`  state variables: ${shortList(st.stateNames)}`, 80, '    '));
     // each part with the line it is declared on, so the loop can be found in the file
     const line = (name: string): string => {
       const part = circuit.parts.find((p) => p.name === name);
