@@ -139,7 +139,7 @@ export function ratingsSection(result: RunResult, color = false): string[] {
   );
   if (r.overLimit > 0) {
     const n = r.overLimit;
-    out.push(...wrapWords(`  ${n} rating${n === 1 ? '' : 's'} over the derated limit${r.overRating > 0 ? `, ${r.overRating} over the rating itself` : ''}: the command exits with code 4.`, WIDTH, '    '));
+    out.push(...wrapWords(`  ${n} rating${n === 1 ? '' : 's'} over the derated limit${r.overRating > 0 ? `, ${r.overRating} over the rating itself` : ''}: the command exits with code 4 (unless a danger caution fired: 5, or the cross-check failed: 3).`, WIDTH, '    '));
   } else {
     out.push('  every stress is within its derated limit.');
   }
