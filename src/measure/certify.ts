@@ -1,5 +1,6 @@
 import type { Groups } from '../lti/term.js';
 import { findRoot } from './root.js';
+import { channelsAtSome } from './sweep.js';
 
 /**
  * Certification of the grid intervals an extremum search did not refine. The search grid brackets
@@ -260,30 +261,14 @@ export function certify(s: Certified, a: number, b: number, ya: number, dya: num
   }
 }
 
-/** Each channel (one layout) at τ over all groups, into out[c]. */
+// 0 … n−1, grown as needed (the group indices of "all groups")
+let everyGroup = new Int32Array(0);
+
+/** Each channel (one layout) at τ over all groups, into out[c] (sweep.ts channelsAtSome). */
 export function layoutValues(chs: readonly Groups[], tau: number, out: Float64Array): void {
-  const g = chs[0]!;
-  const nc = chs.length;
-  out.fill(0, 0, nc);
-  for (let q = 0; q < g.n; q++) {
-    const a = g.kr[q]!;
-    const w = g.ki[q]!;
-    const m = a === 0 ? 1 : Math.exp(a * tau);
-    const cw = w === 0 ? 1 : Math.cos(w * tau);
-    const sw = w === 0 ? 0 : Math.sin(w * tau);
-    const o0 = g.off[q]!;
-    const o1 = g.off[q + 1]!;
-    for (let c = 0; c < nc; c++) {
-      const ch = chs[c]!;
-      let pr = 0;
-      let pi = 0;
-      for (let i = o1 - 1; i >= o0; i--) {
-        pr = pr * tau + ch.cr[i]!;
-        pi = pi * tau + ch.ci[i]!;
-      }
-      out[c] += w === 0 ? m * pr : m * (pr * cw - pi * sw);
-    }
-  }
+  const n = chs[0]!.n;
+  if (everyGroup.length < n) everyGroup = Int32Array.from({ length: Math.max(n, 2 * everyGroup.length) }, (_, q) => q);
+  channelsAtSome(chs, everyGroup, n, tau, out);
 }
 
 /** Root of y' refined on a bracket (Brent), for Certified.root. */

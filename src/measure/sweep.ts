@@ -562,7 +562,7 @@ function groupsAtSome(g: Groups, idx: Int32Array, count: number, tau: number): n
 }
 
 /** Each channel (one layout) at τ over the groups idx[0 … count−1], sharing the exponentials, into out[c]. */
-function channelsAtSome(chs: readonly Groups[], idx: Int32Array, count: number, tau: number, out: Float64Array): void {
+export function channelsAtSome(chs: readonly Groups[], idx: Int32Array, count: number, tau: number, out: Float64Array): void {
   const g = chs[0]!;
   const nc = chs.length;
   out.fill(0, 0, nc);
