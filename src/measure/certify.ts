@@ -1,5 +1,4 @@
 import type { Groups } from '../lti/term.js';
-import { findRoot } from './root.js';
 import { channelsAtSome } from './sweep.js';
 
 /**
@@ -73,30 +72,8 @@ function upper(ya: number, dya: number, yb: number, dyb: number, h: number, q: n
 }
 
 /**
- * Bounds over τ ∈ [a, b] (0 ≤ a ≤ b) of |Σ groups| for channels of one layout (lti/term.ts
- * groupsBound, sharing each group's envelope e^(Re κ·τ) between the channels), into out[c].
- */
-export function layoutBounds(chs: readonly Groups[], a: number, b: number, out: Float64Array): void {
-  const g = chs[0]!;
-  const nc = chs.length;
-  out.fill(0, 0, nc);
-  for (let q = 0; q < g.n; q++) {
-    const kr = g.kr[q]!;
-    const env = kr === 0 ? 1 : Math.exp(Math.max(kr * a, kr * b));
-    const o0 = g.off[q]!;
-    const o1 = g.off[q + 1]!;
-    for (let c = 0; c < nc; c++) {
-      const ch = chs[c]!;
-      let p = 0;
-      for (let i = o1 - 1; i >= o0; i--) p = p * b + Math.sqrt(ch.cr[i]! * ch.cr[i]! + ch.ci[i]! * ch.ci[i]!);
-      if (p !== 0) out[c] += p * env;
-    }
-  }
-}
-
-/**
- * Bounds of |Σ groups| for channels of one layout over short intervals, cheaper than
- * layoutBounds per interval: the groups are bucketed by decay rate (powers of two), each bucket's
+ * Bounds of |Σ groups| for channels of one layout over short intervals, cheaper than a sum over
+ * every group per interval (lti/term.ts groupsBound): the groups are bucketed by decay rate (powers of two), each bucket's
  * channel sums Σ|c|·e^(Re κ·τc) taken once at the start τc of a stretch (`stretch`), and an
  * interval [a, b] of the stretch bounded by Σ_bucket W·e^(−r·(a − τc)) with r the slowest decay of
  * the bucket (growing groups: e^(r·(b − τc)) with r the fastest growth). Polynomial factors are
@@ -271,7 +248,3 @@ export function layoutValues(chs: readonly Groups[], tau: number, out: Float64Ar
   channelsAtSome(chs, everyGroup, n, tau, out);
 }
 
-/** Root of y' refined on a bracket (Brent), for Certified.root. */
-export function refineBracket(df: (t: number) => number, a: number, b: number, da: number, db: number): number {
-  return findRoot(df, a, b, 1e-14, da, db);
-}

@@ -4,7 +4,7 @@ import { pieceValue } from './evaluate.js';
 import { gridFloor, geometricSteps, uniformIntervals, TIE, type MagnitudePeak } from './peak.js';
 import { findRoot } from './root.js';
 import { Sweeper, uniformStep } from './sweep.js';
-import { certify, GIVE_UP, intervalBound, LayoutEnvelope, layoutValues, refineBracket, type Certified } from './certify.js';
+import { certify, GIVE_UP, intervalBound, LayoutEnvelope, layoutValues, type Certified } from './certify.js';
 
 /**
  * Peak |v|, |i| and |v·i| of one piece of a part's voltage and current, found together: the two
@@ -221,7 +221,7 @@ export class JointPeaks {
             bound: (a, b, ya, da, yb, db) => via(bounds.over(a, b), ya, da, yb, db, b - a),
             root: (a, b, ya, da, yb, db, depth) => {
               // a root on a split point (to rounding) comes back as that end: a candidate all the same
-              const r = Math.min(Math.max(refineBracket(near(a, b, ch.der), a, b, da, db), a), b);
+              const r = Math.min(Math.max(findRoot(near(a, b, ch.der), a, b, 1e-14, da, db), a), b);
               consider(r);
               checkRoot(a, b, ya, da, yb, db, r, depth);
             },
