@@ -11,12 +11,8 @@ import { MAX_SOURCE_CORNERS } from './limits.js';
 /** Upper bound of the corners of one waveform term within [0, span]. */
 export function termCorners(term: WaveTerm, span: number): number {
   switch (term.kind) {
-    case 'pulse': {
-      if (!(term.start <= span)) return 1;
-      const started = Math.floor((span - term.start) / term.period) + 1;
-      const cycles = Math.min(term.cycles, Number.isFinite(started) ? started : Infinity);
-      return 4 * cycles + 1;
-    }
+    case 'pulse':
+      return term.start <= span ? 4 * pulseCycles(term, span) + 1 : 1;
     case 'table':
       return term.points.length;
     default:
@@ -24,6 +20,12 @@ export function termCorners(term: WaveTerm, span: number): number {
       // pieces are bounded where it is sampled
       return 2;
   }
+}
+
+/** Periods of a pulse train begun within [0, span] (its start at most span). */
+function pulseCycles(term: Extract<WaveTerm, { kind: 'pulse' }>, span: number): number {
+  const started = Math.floor((span - term.start) / term.period) + 1;
+  return Math.min(term.cycles, Number.isFinite(started) ? started : Infinity);
 }
 
 const count = (n: number): string => (n < 1e7 ? String(n) : n.toExponential(1).replace('e+', 'e'));
@@ -41,21 +43,19 @@ export function checkWorkload(circuit: Circuit, span: number): void {
     }
     total += corners;
     if (!worst || corners > worst.corners) {
-      const what = pulse
-        ? `the pulse train of ${part.name} has ${count(Math.min(pulse.cycles, Math.floor((span - pulse.start) / pulse.period) + 1))} periods within the span of ${span} s`
-        : `${part.name} changes ${count(corners)} times within the span of ${span} s`;
       worst = {
         corners,
         diagnostic: {
           severity: 'error',
-          message: '',
+          message: pulse
+            ? `the pulse train of ${part.name} has ${count(pulseCycles(pulse, span))} periods within the span of ${span} s`
+            : `${part.name} changes ${count(corners)} times within the span of ${span} s`,
           loc: part.loc,
           hint: pulse
             ? 'shorten the span or give the train fewer cycles: the periodic steady state is reported from a few hundred periods on'
             : 'shorten the span, or use fewer table points or switch events',
         },
       };
-      worst.diagnostic.message = what;
     }
   }
   if (total <= MAX_SOURCE_CORNERS || !worst) return;
