@@ -1,3 +1,4 @@
+import { TIE } from './peak.js';
 import type { Track } from './track.js';
 
 export interface Extremum {
@@ -5,7 +6,11 @@ export interface Extremum {
   time: number;
 }
 
-/** Largest and smallest value over the span (the earliest time wins a tie). */
+/**
+ * Largest and smallest value over the span; the earliest time wins a tie (values within 1e-12
+ * relative, as in every peak search: a level held flat reads its start, not the knot where
+ * rounding happened to put its last ulp).
+ */
 export function findPeakAndValley(track: Track): { peak: Extremum; valley: Extremum } {
   // (in locals: a number stored into an object field on every new extreme would be a new heap number)
   let pv = -Infinity;
@@ -15,11 +20,11 @@ export function findPeakAndValley(track: Track): { peak: Extremum; valley: Extre
   const { ts, ys } = track;
   for (let k = 0; k < ts.length; k++) {
     const y = ys[k]!;
-    if (y > pv) {
+    if (y > pv + TIE * Math.abs(pv) || pv === -Infinity) {
       pv = y;
       pt = ts[k]!;
     }
-    if (y < vv) {
+    if (y < vv - TIE * Math.abs(vv) || vv === Infinity) {
       vv = y;
       vt = ts[k]!;
     }
